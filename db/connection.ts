@@ -1,0 +1,50 @@
+// One way to open Knex on MariaDB, shared by the server, the scripts and the tests.
+import knex, { type Knex } from 'knex'
+
+export interface DbSettings {
+  host: string
+  port: number
+  user: string
+  password: string
+  database: string
+  poolMax?: number
+}
+
+export function createDb(settings: DbSettings): Knex {
+  return knex({
+    client: 'mysql2',
+    connection: {
+      host: settings.host,
+      port: Number(settings.port),
+      user: settings.user,
+      password: settings.password,
+      database: settings.database,
+      // DATETIME columns hold UTC; mysql2 must neither add nor remove the machine's offset.
+      timezone: 'Z',
+      dateStrings: false,
+      supportBigNumbers: true,
+      charset: 'utf8mb4',
+    },
+    pool: {
+      min: 0,
+      max: settings.poolMax ?? 10,
+      // NOW() and friends must also be UTC, whatever the server's own zone is.
+      afterCreate(connection: { query: (sql: string, cb: (err: Error | null) => void) => void }, done: (err: Error | null, conn: unknown) => void) {
+        connection.query("SET time_zone = '+00:00'", (err) => done(err, connection))
+      },
+    },
+  })
+}
+
+/** Settings from the environment the provisioning scripts export (scripts/lib/env.sh). */
+export function dbSettingsFromEnv(env: NodeJS.ProcessEnv = process.env): DbSettings {
+  const password = env.NUXT_DB_PASSWORD ?? env.DB_PASSWORD
+  if (!password) throw new Error('NUXT_DB_PASSWORD is not set: run this through scripts/with-env.sh')
+  return {
+    host: env.NUXT_DB_HOST ?? env.DB_HOST ?? '127.0.0.1',
+    port: Number(env.NUXT_DB_PORT ?? env.DB_PORT ?? 3307),
+    user: env.NUXT_DB_USER ?? env.DB_USER ?? 'cuspline',
+    password,
+    database: env.NUXT_DB_DATABASE ?? env.DB_NAME ?? 'cuspline',
+  }
+}

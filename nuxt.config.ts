@@ -1,0 +1,51 @@
+// Nuxt configuration. Source folders live at the repository root (srcDir '.').
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  srcDir: '.',
+  telemetry: false,
+  devtools: { enabled: false },
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
+  css: ['@fontsource/inter/400.css', '@fontsource/inter/500.css', '@fontsource/inter/600.css', '@fontsource/inter/700.css'],
+  tailwindcss: {
+    cssPath: '~/assets/css/tailwind.css',
+    configPath: 'tailwind.config.ts',
+    viewer: false,
+  },
+  app: {
+    head: {
+      title: 'Cuspline',
+      htmlAttrs: { lang: 'en' },
+      meta: [{ name: 'viewport', content: 'width=device-width, initial-scale=1' }],
+    },
+  },
+  runtimeConfig: {
+    // Every key is overridable by NUXT_* environment variables (see .env.example).
+    db: {
+      host: '127.0.0.1',
+      port: 3307,
+      user: 'cuspline',
+      password: '',
+      database: 'cuspline',
+    },
+    auth: {
+      idleMinutes: 30,
+      absoluteHours: 12,
+      accountFailureLimit: 10,
+      ipFailureLimit: 100,
+      failureWindowMinutes: 15,
+      trustProxy: false,
+      allowedOrigins: '',
+    },
+    session: {
+      password: '',
+      maxAge: 60 * 60 * 12,
+      cookie: { sameSite: 'lax', httpOnly: true, secure: true },
+    },
+    smtp: { host: '127.0.0.1', port: 1025, secure: false, user: '', password: '', from: '' },
+    public: { appName: 'Cuspline' },
+  },
+  nitro: {
+    experimental: { tasks: false },
+  },
+  typescript: { strict: true },
+})

@@ -1,0 +1,53 @@
+# Shared settings for every provisioning script. Source it; do not run it.
+# Every value can be overridden from the environment (CI moves the ports off the defaults).
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)"
+export ROOT
+export DATA_DIR="${DATA_DIR:-$ROOT/.data}"
+export DB_HOST="${DB_HOST:-127.0.0.1}"
+export DB_PORT="${DB_PORT:-3307}"
+export DB_NAME="${DB_NAME:-cuspline}"
+export DB_USER="${DB_USER:-cuspline}"
+export DB_SOCKET="${DB_SOCKET:-$DATA_DIR/mariadb.sock}"
+export SMTP_HOST="${SMTP_HOST:-127.0.0.1}"
+export SMTP_PORT="${SMTP_PORT:-1025}"
+export MAIL_DIR="${MAIL_DIR:-$DATA_DIR/mail}"
+export HOST="${HOST:-127.0.0.1}"
+export PORT="${PORT:-3000}"
+export NUXT_TELEMETRY_DISABLED=1
+
+mkdir -p "$DATA_DIR"
+
+# A secret generated once into .data/ (never committed).
+secret_file() {
+  local file="$DATA_DIR/$1"
+  if [ ! -s "$file" ]; then
+    (umask 077; node -e "process.stdout.write(require('crypto').randomBytes(24).toString('hex'))" > "$file")
+  fi
+  cat "$file"
+}
+
+DB_PASSWORD="${DB_PASSWORD:-$(secret_file db-password)}"
+export DB_PASSWORD
+NUXT_SESSION_PASSWORD="${NUXT_SESSION_PASSWORD:-$(secret_file session-password)}"
+export NUXT_SESSION_PASSWORD
+
+# What the app reads (runtimeConfig is overridden by NUXT_* variables).
+export NUXT_DB_HOST="$DB_HOST" NUXT_DB_PORT="$DB_PORT" NUXT_DB_USER="$DB_USER"
+export NUXT_DB_PASSWORD="$DB_PASSWORD" NUXT_DB_DATABASE="$DB_NAME"
+export NUXT_SMTP_HOST="$SMTP_HOST" NUXT_SMTP_PORT="$SMTP_PORT"
+# The local server speaks plain HTTP on loopback, so the session cookie cannot be Secure here.
+export NUXT_SESSION_COOKIE_SECURE="${NUXT_SESSION_COOKIE_SECURE:-false}"
+
+log() { printf '\033[1;34m[cuspline]\033[0m %s\n' "$*"; }
+
+# apt-get update runs at most once per script run.
+APT_UPDATED=""
+apt_install() {
+  if [ -z "$APT_UPDATED" ]; then
+    log "apt-get update"
+    apt-get update -qq
+    APT_UPDATED=1
+  fi
+  log "installing $*"
+  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "$@" >/dev/null
+}

@@ -1,0 +1,23 @@
+#!/usr/bin/env bash
+# npm start: provision, seed the demo into an empty database, build, serve on http://$HOST:$PORT.
+set -euo pipefail
+source "$(dirname "$0")/lib/env.sh"
+cd "$ROOT"
+bash scripts/provision.sh
+bash scripts/with-env.sh tsx scripts/db-seed.ts
+bash scripts/build-if-stale.sh
+cat <<TXT
+
+  Cuspline is running at http://$HOST:$PORT
+  Demo sign-ins (password: cuspline-demo):
+    admin@fernhollow.test        admin, all sites
+    manager@fernhollow.test      manager, all sites
+    desk.quarry@fernhollow.test  front desk, Quarry Street
+    desk.aspen@fernhollow.test   front desk, Aspen Gulch
+    dentist@fernhollow.test      dentist, Quarry Street and Saguaro Flats
+    hygienist@fernhollow.test    hygienist, Aspen Gulch
+  Mail catcher: smtp://$SMTP_HOST:$SMTP_PORT -> $MAIL_DIR
+  MariaDB: $DB_HOST:$DB_PORT (stop it with: npm run db:stop)
+
+TXT
+exec node .output/server/index.mjs

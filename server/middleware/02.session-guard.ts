@@ -1,0 +1,33 @@
+// Checks the sealed session cookie against the database on every API call: a cookie from before
+// a sign-out, password change or deactivation, or one idle or too old, is cleared. The fresh user
+// (role and sites as they are now) is put on event.context.currentUser for requireUser().
+import { useDb } from '../utils/db'
+import { findUserById, siteIdsOfUser, toSessionUser } from '../repositories/users'
+
+const REFRESH_EVERY_MS = 60_000
+
+export default defineEventHandler(async (event) => {
+  if (!event.path.startsWith('/api/')) return
+  const session = await getUserSession(event)
+  if (!session.user) return
+
+  const { auth } = useRuntimeConfig(event)
+  const idleMs = Number(auth.idleMinutes) * 60_000
+  const lifetimeMs = Number(auth.absoluteHours) * 3_600_000
+  const now = Date.now()
+  const expired = !session.signedInAt || now - session.signedInAt > lifetimeMs || !session.lastSeenAt || now - session.lastSeenAt > idleMs
+
+  const db = useDb()
+  const row = expired ? undefined : await findUserById(db, session.user.id)
+  if (!row || !row.active || row.session_version !== session.sessionVersion) {
+    // Already invalid: clearing it must not revoke the user's other, still valid cookies.
+    event.context.sessionAlreadyInvalid = true
+    await clearUserSession(event)
+    return
+  }
+
+  event.context.currentUser = toSessionUser(row, await siteIdsOfUser(db, row.id))
+  if (now - session.lastSeenAt > Math.min(REFRESH_EVERY_MS, idleMs / 2)) {
+    await setUserSession(event, { lastSeenAt: now })
+  }
+})

@@ -1,0 +1,78 @@
+// Staff accounts and their site scopes.
+import type { Db } from '../utils/db'
+import type { Role, SessionUser } from '#shared/types/auth'
+
+export interface UserRow {
+  id: number
+  email: string
+  name: string
+  password_hash: string
+  role: Role
+  all_sites: number
+  active: number
+  session_version: number
+}
+
+export interface NewUser {
+  email: string
+  name: string
+  passwordHash: string
+  role: Role
+  allSites: boolean
+  siteIds: number[]
+}
+
+export async function findUserByEmail(db: Db, email: string): Promise<UserRow | undefined> {
+  return db<UserRow>('users').where({ email }).first()
+}
+
+export async function findUserById(db: Db, id: number): Promise<UserRow | undefined> {
+  return db<UserRow>('users').where({ id }).first()
+}
+
+export async function siteIdsOfUser(db: Db, userId: number): Promise<number[]> {
+  const rows = await db('user_sites').where({ user_id: userId }).orderBy('site_id').select('site_id')
+  return rows.map((row: { site_id: number }) => row.site_id)
+}
+
+export function toSessionUser(row: UserRow, siteIds: number[]): SessionUser {
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    allSites: Boolean(row.all_sites),
+    siteIds,
+  }
+}
+
+export async function insertUser(db: Db, user: NewUser): Promise<number> {
+  const [id] = await db('users').insert({
+    email: user.email,
+    name: user.name,
+    password_hash: user.passwordHash,
+    role: user.role,
+    all_sites: user.allSites,
+  })
+  if (user.siteIds.length) {
+    await db('user_sites').insert(user.siteIds.map((siteId) => ({ user_id: id, site_id: siteId })))
+  }
+  return id as number
+}
+
+export async function recordSignIn(db: Db, userId: number): Promise<void> {
+  await db('users').where({ id: userId }).update({ last_sign_in_at: db.fn.now(3) })
+}
+
+/** Invalidates every cookie issued so far for this user. */
+export async function bumpSessionVersion(db: Db, userId: number): Promise<void> {
+  await db('users').where({ id: userId }).increment('session_version', 1).update({ updated_at: db.fn.now(3) })
+}
+
+export async function setUserActive(db: Db, userId: number, active: boolean): Promise<void> {
+  await db('users').where({ id: userId }).update({ active, updated_at: db.fn.now(3) }).increment('session_version', 1)
+}
+
+export async function setPasswordHash(db: Db, userId: number, passwordHash: string): Promise<void> {
+  await db('users').where({ id: userId }).update({ password_hash: passwordHash, updated_at: db.fn.now(3) }).increment('session_version', 1)
+}

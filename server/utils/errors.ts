@@ -1,0 +1,83 @@
+// Every error a user can cause is answered here with a status and a message a person can act on.
+import type { H3Event } from 'h3'
+import { ZodError, type ZodType } from 'zod'
+import { DomainValidationError } from '#shared/domain/errors'
+
+export const MESSAGES = {
+  signedOut: 'Please sign in.',
+  forbidden: 'Your role does not allow this.',
+  forbiddenSite: 'This site is outside your sites.',
+  badCredentials: 'E-mail or password is incorrect.',
+  tooManyAttempts: 'Too many failed sign-in attempts. Try again later.',
+  foreignOrigin: 'This request came from another web site and was refused.',
+  notFound: 'Not found.',
+} as const
+
+export interface FieldProblem {
+  field: string
+  reason: string
+}
+
+export function badRequest(field: string, reason: string, issues: FieldProblem[] = [{ field, reason }]) {
+  return createError({
+    statusCode: 400,
+    statusMessage: 'Bad Request',
+    message: `${field}: ${reason}`,
+    data: { field, reason, issues },
+  })
+}
+
+export function notFound(what = 'Not found.') {
+  return createError({ statusCode: 404, statusMessage: 'Not Found', message: what })
+}
+
+export function conflict(message: string, data: Record<string, unknown> = {}) {
+  return createError({ statusCode: 409, statusMessage: 'Conflict', message, data })
+}
+
+function zodProblems(error: ZodError): FieldProblem[] {
+  return error.issues.map((issue) => ({
+    field: issue.path.length ? issue.path.join('.') : '(body)',
+    reason: issue.message,
+  }))
+}
+
+/**
+ * What h3's readValidatedBody/getValidatedQuery put in the 400's `data`: its own enumerable
+ * fields are serialised, so the client reads `data.field`, `data.reason` and `data.issues`.
+ */
+class ValidationProblem extends Error {
+  readonly field: string
+  readonly reason: string
+  readonly issues: FieldProblem[]
+  constructor(issues: FieldProblem[]) {
+    const first = issues[0] ?? { field: '(body)', reason: 'is invalid' }
+    super(`${first.field}: ${first.reason}`)
+    this.field = first.field
+    this.reason = first.reason
+    this.issues = issues
+  }
+}
+
+/** Turns a zod schema into an h3 validator whose failures are 400s naming the field and the reason. */
+export function validateWith<T>(schema: ZodType<T>) {
+  return (input: unknown): T => {
+    const parsed = schema.safeParse(input ?? {})
+    if (parsed.success) return parsed.data
+    throw new ValidationProblem(zodProblems(parsed.error))
+  }
+}
+
+/** Domain rules (a bad tooth, a surface that does not fit it) reach the client as 400s too. */
+export function rethrowDomainError(error: unknown): never {
+  if (error instanceof DomainValidationError) throw badRequest(error.field, error.reason)
+  throw error
+}
+
+/** Route params are validated like bodies. */
+export function numericParam(event: H3Event, name: string): number {
+  const raw = getRouterParam(event, name)
+  const value = Number(raw)
+  if (!raw || !Number.isInteger(value) || value <= 0) throw badRequest(name, 'must be a positive whole number')
+  return value
+}
