@@ -3,9 +3,12 @@
 set -euo pipefail
 source "$(dirname "$0")/lib/env.sh"
 cd "$ROOT"
+SOURCES=(app.vue nuxt.config.ts tailwind.config.ts package-lock.json assets components composables
+  layouts middleware pages public server shared stores db)
 sources_hash() {
-  find app.vue nuxt.config.ts tailwind.config.ts package-lock.json assets components composables \
-    layouts middleware pages public server shared stores db -type f 2>/dev/null | LC_ALL=C sort | xargs sha256sum | sha256sum | cut -d' ' -f1
+  local present=()
+  for path in "${SOURCES[@]}"; do [ -e "$path" ] && present+=("$path"); done
+  find "${present[@]}" -type f | LC_ALL=C sort | xargs sha256sum | sha256sum | cut -d' ' -f1
 }
 want="$(sources_hash)"
 stamp=".output/.cuspline-sources-hash"
