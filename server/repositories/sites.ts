@@ -24,7 +24,9 @@ interface SiteRow {
 
 const NO_HOURS: OpeningHours = { '1': [], '2': [], '3': [], '4': [], '5': [], '6': [], '7': [] }
 
-function toSummary(row: SiteRow): SiteSummary {
+type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation'>
+
+function toSummary(row: SummaryRow): SiteSummary {
   return {
     id: row.id,
     name: row.name,
@@ -54,7 +56,7 @@ export function toCalendar(site: SiteDetail): SiteCalendar {
 
 /** Sites the user may see: every active site, or only the listed ones. */
 export async function listSites(db: Db, scope: { allSites: boolean; siteIds: number[] }): Promise<SiteSummary[]> {
-  const query = db<SiteRow>('sites').where({ active: true }).orderBy('name')
+  const query = db<SiteRow>('sites').where('active', true).orderBy('name')
   if (!scope.allSites) query.whereIn('id', scope.siteIds)
   return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation')).map(toSummary)
 }

@@ -60,18 +60,20 @@ export const ShiftExceptionSchema = z
   })
 export type ShiftExceptionBody = z.infer<typeof ShiftExceptionSchema>
 
+const blockFields = {
+  siteId: IdSchema,
+  operatoryId: optionalId,
+  providerId: optionalId,
+  startDate: LocalDateSchema,
+  localStart: LocalTimeSchema,
+  localEnd: LocalEndTimeSchema,
+  rrule: RruleSchema.nullable().optional().transform((value) => value ?? null),
+  untilDate: LocalDateSchema.nullable().optional().transform((value) => value ?? null),
+  reason: reasonRequired,
+}
+
 export const BlockSchema = z
-  .object({
-    siteId: IdSchema,
-    operatoryId: optionalId,
-    providerId: optionalId,
-    startDate: LocalDateSchema,
-    localStart: LocalTimeSchema,
-    localEnd: LocalEndTimeSchema,
-    rrule: RruleSchema.nullable().optional().transform((value) => value ?? null),
-    untilDate: LocalDateSchema.nullable().optional().transform((value) => value ?? null),
-    reason: reasonRequired,
-  })
+  .object(blockFields)
   .superRefine((block, ctx) => {
     endAfterStart(block, ctx)
     dateNotBefore(block.untilDate, block.startDate, 'untilDate', ctx, 'the first day (startDate)')
@@ -80,6 +82,8 @@ export const BlockSchema = z
     }
   })
 export type BlockBody = z.infer<typeof BlockSchema>
+
+export const BlockPatchSchema = z.object(blockFields).partial()
 
 /** Dates are site-local and inclusive; an ISO instant with an offset is taken as it is. */
 const instantOrDate = z

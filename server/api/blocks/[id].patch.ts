@@ -1,13 +1,11 @@
 // PATCH /api/blocks/:id: change a block; the merged block is validated again.
 import type { BlockDto } from '#shared/types/rota-api'
-import { BlockSchema } from '#shared/schemas/rota'
+import { BlockPatchSchema, BlockSchema } from '#shared/schemas/rota'
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../utils/auth'
 import { useDb } from '../../utils/db'
 import { assertValid, notFound, numericParam, validateWith } from '../../utils/errors'
 import { findBlock } from '../../repositories/blocks'
 import { saveBlock } from '../../services/rota-service'
-
-const BlockPatchSchema = BlockSchema.innerType().partial()
 
 export default defineEventHandler(async (event): Promise<BlockDto> => {
   const user = requireRole(event, MANAGING_ROLES)
