@@ -11,7 +11,9 @@ let manager: ApiClient
 let deskQuarry: ApiClient
 
 beforeAll(async () => {
-  ;[quarry, aspen, saguaro] = await Promise.all(['quarry-street', 'aspen-gulch', 'saguaro-flats'].map(siteIdBySlug))
+  quarry = await siteIdBySlug('quarry-street')
+  aspen = await siteIdBySlug('aspen-gulch')
+  saguaro = await siteIdBySlug('saguaro-flats')
   manager = await signedInAs('manager@fernhollow.test')
   deskQuarry = await signedInAs('desk.quarry@fernhollow.test')
 })

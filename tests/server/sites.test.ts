@@ -10,7 +10,9 @@ let manager: ApiClient
 let desk: ApiClient
 
 beforeAll(async () => {
-  ;[admin, manager, desk] = await Promise.all(['admin', 'manager', 'desk.quarry'].map((who) => signedInAs(`${who}@fernhollow.test`)))
+  admin = await signedInAs('admin@fernhollow.test')
+  manager = await signedInAs('manager@fernhollow.test')
+  desk = await signedInAs('desk.quarry@fernhollow.test')
 })
 afterAll(closeTestDb)
 
