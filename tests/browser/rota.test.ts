@@ -37,10 +37,12 @@ describe('Rota', () => {
     await expect.poll(() => form.getByTestId('rule-in-words').textContent()).toBe('Repeats every Tuesday and Thursday')
     await form.getByLabel('Starts at').fill('07:30')
     await form.getByLabel('Ends at').fill('16:00')
+    await screenshot(page, 'rota-shift-form')
     await form.getByRole('button', { name: 'Save shift' }).click()
     await expect.poll(() => page.getByRole('dialog').count()).toBe(0)
 
-    const mine = page.getByTestId('rota-entry').filter({ hasText: provider.name })
+    // Cards carry the full name in their label (three shifts side by side show initials only).
+    const mine = page.locator(`[data-testid="rota-entry"][aria-label^="${provider.name},"]`)
     await expect.poll(() => mine.count()).toBe(2)
     const labels = await mine.evaluateAll((cards) => cards.map((card) => card.getAttribute('aria-label')))
     expect(labels).toEqual([
@@ -56,12 +58,25 @@ describe('Rota', () => {
 
   it('opens the shift from the grid and names a bad end time beside the field', async () => {
     const { page } = browser
-    await page.getByTestId('rota-entry').filter({ hasText: provider.name }).first().click()
+    await page.locator(`[data-testid="rota-entry"][aria-label^="${provider.name},"]`).first().click()
     const form = page.getByTestId('shift-form')
     await expect.poll(() => form.getByLabel('Starts at').inputValue()).toBe('07:30')
     await form.getByLabel('Starts at').fill('18:00')
     await form.getByRole('button', { name: 'Save changes' }).click()
     await expect.poll(() => form.locator('.field-error').first().textContent()).toBe('must be after the start time')
     await form.getByRole('button', { name: 'Cancel' }).click()
+  })
+
+  it('shows one provider\'s week across sites, each shift labelled with its site', async () => {
+    const { page } = browser
+    await page.getByRole('button', { name: 'One provider' }).click()
+    const dentist = await testDb()('users').where({ email: 'dentist@fernhollow.test' }).first('name')
+    await page.getByLabel('Provider to show').selectOption({ label: dentist.name })
+    const cards = page.getByTestId('rota-entry')
+    // The demo dentist: Quarry Street Mon, Tue, Thu and Saguaro Flats Wed, Fri (seeds/03-rota.ts).
+    await expect.poll(async () => (await cards.allTextContents()).map((text) => text.replace(/\d.*$/, ''))).toEqual([
+      'Fernhollow Quarry Street', 'Fernhollow Quarry Street', 'Fernhollow Saguaro Flats', 'Fernhollow Quarry Street', 'Fernhollow Saguaro Flats',
+    ])
+    await screenshot(page, 'rota-provider-week')
   })
 })

@@ -86,7 +86,7 @@ describe('shifts: validation', () => {
   })
 
   it('checks a PATCH merged with the stored shift (end before the stored start)', async () => {
-    const created = await manager.post('/api/shifts', shiftBody(providerId, { rrule: 'FREQ=WEEKLY;BYDAY=MO' }))
+    const created = await manager.post('/api/shifts', shiftBody(providerId, { rrule: 'FREQ=WEEKLY;BYDAY=MO', validUntil: '2026-03-31' }))
     const response = await manager.patch(`/api/shifts/${created.body.id}`, { localEnd: '07:00' })
     expect(response.status).toBe(400)
     expect(response.body.data).toMatchObject({ field: 'localEnd', reason: 'must be after the start time' })
@@ -107,7 +107,7 @@ describe('shifts: one provider, one site at a time', () => {
 
   it('finds a clash on the first matching date of an every-other-week rule across zones', async () => {
     const provider = await createTestProvider(['aspen-gulch', 'saguaro-flats'])
-    const saguaroShift = await manager.post('/api/shifts', shiftBody(provider.providerId, { siteId: saguaro, rrule: 'FREQ=MONTHLY;BYDAY=1MO', validFrom: '2026-01-01', localStart: '09:00', localEnd: '13:00' }))
+    const saguaroShift = await manager.post('/api/shifts', shiftBody(provider.providerId, { siteId: saguaro, rrule: 'FREQ=MONTHLY;BYDAY=1MO', validFrom: '2026-01-01', validUntil: '2026-02-28', localStart: '09:00', localEnd: '13:00' }))
     expect(saguaroShift.status).toBe(201)
     // Aspen Gulch 10:00–11:00 every other Monday from 5 Jan: 5 Jan (MST = Phoenix time) is 10:00–11:00 in Phoenix, inside 09:00–13:00.
     const response = await manager.post('/api/shifts', shiftBody(provider.providerId, { rrule: 'FREQ=WEEKLY;INTERVAL=2;BYDAY=MO', validFrom: '2026-01-05', localStart: '10:00', localEnd: '11:00' }))
@@ -117,16 +117,17 @@ describe('shifts: one provider, one site at a time', () => {
 
   it('accepts a shift that only touches another site\'s shift (half-open intervals)', async () => {
     const dentist = await providerIdByEmail('dentist@fernhollow.test')
+    // Dates far from today: the browser tests draw this week's rota from the same database.
     // Saguaro Flats Wednesdays 07:00–15:00 Phoenix (UTC−07:00 all year). In winter Aspen Gulch is
     // MST, also UTC−07:00 (IANA tz database), so Aspen 15:00–18:00 starts exactly when Saguaro ends.
-    const touching = shiftBody(dentist, { rrule: 'FREQ=WEEKLY;BYDAY=WE', validFrom: '2026-11-04', validUntil: '2027-03-10', localStart: '15:00', localEnd: '18:00' })
+    const touching = shiftBody(dentist, { rrule: 'FREQ=WEEKLY;BYDAY=WE', validFrom: '2027-11-10', validUntil: '2028-03-08', localStart: '15:00', localEnd: '18:00' })
     const response = await manager.post('/api/shifts', touching)
     expect(response.status).toBe(201)
     await manager.delete(`/api/shifts/${response.body.id}`)
-    // Past 14 March 2027 Denver is on MDT (UTC−06:00): 15:00 there is 14:00 in Phoenix, an overlap.
-    const intoSummer = await manager.post('/api/shifts', { ...touching, validUntil: '2027-03-31' })
+    // Past 12 March 2028 Denver is on MDT (UTC−06:00): 15:00 there is 14:00 in Phoenix, an overlap.
+    const intoSummer = await manager.post('/api/shifts', { ...touching, validUntil: '2028-03-31' })
     expect(intoSummer.status).toBe(409)
-    expect(intoSummer.body.data.date).toBe('2027-03-17')
+    expect(intoSummer.body.data.date).toBe('2028-03-15')
   })
 })
 
@@ -168,7 +169,7 @@ describe('availability', () => {
 
   it('takes time off out of the provider\'s availability', async () => {
     const provider = await createTestProvider(['aspen-gulch'])
-    await manager.post('/api/shifts', shiftBody(provider.providerId, { rrule: 'FREQ=WEEKLY;BYDAY=MO,TU', validFrom: '2026-04-06' }))
+    await manager.post('/api/shifts', shiftBody(provider.providerId, { rrule: 'FREQ=WEEKLY;BYDAY=MO,TU', validFrom: '2026-04-06', validUntil: '2026-04-30' }))
     const off = await manager.post('/api/shift-exceptions', { providerId: provider.providerId, kind: 'time_off', startDate: '2026-04-07', endDate: '2026-04-07', reason: 'Course' })
     expect(off.status).toBe(201)
     const response = await manager.get(`/api/availability?siteId=${aspen}&from=2026-04-06&to=2026-04-07`)

@@ -1,0 +1,66 @@
+// Sites & rooms and People as an admin sees them, in real Chromium against the built app.
+import { randomUUID } from 'node:crypto'
+import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from '../helpers/browser'
+import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
+
+let browser: BrowserSession
+
+beforeAll(async () => {
+  browser = await openBrowser(inject('baseURL'))
+  await signInThroughForm(browser.page, 'admin@fernhollow.test')
+  await browser.page.waitForURL(/\/chairboard$/)
+})
+afterAll(async () => {
+  await browser?.close()
+  await closeTestDb()
+})
+
+describe('Sites & rooms', () => {
+  it('sorts the sites by time zone and adds a room to Aspen Gulch', async () => {
+    const { page } = browser
+    await page.goto('/sites')
+    const rows = page.getByTestId('site-rows').locator('tr')
+    await expect.poll(() => rows.count()).toBeGreaterThanOrEqual(3)
+    await page.getByRole('button', { name: /^Time zone/ }).click()
+    const zones = await rows.locator('td:nth-child(2)').allTextContents()
+    expect(zones).toEqual([...zones].sort((a, b) => a.localeCompare(b)))
+
+    await page.getByTestId('site-rows').getByRole('button', { name: 'Fernhollow Aspen Gulch' }).click()
+    await page.getByRole('button', { name: 'Add room' }).click()
+    const name = `Test room ${randomUUID().slice(0, 4)}`
+    const form = page.getByTestId('room-form')
+    await form.getByLabel('Room name').fill(name)
+    await form.getByLabel('imaging').check()
+    await form.getByRole('button', { name: 'Add room' }).click()
+    await expect.poll(() => page.getByTestId('room-rows').getByText(name).count()).toBe(1)
+    const stored = await testDb()('operatories').where({ name }).first()
+    expect(stored.site_id).toBe(await siteIdBySlug('aspen-gulch'))
+    await screenshot(page, 'sites-aspen-rooms')
+  })
+
+  it('names a wrong time zone beside the field before sending', async () => {
+    const { page } = browser
+    await page.getByRole('button', { name: 'New site' }).click()
+    const form = page.getByTestId('site-form')
+    await form.getByLabel('Name').fill('Fernhollow Nowhere')
+    await form.getByLabel('Time zone (IANA)').fill('Mars/Olympus_Mons')
+    await form.getByRole('button', { name: 'Create site' }).click()
+    await expect.poll(() => form.locator('.field-error').first().textContent()).toBe('is not an IANA time zone such as America/Denver')
+    await screenshot(page, 'sites-new-site-error')
+    await form.getByRole('button', { name: 'Cancel' }).click()
+  })
+})
+
+describe('People', () => {
+  it('lists staff accounts, filtered by role, and the providers', async () => {
+    const { page } = browser
+    await page.goto('/people')
+    const rows = page.getByTestId('staff-rows').locator('tr')
+    await expect.poll(() => rows.count()).toBeGreaterThanOrEqual(14)
+    await page.getByLabel('Only this role').selectOption('hygienist')
+    await expect.poll(async () => new Set(await rows.locator('td:nth-child(3)').allTextContents())).toEqual(new Set(['Hygienist']))
+    await expect.poll(() => page.getByTestId('provider-rows').locator('li').count()).toBeGreaterThanOrEqual(7)
+    await screenshot(page, 'people-hygienists')
+  })
+})
