@@ -30,7 +30,8 @@ describe('Rota', () => {
     await expect.poll(() => page.getByText('Fernhollow Aspen Gulch · times in America/Denver').count()).toBe(1)
 
     await page.getByRole('button', { name: 'Add shift' }).click()
-    const form = page.getByTestId('shift-form')
+    await expect.poll(() => page.getByRole('dialog', { name: 'Add shift' }).isVisible()).toBe(true)
+    const form = page.getByRole('dialog', { name: 'Add shift' }).getByTestId('shift-form')
     await form.getByLabel('Provider').selectOption({ label: `${provider.name} (dentist)` })
     await form.getByLabel('Tuesday').check({ force: true })
     await form.getByLabel('Thursday').check({ force: true })
@@ -56,14 +57,26 @@ describe('Rota', () => {
     await screenshot(page, 'rota-aspen-week')
   })
 
-  it('opens the shift from the grid and names a bad end time beside the field', async () => {
+  it('opens the shift from the grid, names a bad end time, and shows a clash with another site', async () => {
     const { page } = browser
     await page.locator(`[data-testid="rota-entry"][aria-label^="${provider.name},"]`).first().click()
-    const form = page.getByTestId('shift-form')
+    const form = page.getByRole('dialog', { name: 'Change shift' }).getByTestId('shift-form')
     await expect.poll(() => form.getByLabel('Starts at').inputValue()).toBe('07:30')
     await form.getByLabel('Starts at').fill('18:00')
     await form.getByRole('button', { name: 'Save changes' }).click()
     await expect.poll(() => form.locator('.field-error').first().textContent()).toBe('must be after the start time')
+
+    // The same provider also works Tuesday mornings at Saguaro Flats (set up behind the UI's back).
+    const stored = await testDb()('shifts').where({ provider_id: provider.providerId }).first()
+    const saguaro = await siteIdBySlug('saguaro-flats')
+    await testDb()('shifts').insert({ provider_id: provider.providerId, site_id: saguaro, rrule: 'FREQ=WEEKLY;BYDAY=TU', valid_from: '2026-01-06', valid_until: null, local_start: '07:00', local_end: '12:00' })
+    const firstTuesday = new Date(stored.valid_from.getTime() + 86_400_000).toISOString().slice(0, 10)
+    await form.getByLabel('Starts at').fill('08:00')
+    await form.getByRole('button', { name: 'Save changes' }).click()
+    await expect.poll(() => form.getByTestId('form-problem').textContent())
+      .toBe(`${provider.name} already works at Fernhollow Saguaro Flats on ${firstTuesday} at that time.`)
+    await screenshot(page, 'rota-shift-clash')
+    await testDb()('shifts').where({ provider_id: provider.providerId, site_id: saguaro }).delete()
     await form.getByRole('button', { name: 'Cancel' }).click()
   })
 
