@@ -1,7 +1,7 @@
 // Shifts, exceptions, blocks and availability over HTTP against the built server and real MariaDB.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, signedInAs } from '../helpers/api-client'
-import { closeTestDb, siteIdBySlug } from '../helpers/db'
+import { closeTestDb, createTestUser, siteIdBySlug } from '../helpers/db'
 import { createTestProvider, providerIdByEmail } from '../helpers/rota'
 
 let quarry: number
@@ -49,6 +49,20 @@ describe('shifts: permissions', () => {
 
     expect((await manager.delete(`/api/shifts/${created.body.id}`)).status).toBe(200)
     expect((await manager.get(`/api/shifts/${created.body.id}`)).status).toBe(404)
+  })
+
+  it('lets a manager of one site change only that site\'s rota', async () => {
+    const scoped = await createTestUser({ role: 'manager', siteSlugs: ['quarry-street'] })
+    const client = new ApiClient()
+    await client.signIn(scoped.email, scoped.password)
+    const provider = await createTestProvider(['quarry-street', 'aspen-gulch'])
+    expect((await client.post('/api/shifts', shiftBody(provider.providerId))).status).toBe(403)
+    const mine = await client.post('/api/shifts', shiftBody(provider.providerId, { siteId: quarry, validUntil: '2026-03-31' }))
+    expect(mine.status).toBe(201)
+    expect((await client.patch(`/api/shifts/${mine.body.id}`, { siteId: aspen })).status).toBe(403)
+    // Time off at every site touches Aspen Gulch too, which this manager does not keep.
+    const everywhere = await client.post('/api/shift-exceptions', { providerId: provider.providerId, kind: 'time_off', startDate: '2026-03-10', endDate: '2026-03-10' })
+    expect(everywhere.status).toBe(403)
   })
 
   it('refuses a front desk reading another site\'s rota with 403', async () => {
