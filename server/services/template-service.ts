@@ -1,18 +1,18 @@
 // Chair-time templates: create, revise (new version), deactivate; and the chair-time calculation.
 import type { SessionUser } from '#shared/types/auth'
-import type { ChairTimeTemplate, PlanItemInput, BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
+import type { ChairTimeTemplate, BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
 import type { StoredTemplate } from '#shared/types/templates'
 import type { ChairTimeRequest, TemplateInput } from '#shared/schemas/templates'
 import { validateTemplate } from '#shared/domain/template-validation'
-import { planVisit } from '#shared/domain/chair-time'
 import { useDb, type Db } from '../utils/db'
-import { badRequest, conflict, notFound, rethrowDomainError } from '../utils/errors'
+import { badRequest, conflict, notFound } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { findSite } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
 import {
-  codeExists, findCurrentTemplateByCode, findTemplateById, insertFirstVersion, insertNextVersion, setCodeActive,
+  codeExists, findTemplateById, insertFirstVersion, insertNextVersion, setCodeActive,
 } from '../repositories/templates'
+import { planItems } from './plan-service'
 
 function assertValid(template: ChairTimeTemplate): void {
   const issues = validateTemplate(template)
@@ -66,31 +66,8 @@ async function bookingUnitFor(user: SessionUser, siteId: number | undefined): Pr
   return site.bookingUnitMinutes as BookingUnitMinutes
 }
 
-async function templateForItem(item: ChairTimeRequest['items'][number], index: number): Promise<StoredTemplate> {
-  const db = useDb()
-  const template = item.templateId !== undefined
-    ? await findTemplateById(db, item.templateId)
-    : await findCurrentTemplateByCode(db, item.templateCode!.toUpperCase())
-  const field = item.templateId !== undefined ? `items.${index}.templateId` : `items.${index}.templateCode`
-  if (!template) throw badRequest(field, 'no such template')
-  if (!template.active) throw badRequest(field, `${template.name} is no longer in use`)
-  return template
-}
-
 /** Resolves the request's templates and runs the pure engine; domain errors become 400s. */
 export async function computeChairTime(request: ChairTimeRequest, user: SessionUser): Promise<VisitPlan> {
   const unitMinutes = await bookingUnitFor(user, request.siteId)
-  const items: PlanItemInput[] = await Promise.all(request.items.map(async (item, index) => ({
-    template: await templateForItem(item, index),
-    tooth: item.tooth,
-    teeth: item.teeth,
-    notation: item.notation,
-    surfaces: item.surfaces,
-    anaesthesia: item.anaesthesia,
-  })))
-  try {
-    return planVisit(items, { unitMinutes })
-  } catch (error) {
-    rethrowDomainError(error)
-  }
+  return (await planItems(useDb(), request.items, unitMinutes)).plan
 }
