@@ -51,3 +51,20 @@ export const NewPatientSchema = z.object({
   preferredSiteId: id('site').nullable().optional(),
   emailConsent: z.boolean().default(false),
 }).refine((patient) => !patient.emailConsent || Boolean(patient.email), { message: 'needs an e-mail address', path: ['emailConsent'] })
+
+const localDate = z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 2027-01-11')
+
+export const OpeningsRequestSchema = z.object({
+  items: planItems,
+  siteIds: z.array(id('site')).min(1, 'choose at least one site').max(20).optional(),
+  providerId: id('provider').optional(),
+  operatoryId: id('operatory').optional(),
+  from: localDate,
+  to: localDate,
+  partOfDay: z.enum(['morning', 'afternoon', 'any'], { error: 'must be morning, afternoon or any' }).default('any'),
+  limit: z.number().int().min(1, 'must be at least 1').max(500, 'must be at most 500').default(10),
+  fewestGaps: z.boolean().default(false),
+})
+  .refine((request) => request.from <= request.to, { message: 'must not be before from', path: ['to'] })
+  .refine((request) => Date.parse(request.to) - Date.parse(request.from) <= 92 * 86_400_000, { message: 'search at most 92 days at once', path: ['to'] })
+export type OpeningsRequest = z.infer<typeof OpeningsRequestSchema>

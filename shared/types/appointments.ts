@@ -49,3 +49,22 @@ export interface PatientDto {
   preferredSiteId: number | null
   emailConsent: boolean
 }
+
+export interface OpeningDto {
+  siteId: number
+  siteName: string
+  operatoryId: number
+  operatoryName: string
+  providerId: number
+  providerName: string
+  startUtc: string
+  endUtc: string
+  startLocal: string
+  timeZone: string
+}
+
+export interface OpeningsResponse {
+  plan: VisitPlan
+  openings: OpeningDto[]
+  reasons: string[]
+}
