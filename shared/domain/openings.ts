@@ -172,7 +172,7 @@ function earliestFirst(query: OpeningsQuery, limit: number): Opening[] {
     const horizonEnd = Math.min(query.toMs, horizonStart + horizonMs)
     const ctx = buildSearchContext({ ...query, fromMs: horizonStart, toMs: horizonEnd })
     openings.push(...earliestFirstInContext(ctx, rankedPairings(ctx), limit - openings.length))
-    horizonStart = horizonEnd + 60_000
+    horizonStart = horizonEnd
     horizonMs *= HORIZON_GROWTH
   }
   return openings
