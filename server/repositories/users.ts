@@ -76,3 +76,45 @@ export async function setUserActive(db: Db, userId: number, active: boolean): Pr
 export async function setPasswordHash(db: Db, userId: number, passwordHash: string): Promise<void> {
   await db('users').where({ id: userId }).update({ password_hash: passwordHash, updated_at: db.fn.now(3) }).increment('session_version', 1)
 }
+
+export interface StaffRow extends UserRow {
+  last_sign_in_at: Date | null
+  provider_id: number | null
+}
+
+/** Accounts with their provider id, optionally only those whose scope meets the given sites. */
+export async function listStaffRows(db: Db, scope: { allSites: boolean; siteIds: number[] }): Promise<StaffRow[]> {
+  const query = db('users as u')
+    .leftJoin('providers as p', 'p.user_id', 'u.id')
+    .select<StaffRow[]>('u.*', 'p.id as provider_id')
+    .orderBy('u.name')
+  if (!scope.allSites) {
+    query.where((q) => q.where('u.all_sites', true).orWhereExists(
+      db('user_sites').whereRaw('user_sites.user_id = u.id').whereIn('user_sites.site_id', scope.siteIds),
+    ))
+  }
+  return query
+}
+
+export async function siteIdsByUser(db: Db, userIds: readonly number[]): Promise<Map<number, number[]>> {
+  const links: { user_id: number; site_id: number }[] = userIds.length
+    ? await db('user_sites').whereIn('user_id', [...userIds]).orderBy('site_id').select('user_id', 'site_id')
+    : []
+  const byUser = new Map<number, number[]>()
+  for (const link of links) byUser.set(link.user_id, [...(byUser.get(link.user_id) ?? []), link.site_id])
+  return byUser
+}
+
+export async function updateUserProfile(db: Db, userId: number, patch: { name?: string; role?: Role; allSites?: boolean }): Promise<void> {
+  const columns: Record<string, unknown> = {}
+  if (patch.name !== undefined) columns.name = patch.name
+  if (patch.role !== undefined) columns.role = patch.role
+  if (patch.allSites !== undefined) columns.all_sites = patch.allSites
+  if (Object.keys(columns).length === 0) return
+  await db('users').where({ id: userId }).update({ ...columns, updated_at: db.fn.now(3) })
+}
+
+export async function replaceUserSites(db: Db, userId: number, siteIds: readonly number[]): Promise<void> {
+  await db('user_sites').where({ user_id: userId }).delete()
+  if (siteIds.length) await db('user_sites').insert([...new Set(siteIds)].map((siteId) => ({ user_id: userId, site_id: siteId })))
+}

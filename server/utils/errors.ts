@@ -81,3 +81,16 @@ export function numericParam(event: H3Event, name: string): number {
   if (!raw || !Number.isInteger(value) || value <= 0) throw badRequest(name, 'must be a positive whole number')
   return value
 }
+
+/** MariaDB's duplicate-key error (a unique index refused the row). */
+export function isDuplicateKey(error: unknown): boolean {
+  return typeof error === 'object' && error !== null && (error as { code?: unknown }).code === 'ER_DUP_ENTRY'
+}
+
+/** For values assembled on the server (a PATCH merged into the stored record): a 400 like a body's. */
+export function assertValid<T>(schema: ZodType<T>, value: unknown): T {
+  const parsed = schema.safeParse(value)
+  if (parsed.success) return parsed.data
+  const issues = zodProblems(parsed.error)
+  throw badRequest(issues[0]!.field, issues[0]!.reason, issues)
+}

@@ -1,3 +1,5 @@
+import type { OpeningHours } from './rota'
+
 // Sites, rooms and their capabilities as the API returns them.
 // Operatory capabilities (OPERATORY_CAPABILITIES) live with the chair-time types that need them.
 export interface OperatorySummary {
@@ -7,4 +9,21 @@ export interface OperatorySummary {
   capabilities: string[]
   active: boolean
   sortOrder: number
+}
+
+/** A site with everything the Sites & rooms screen edits (SiteSummary plus contact and calendar). */
+export interface SiteDetail {
+  id: number
+  name: string
+  slug: string
+  timeZone: string
+  colour: string
+  bookingUnitMinutes: number
+  toothNotation: 'universal' | 'iso'
+  address: string
+  phone: string
+  email: string
+  openingHours: OpeningHours
+  closedDates: string[]
+  active: boolean
 }

@@ -1,0 +1,46 @@
+// Field errors and one banner for a form, filled from zod (before sending) or from the API's
+// 400 (data.issues) and 409 (message) answers.
+import type { ZodType } from 'zod'
+
+interface ApiErrorBody {
+  statusCode?: number
+  message?: string
+  data?: { field?: string; reason?: string; issues?: { field: string; reason: string }[] }
+}
+
+export function useFormErrors() {
+  const fields = ref<Record<string, string>>({})
+  const banner = ref<string | null>(null)
+
+  function clear(): void {
+    fields.value = {}
+    banner.value = null
+  }
+
+  /** Parses with the shared schema; on failure fills the field errors and returns null. */
+  function check<T>(schema: ZodType<T>, value: unknown): T | null {
+    clear()
+    const parsed = schema.safeParse(value)
+    if (parsed.success) return parsed.data
+    for (const issue of parsed.error.issues) {
+      const key = issue.path.join('.') || '(form)'
+      fields.value[key] ??= issue.message
+    }
+    banner.value = 'Please correct the marked fields.'
+    return null
+  }
+
+  function fromResponse(caught: unknown): void {
+    clear()
+    const body = (caught as { data?: ApiErrorBody }).data
+    const issues = body?.data?.issues
+    if (body?.statusCode === 400 && issues?.length) {
+      for (const issue of issues) fields.value[issue.field] ??= issue.reason
+      banner.value = 'Please correct the marked fields.'
+      return
+    }
+    banner.value = body?.message ?? 'Saving failed. Try again.'
+  }
+
+  return { fields, banner, clear, check, fromResponse }
+}

@@ -1,0 +1,73 @@
+// Availability of one site over a window: loads the rota, expands it (shared/domain/rota.ts) and
+// adds each instant on the site's wall clock. luxon is used here, at the edge, for the offsets.
+import { DateTime } from 'luxon'
+import type { SiteDetail } from '#shared/types/sites'
+import type { AvailabilityResponse, DualInterval } from '#shared/types/rota-api'
+import type { UtcInterval } from '#shared/types/rota'
+import { expandAvailability } from '#shared/domain/rota'
+import { addDays, localToUtc } from '#shared/domain/recurrence'
+import type { Db } from '../utils/db'
+import { badRequest } from '../utils/errors'
+import { listOperatories } from '../repositories/operatories'
+import { listShifts, shiftToInput } from '../repositories/shifts'
+import { exceptionToInput, listShiftExceptions } from '../repositories/shift-exceptions'
+import { blockToInput, listBlocks } from '../repositories/blocks'
+import { toCalendar } from '../repositories/sites'
+
+const MAX_WINDOW_DAYS = 93
+const LOCAL_DATE = /^\d{4}-\d{2}-\d{2}$/
+
+export interface UtcWindow {
+  fromUtc: string
+  toUtc: string
+}
+
+/** Dates are the site's local days, both inclusive; instants are taken as they are: [from, to). */
+export function windowOf(site: SiteDetail, from: string, to: string): UtcWindow {
+  const fromUtc = LOCAL_DATE.test(from) ? localToUtc(from, '00:00', site.timeZone) : new Date(from).toISOString()
+  const toUtc = LOCAL_DATE.test(to) ? localToUtc(addDays(to, 1), '00:00', site.timeZone) : new Date(to).toISOString()
+  const spanMs = Date.parse(toUtc) - Date.parse(fromUtc)
+  if (spanMs <= 0) throw badRequest('to', 'must be after from')
+  if (spanMs > MAX_WINDOW_DAYS * 86_400_000) throw badRequest('to', `must be at most ${MAX_WINDOW_DAYS} days after from`)
+  return { fromUtc, toUtc }
+}
+
+function onWallClock(instantUtc: string, zone: string): string {
+  return DateTime.fromISO(instantUtc, { zone }).toISO({ suppressMilliseconds: true }) ?? instantUtc
+}
+
+function dual(interval: UtcInterval, zone: string): DualInterval {
+  return { ...interval, startLocal: onWallClock(interval.startUtc, zone), endLocal: onWallClock(interval.endUtc, zone) }
+}
+
+export async function siteAvailability(db: Db, site: SiteDetail, window: UtcWindow): Promise<AvailabilityResponse> {
+  // A day of slack each side: local dates of the window can differ from its UTC dates.
+  const fromDate = addDays(window.fromUtc.slice(0, 10), -1)
+  const toDate = addDays(window.toUtc.slice(0, 10), 1)
+  const [operatories, shifts, exceptions, blocks] = await Promise.all([
+    listOperatories(db, site.id),
+    listShifts(db, { siteIds: [site.id], activeFrom: fromDate, activeTo: toDate }),
+    listShiftExceptions(db, { siteIds: [site.id], from: fromDate, to: toDate }),
+    listBlocks(db, { siteIds: [site.id], from: fromDate, to: toDate }),
+  ])
+  const expanded = expandAvailability({
+    site: toCalendar(site),
+    operatories: operatories.map((room) => ({ id: room.id, siteId: room.siteId, active: room.active })),
+    shifts: shifts.map(shiftToInput),
+    exceptions: exceptions.map(exceptionToInput),
+    blocks: blocks.map(blockToInput),
+    ...window,
+  })
+  const zone = site.timeZone
+  return {
+    siteId: site.id,
+    timeZone: zone,
+    ...window,
+    operatories: expanded.operatories.map((room) => ({ operatoryId: room.operatoryId, intervals: room.intervals.map((i) => dual(i, zone)) })),
+    providers: expanded.providers.map((p) => ({ providerId: p.providerId, siteId: p.siteId, intervals: p.intervals.map((i) => dual(i, zone)) })),
+    blocks: expanded.blocks.map((block) => ({
+      blockId: block.blockId, operatoryId: block.operatoryId, providerId: block.providerId, reason: block.reason,
+      ...dual({ startUtc: block.startUtc, endUtc: block.endUtc }, zone),
+    })),
+  }
+}

@@ -1,0 +1,99 @@
+// Saving shifts, exceptions and blocks: references checked, and no provider at two sites at once.
+import type { SessionUser } from '#shared/types/auth'
+import type { BlockBody, ShiftBody, ShiftExceptionBody } from '#shared/schemas/rota'
+import type { BlockDto, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
+import { findFirstShiftClash } from '#shared/domain/rota'
+import { requireSiteAccess } from '../utils/auth'
+import type { Db } from '../utils/db'
+import { badRequest, conflict, notFound } from '../utils/errors'
+import { findProvider, lockProvider } from '../repositories/providers'
+import { findSiteDetails } from '../repositories/sites'
+import { findOperatory } from '../repositories/operatories'
+import { findShift, insertShift, listShifts, shiftToInput, updateShift } from '../repositories/shifts'
+import { findShiftException, insertShiftException } from '../repositories/shift-exceptions'
+import { findBlock, insertBlock, updateBlock } from '../repositories/blocks'
+import { writeAudit } from '../repositories/audit-log'
+
+async function requireProvider(db: Db, providerId: number) {
+  const provider = await findProvider(db, providerId)
+  if (!provider) throw badRequest('providerId', 'is not a provider')
+  if (!provider.active) throw badRequest('providerId', 'is an inactive provider')
+  return provider
+}
+
+async function requireSite(db: Db, siteId: number) {
+  const [site] = await findSiteDetails(db, [siteId])
+  if (!site) throw badRequest('siteId', 'is not a site')
+  return site
+}
+
+/** 409 when the provider already works at another site at an overlapping time on some date. */
+async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number): Promise<void> {
+  const provider = await requireProvider(db, shift.providerId)
+  const others = (await listShifts(db, { providerId: shift.providerId })).filter((other) => other.id !== shiftId)
+  if (others.length === 0) return
+  const sites = await findSiteDetails(db, [...new Set([shift.siteId, ...others.map((other) => other.siteId)])])
+  const zoneOf = (siteId: number) => sites.find((site) => site.id === siteId)?.timeZone ?? 'UTC'
+  const candidate = shiftToInput({ ...shift, id: shiftId, ruleText: '' })
+  const clash = findFirstShiftClash(candidate, others.map(shiftToInput), zoneOf)
+  if (!clash) return
+  const siteName = sites.find((site) => site.id === clash.otherSiteId)?.name ?? `site ${clash.otherSiteId}`
+  throw conflict(`${provider.name} already works at ${siteName} on ${clash.date} at that time.`, {
+    field: 'rrule', date: clash.date, otherShiftId: clash.otherShiftId, otherSiteId: clash.otherSiteId,
+  })
+}
+
+export async function createShift(trx: Db, user: SessionUser, shift: ShiftBody): Promise<ShiftDto> {
+  await requireSite(trx, shift.siteId)
+  await requireProvider(trx, shift.providerId)
+  await lockProvider(trx, shift.providerId)
+  await refuseCrossSiteClash(trx, shift, 0)
+  const id = await insertShift(trx, shift)
+  await writeAudit(trx, { userId: user.id, action: 'shift_created', entity: 'shift', entityId: id, after: shift })
+  return (await findShift(trx, id))!
+}
+
+export async function replaceShift(trx: Db, user: SessionUser, before: ShiftDto, shift: ShiftBody): Promise<ShiftDto> {
+  requireSiteAccess(user, shift.siteId)
+  await requireSite(trx, shift.siteId)
+  await requireProvider(trx, shift.providerId)
+  await lockProvider(trx, shift.providerId)
+  await refuseCrossSiteClash(trx, shift, before.id)
+  await updateShift(trx, before.id, shift)
+  await writeAudit(trx, { userId: user.id, action: 'shift_updated', entity: 'shift', entityId: before.id, before, after: shift })
+  return (await findShift(trx, before.id))!
+}
+
+/** Time off for every site touches all of the provider's sites, so it needs access to each. */
+export async function createShiftException(trx: Db, user: SessionUser, exception: ShiftExceptionBody): Promise<ShiftExceptionDto> {
+  const provider = await requireProvider(trx, exception.providerId)
+  if (exception.siteId !== null) {
+    requireSiteAccess(user, exception.siteId)
+    await requireSite(trx, exception.siteId)
+  } else {
+    for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
+  }
+  const id = await insertShiftException(trx, exception)
+  await writeAudit(trx, { userId: user.id, action: 'shift_exception_created', entity: 'shift_exception', entityId: id, after: exception })
+  return (await findShiftException(trx, id))!
+}
+
+async function checkBlockReferences(db: Db, block: BlockBody): Promise<void> {
+  await requireSite(db, block.siteId)
+  if (block.operatoryId !== null) {
+    const room = await findOperatory(db, block.operatoryId)
+    if (!room || room.siteId !== block.siteId) throw badRequest('operatoryId', 'is not a room of this site')
+  }
+  if (block.providerId !== null) await requireProvider(db, block.providerId)
+}
+
+export async function saveBlock(trx: Db, user: SessionUser, block: BlockBody, before?: BlockDto): Promise<BlockDto> {
+  requireSiteAccess(user, block.siteId)
+  await checkBlockReferences(trx, block)
+  const id = before ? before.id : await insertBlock(trx, block)
+  if (before) await updateBlock(trx, id, block)
+  await writeAudit(trx, { userId: user.id, action: before ? 'block_updated' : 'block_created', entity: 'block', entityId: id, before, after: block })
+  const saved = await findBlock(trx, id)
+  if (!saved) throw notFound('No such block.')
+  return saved
+}

@@ -1,0 +1,74 @@
+// The Rota grid's data: one site's week, or one provider's week across the sites the caller sees.
+import type { SessionUser } from '#shared/types/auth'
+import type { RotaView, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
+import { rotaEntries } from '#shared/domain/rota-week'
+import { canAccessSite, requireSiteAccess } from '../utils/auth'
+import type { Db } from '../utils/db'
+import { badRequest, notFound } from '../utils/errors'
+import { findProvider, listProviders } from '../repositories/providers'
+import { findSiteDetails, listSiteDetails, toCalendar } from '../repositories/sites'
+import { listShifts, shiftToInput } from '../repositories/shifts'
+import { exceptionToInput, listShiftExceptions } from '../repositories/shift-exceptions'
+import { blockToInput, listBlocks } from '../repositories/blocks'
+
+const MAX_DAYS = 42
+
+export interface RotaWindow {
+  siteId?: number
+  providerId?: number
+  from: string
+  to: string
+}
+
+function checkSpan(from: string, to: string): void {
+  if ((Date.parse(to) - Date.parse(from)) / 86_400_000 >= MAX_DAYS) throw badRequest('to', `must be less than ${MAX_DAYS} days after from`)
+}
+
+async function siteIdsInView(db: Db, user: SessionUser, query: RotaWindow): Promise<number[]> {
+  if (query.siteId !== undefined) {
+    requireSiteAccess(user, query.siteId)
+    return [query.siteId]
+  }
+  const provider = await findProvider(db, query.providerId!)
+  if (!provider) throw notFound('No such provider.')
+  // A provider's view shows only the sites the caller may see; time off for all sites shows too.
+  const visible = (await listSiteDetails(db, user)).map((site) => site.id)
+  return visible.filter((siteId) => canAccessSite(user, siteId))
+}
+
+/**
+ * Time off "for every site" is drawn at the sites where the provider has shifts in view: on
+ * each of them in a site's week, once (at the first) in a provider's week.
+ */
+function placeTimeOff(exceptions: ShiftExceptionDto[], shifts: ShiftDto[], siteView: boolean): ShiftExceptionDto[] {
+  return exceptions.flatMap((exception) => {
+    if (exception.siteId !== null) return [exception]
+    const siteIds = [...new Set(shifts.filter((shift) => shift.providerId === exception.providerId).map((shift) => shift.siteId))]
+    if (siteView) return siteIds.map((siteId) => ({ ...exception, siteId }))
+    return [{ ...exception, siteId: siteIds[0] ?? null }]
+  })
+}
+
+export async function rotaView(db: Db, user: SessionUser, query: RotaWindow): Promise<RotaView> {
+  checkSpan(query.from, query.to)
+  const siteIds = await siteIdsInView(db, user, query)
+  const window = { from: query.from, to: query.to }
+  const [sites, shifts, exceptions, blocks, providers] = await Promise.all([
+    findSiteDetails(db, siteIds),
+    listShifts(db, { siteIds, providerId: query.providerId, activeFrom: window.from, activeTo: window.to }),
+    listShiftExceptions(db, { siteIds, providerId: query.providerId, ...window }),
+    listBlocks(db, { siteIds, providerId: query.providerId, ...window }),
+    listProviders(db, null),
+  ])
+  const names = new Map(providers.map((provider) => [provider.id, provider.name]))
+  const entries = rotaEntries({
+    sites: sites.map(toCalendar),
+    shifts: shifts.map(shiftToInput),
+    exceptions: placeTimeOff(exceptions, shifts, query.siteId !== undefined).map(exceptionToInput),
+    blocks: blocks.map(blockToInput),
+    fromDate: window.from,
+    toDate: window.to,
+    providerName: (id) => names.get(id) ?? `Provider ${id}`,
+  })
+  return { ...window, entries, shifts, exceptions, blocks }
+}

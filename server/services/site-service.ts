@@ -1,0 +1,32 @@
+// Creating and changing sites; a slug is made from the name when none is given.
+import type { SessionUser } from '#shared/types/auth'
+import type { SiteDetail } from '#shared/types/sites'
+import type { SiteBody, SitePatch } from '#shared/schemas/sites'
+import type { Db } from '../utils/db'
+import { conflict, isDuplicateKey, notFound } from '../utils/errors'
+import { findSiteDetail, insertSite, updateSite } from '../repositories/sites'
+import { writeAudit } from '../repositories/audit-log'
+
+export function slugOf(name: string): string {
+  return name.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'site'
+}
+
+function duplicateSlug(error: unknown, slug: string | undefined): never {
+  if (isDuplicateKey(error)) throw conflict(`Another site already uses the short name "${slug}".`, { field: 'slug' })
+  throw error
+}
+
+export async function createSite(trx: Db, actor: SessionUser, site: SiteBody): Promise<SiteDetail> {
+  const slug = site.slug ?? slugOf(site.name)
+  const id = await insertSite(trx, { ...site, slug }).catch((error: unknown) => duplicateSlug(error, slug))
+  await writeAudit(trx, { userId: actor.id, action: 'site_created', entity: 'site', entityId: id, after: site })
+  return (await findSiteDetail(trx, id))!
+}
+
+export async function changeSite(trx: Db, actor: SessionUser, id: number, patch: SitePatch): Promise<SiteDetail> {
+  const before = await findSiteDetail(trx, id)
+  if (!before) throw notFound('No such site.')
+  await updateSite(trx, id, patch).catch((error: unknown) => duplicateSlug(error, patch.slug))
+  await writeAudit(trx, { userId: actor.id, action: 'site_changed', entity: 'site', entityId: id, before, after: patch })
+  return (await findSiteDetail(trx, id))!
+}

@@ -1,0 +1,67 @@
+// The Rota week as a manager sees it, in real Chromium: add a shift without typing a rule.
+import { randomUUID } from 'node:crypto'
+import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from '../helpers/browser'
+import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
+import { createTestProvider } from '../helpers/rota'
+
+let browser: BrowserSession
+let provider: Awaited<ReturnType<typeof createTestProvider>>
+
+beforeAll(async () => {
+  browser = await openBrowser(inject('baseURL'))
+  // A fresh dentist at Aspen Gulch only, so the week shows exactly the shift this test adds.
+  provider = await createTestProvider(['aspen-gulch'], `Dr. Wren Ashdown ${randomUUID().slice(0, 4)}`)
+})
+afterAll(async () => {
+  await browser?.close()
+  await closeTestDb()
+})
+
+describe('Rota', () => {
+  it('lets a manager add "every Tuesday and Thursday 07:30–16:00" at Aspen Gulch and see it on the week', async () => {
+    const { page } = browser
+    await signInThroughForm(page, 'manager@fernhollow.test')
+    await page.waitForURL(/\/chairboard$/)
+    const aspen = await siteIdBySlug('aspen-gulch')
+    await page.getByTestId('site-switcher').selectOption(String(aspen))
+    await page.getByRole('link', { name: 'Rota' }).click()
+    await page.waitForURL(/\/rota$/)
+    await expect.poll(() => page.getByText('Fernhollow Aspen Gulch · times in America/Denver').count()).toBe(1)
+
+    await page.getByRole('button', { name: 'Add shift' }).click()
+    const form = page.getByTestId('shift-form')
+    await form.getByLabel('Provider').selectOption({ label: `${provider.name} (dentist)` })
+    await form.getByLabel('Tuesday').check({ force: true })
+    await form.getByLabel('Thursday').check({ force: true })
+    await expect.poll(() => form.getByTestId('rule-in-words').textContent()).toBe('Repeats every Tuesday and Thursday')
+    await form.getByLabel('Starts at').fill('07:30')
+    await form.getByLabel('Ends at').fill('16:00')
+    await form.getByRole('button', { name: 'Save shift' }).click()
+    await expect.poll(() => page.getByRole('dialog').count()).toBe(0)
+
+    const mine = page.getByTestId('rota-entry').filter({ hasText: provider.name })
+    await expect.poll(() => mine.count()).toBe(2)
+    const labels = await mine.evaluateAll((cards) => cards.map((card) => card.getAttribute('aria-label')))
+    expect(labels).toEqual([
+      expect.stringMatching(new RegExp(`^${provider.name}, 07:30–16:00, Tue `)),
+      expect.stringMatching(new RegExp(`^${provider.name}, 07:30–16:00, Thu `)),
+    ])
+    expect(await page.getByTestId('shift-rules').textContent()).toContain('every Tuesday and Thursday, 07:30–16:00')
+
+    const stored = await testDb()('shifts').where({ provider_id: provider.providerId }).first()
+    expect(stored).toMatchObject({ site_id: aspen, rrule: 'FREQ=WEEKLY;BYDAY=TU,TH', local_start: '07:30', local_end: '16:00' })
+    await screenshot(page, 'rota-aspen-week')
+  })
+
+  it('opens the shift from the grid and names a bad end time beside the field', async () => {
+    const { page } = browser
+    await page.getByTestId('rota-entry').filter({ hasText: provider.name }).first().click()
+    const form = page.getByTestId('shift-form')
+    await expect.poll(() => form.getByLabel('Starts at').inputValue()).toBe('07:30')
+    await form.getByLabel('Starts at').fill('18:00')
+    await form.getByRole('button', { name: 'Save changes' }).click()
+    await expect.poll(() => form.locator('.field-error').first().textContent()).toBe('must be after the start time')
+    await form.getByRole('button', { name: 'Cancel' }).click()
+  })
+})
