@@ -36,7 +36,9 @@ describe('POST /api/openings', () => {
 
   it('searches every site in a manager\'s scope', async () => {
     const manager = await signedInAs('manager@fernhollow.test')
-    const response = await manager.post('/api/openings', { items: FILLING, from: '2027-03-10', to: '2027-03-12', limit: 300 })
+    // The three demo sites by id: other test files add always-open test sites to the manager's scope.
+    const siteIds = await Promise.all(['quarry-street', 'aspen-gulch', 'saguaro-flats'].map(siteIdBySlug))
+    const response = await manager.post('/api/openings', { items: FILLING, siteIds, from: '2027-03-10', to: '2027-03-12', limit: 300 })
     const zones = new Set(response.body.openings.map((opening: { timeZone: string }) => opening.timeZone))
     expect(zones).toEqual(new Set(['America/Los_Angeles', 'America/Denver', 'America/Phoenix']))
   })
