@@ -4,6 +4,7 @@ import { defineConfig } from 'vitest/config'
 // The server and browser projects start the built app (.output) against cuspline_test.
 export default defineConfig({
   test: {
+    reporters: ['default', './tests/helpers/summary-reporter.ts'],
     projects: [
       {
         test: {

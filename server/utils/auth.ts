@@ -30,3 +30,4 @@ export function requireSiteAccess(user: SessionUser, siteId: number): void {
 
 export const STAFF_ROLES: readonly Role[] = ['admin', 'manager', 'front_desk', 'dentist', 'hygienist', 'assistant']
 export const MANAGING_ROLES: readonly Role[] = ['admin', 'manager']
+export const BOOKING_ROLES: readonly Role[] = ['admin', 'manager', 'front_desk']

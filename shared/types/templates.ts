@@ -1,5 +1,5 @@
 // A chair-time template as stored: one version of a code.
-import type { ChairTimeTemplate } from './chair-time'
+import type { ChairTimeTemplate, PlanItemSummary, PlanSegment } from './chair-time'
 
 export interface StoredTemplate extends ChairTimeTemplate {
   id: number
@@ -9,4 +9,15 @@ export interface StoredTemplate extends ChairTimeTemplate {
   /** Deactivated templates are kept for the visits booked with them but cannot be booked. */
   active: boolean
   createdAt: string
+}
+
+export interface ChairTimeResponse {
+  chairMinutes: number
+  providerMinutes: number
+  assistantMinutes: number
+  numbingMinutes: number
+  unitMinutes: number
+  segments: Array<Pick<PlanSegment, 'kind' | 'label' | 'startMinute' | 'endMinute'>>
+  explanation: string
+  items: PlanItemSummary[]
 }

@@ -1,0 +1,14 @@
+// POST /api/appointments/:id/state: move a visit along its states (allowed transitions only).
+import { ChangeStateSchema } from '#shared/schemas/appointments'
+import type { AppointmentDto } from '#shared/types/appointments'
+import { STAFF_ROLES, requireRole } from '../../../utils/auth'
+import { badRequest, numericParam, validateWith } from '../../../utils/errors'
+import { changeVisitState } from '../../../services/booking-service'
+
+export default defineEventHandler(async (event): Promise<AppointmentDto> => {
+  const user = requireRole(event, STAFF_ROLES)
+  const id = numericParam(event, 'id')
+  const { state } = await readValidatedBody(event, validateWith(ChangeStateSchema))
+  if (state === 'cancelled') throw badRequest('state', 'use POST /api/appointments/:id/cancel with a reason')
+  return changeVisitState(id, state, user)
+})

@@ -1,0 +1,13 @@
+// GET /api/patients?q=: find patients by name, birth date (YYYY-MM-DD), phone digits or e-mail.
+import { PatientSearchSchema } from '#shared/schemas/appointments'
+import type { PatientDto } from '#shared/types/appointments'
+import { STAFF_ROLES, requireRole } from '../../utils/auth'
+import { useDb } from '../../utils/db'
+import { validateWith } from '../../utils/errors'
+import { searchPatients } from '../../repositories/patients'
+
+export default defineEventHandler(async (event): Promise<PatientDto[]> => {
+  requireRole(event, STAFF_ROLES)
+  const { q, limit } = await getValidatedQuery(event, validateWith(PatientSearchSchema))
+  return searchPatients(useDb(), q, limit)
+})

@@ -1,0 +1,151 @@
+// Visits and their timeline segments. Conflict queries use the overlap predicate
+// start < :end AND end > :start on live segments (cancelled visits keep none).
+import type { Db } from '../utils/db'
+import type { AppointmentDto, SegmentDto } from '#shared/types/appointments'
+import type { VisitPlan, StepKind } from '#shared/types/chair-time'
+import type { VisitState } from '#shared/domain/visit-states'
+import { parseJson } from './json'
+
+export interface AppointmentRow {
+  id: number
+  site_id: number
+  operatory_id: number
+  provider_id: number
+  patient_id: number
+  start_utc: Date
+  end_utc: Date
+  state: VisitState
+  plan: string
+  note: string
+  cancel_reason: string | null
+  ical_uid: string
+  ical_sequence: number
+  row_version: number
+}
+
+interface SegmentRow {
+  appointment_id: number
+  kind: StepKind
+  label: string
+  operatory_id: number
+  provider_id: number
+  start_utc: Date
+  end_utc: Date
+}
+
+export interface NewSegment {
+  kind: StepKind
+  label: string
+  operatoryId: number
+  providerId: number
+  startMs: number
+  endMs: number
+}
+
+export interface NewAppointment {
+  siteId: number
+  operatoryId: number
+  providerId: number
+  patientId: number
+  startMs: number
+  endMs: number
+  plan: VisitPlan
+  note: string
+  icalUid: string
+  userId: number
+}
+
+export async function insertAppointment(db: Db, visit: NewAppointment): Promise<number> {
+  const [id] = await db('appointments').insert({
+    site_id: visit.siteId, operatory_id: visit.operatoryId, provider_id: visit.providerId, patient_id: visit.patientId,
+    start_utc: new Date(visit.startMs), end_utc: new Date(visit.endMs), plan: JSON.stringify(visit.plan), note: visit.note,
+    ical_uid: visit.icalUid, created_by: visit.userId, updated_by: visit.userId,
+  })
+  return id as number
+}
+
+export async function replaceSegments(db: Db, appointmentId: number, segments: NewSegment[]): Promise<void> {
+  await db('appointment_segments').where({ appointment_id: appointmentId }).delete()
+  if (!segments.length) return
+  await db('appointment_segments').insert(segments.map((segment) => ({
+    appointment_id: appointmentId, kind: segment.kind, label: segment.label, operatory_id: segment.operatoryId,
+    provider_id: segment.providerId, start_utc: new Date(segment.startMs), end_utc: new Date(segment.endMs),
+  })))
+}
+
+export async function findAppointmentRow(db: Db, id: number): Promise<AppointmentRow | undefined> {
+  return db<AppointmentRow>('appointments').where({ id }).first()
+}
+
+/** Updates only if nobody changed the visit since `rowVersion`; returns whether it did. */
+export async function updateAppointmentIfVersion(db: Db, id: number, rowVersion: number, changes: Record<string, unknown>): Promise<boolean> {
+  const updated = await db('appointments').where({ id, row_version: rowVersion })
+    .update({ ...changes, row_version: rowVersion + 1, updated_at: db.fn.now(3) })
+  return updated === 1
+}
+
+function toSegmentDto(row: SegmentRow): SegmentDto {
+  return {
+    kind: row.kind, label: row.label, operatoryId: row.operatory_id, providerId: row.provider_id,
+    startUtc: row.start_utc.toISOString(), endUtc: row.end_utc.toISOString(),
+  }
+}
+
+export function toAppointmentDto(row: AppointmentRow, segments: SegmentRow[]): AppointmentDto {
+  return {
+    id: row.id, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id, patientId: row.patient_id,
+    startUtc: row.start_utc.toISOString(), endUtc: row.end_utc.toISOString(), state: row.state, note: row.note,
+    cancelReason: row.cancel_reason, rowVersion: row.row_version, icalUid: row.ical_uid, icalSequence: row.ical_sequence,
+    plan: parseJson<VisitPlan>(row.plan, {} as VisitPlan), segments: segments.map(toSegmentDto),
+  }
+}
+
+export async function findAppointment(db: Db, id: number): Promise<AppointmentDto | undefined> {
+  const row = await findAppointmentRow(db, id)
+  if (!row) return undefined
+  const segments = await db<SegmentRow>('appointment_segments').where({ appointment_id: id }).orderBy('start_utc')
+  return toAppointmentDto(row, segments)
+}
+
+export interface SegmentClash {
+  appointmentId: number
+  startUtc: Date
+  endUtc: Date
+}
+
+/** Any live segment of another visit in this chair overlapping [start, end). */
+export async function operatoryClash(db: Db, operatoryId: number, startMs: number, endMs: number, exceptAppointmentId: number | null): Promise<SegmentClash | undefined> {
+  const query = db('appointment_segments').where({ operatory_id: operatoryId })
+    .where('start_utc', '<', new Date(endMs)).where('end_utc', '>', new Date(startMs))
+    .orderBy('start_utc').first({ appointmentId: 'appointment_id', startUtc: 'start_utc', endUtc: 'end_utc' })
+  if (exceptAppointmentId !== null) query.whereNot({ appointment_id: exceptAppointmentId })
+  return query
+}
+
+/** The provider's hands_on time elsewhere overlapping any of these hands_on intervals. */
+export async function providerClash(db: Db, providerId: number, intervals: Array<{ startMs: number; endMs: number }>, exceptAppointmentId: number | null): Promise<SegmentClash | undefined> {
+  if (!intervals.length) return undefined
+  const query = db('appointment_segments').where({ provider_id: providerId, kind: 'hands_on' })
+    .where((overlaps) => {
+      for (const interval of intervals) {
+        overlaps.orWhere((one) => one.where('start_utc', '<', new Date(interval.endMs)).where('end_utc', '>', new Date(interval.startMs)))
+      }
+    })
+    .orderBy('start_utc').first({ appointmentId: 'appointment_id', startUtc: 'start_utc', endUtc: 'end_utc' })
+  if (exceptAppointmentId !== null) query.whereNot({ appointment_id: exceptAppointmentId })
+  return query
+}
+
+/** Another live visit of the same patient overlapping [start, end). */
+export async function patientClash(db: Db, patientId: number, startMs: number, endMs: number, exceptAppointmentId: number | null): Promise<SegmentClash | undefined> {
+  const query = db('appointments').where({ patient_id: patientId }).whereNotIn('state', ['cancelled', 'missed'])
+    .where('start_utc', '<', new Date(endMs)).where('end_utc', '>', new Date(startMs))
+    .orderBy('start_utc').first({ appointmentId: 'id', startUtc: 'start_utc', endUtc: 'end_utc' })
+  if (exceptAppointmentId !== null) query.whereNot({ id: exceptAppointmentId })
+  return query
+}
+
+export async function countAppointments(db: Db, where: Record<string, unknown>): Promise<number> {
+  const row = await db('appointments').where(where).count({ count: '*' }).first()
+  return Number(row?.count ?? 0)
+}

@@ -1,0 +1,30 @@
+// Reads what the openings search needs beyond the site calendar: providers and busy segments.
+import type { Db } from '../utils/db'
+import type { BusySegment } from '#shared/types/openings'
+import { parseJson } from './json'
+
+export interface ProviderRow { id: number; name: string; categories: string[] }
+
+export async function providersByIds(db: Db, ids: number[]): Promise<ProviderRow[]> {
+  if (!ids.length) return []
+  const rows = await db('providers').join('users', 'users.id', 'providers.user_id')
+    .whereIn('providers.id', ids).where('providers.active', true).where('users.active', true)
+    .select('providers.id', 'users.name', 'providers.capabilities')
+  return rows.map((row) => ({ id: row.id, name: row.name, categories: parseJson<string[]>(row.capabilities, []) }))
+}
+
+/** Live segments in these rooms, or of these providers anywhere (a provider works at several sites). */
+export async function busySegments(db: Db, operatoryIds: number[], providerIds: number[], fromMs: number, toMs: number): Promise<BusySegment[]> {
+  if (!operatoryIds.length && !providerIds.length) return []
+  const rows = await db('appointment_segments')
+    .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs))
+    .where((who) => {
+      if (operatoryIds.length) who.orWhereIn('operatory_id', operatoryIds)
+      if (providerIds.length) who.orWhere((hands) => hands.whereIn('provider_id', providerIds).where('kind', 'hands_on'))
+    })
+    .select('operatory_id', 'provider_id', 'kind', 'start_utc', 'end_utc')
+  return rows.map((row) => ({
+    operatoryId: row.operatory_id, providerId: row.provider_id, kind: row.kind,
+    startMs: new Date(row.start_utc).getTime(), endMs: new Date(row.end_utc).getTime(),
+  }))
+}

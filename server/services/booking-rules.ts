@@ -1,0 +1,116 @@
+// The checks every booking, move and re-plan passes inside its transaction, after the locks.
+import { DateTime } from 'luxon'
+import type { VisitPlan } from '#shared/types/chair-time'
+import type { BookingConflict } from '#shared/types/appointments'
+import type { EpochInterval } from '#shared/types/rota'
+import type { StoredTemplate } from '#shared/types/templates'
+import { expandAvailabilityMs } from '#shared/domain/rota'
+import type { Db } from '../utils/db'
+import { badRequest, conflict } from '../utils/errors'
+import type { SiteCalendarInputs } from '../repositories/site-calendar'
+import { findProviderDetails } from '../repositories/site-calendar'
+import { operatoryClash, patientClash, providerClash, type NewSegment, type SegmentClash } from '../repositories/appointments'
+import { findPatient } from '../repositories/patients'
+
+const MINUTE = 60_000
+const DAY = 86_400_000
+
+export interface BookingRequest {
+  calendar: SiteCalendarInputs
+  plan: VisitPlan
+  templates: StoredTemplate[]
+  operatoryId: number
+  providerId: number
+  patientId: number
+  startMs: number
+  /** The visit being moved, so it does not collide with itself. */
+  exceptAppointmentId: number | null
+}
+
+export function visitEnd(plan: VisitPlan, startMs: number): number {
+  return startMs + plan.chairMinutes * MINUTE
+}
+
+/** The plan's segments placed at the start time in one chair with one provider. */
+export function placeSegments(plan: VisitPlan, startMs: number, operatoryId: number, providerId: number): NewSegment[] {
+  return plan.segments.map((segment) => ({
+    kind: segment.kind, label: segment.label, operatoryId, providerId,
+    startMs: startMs + segment.startMinute * MINUTE, endMs: startMs + segment.endMinute * MINUTE,
+  }))
+}
+
+function localTime(ms: number, zone: string): string {
+  return DateTime.fromMillis(ms, { zone }).toFormat('ccc d LLL HH:mm')
+}
+
+/** On the site's booking grid in local time, and not sooner than the minimum notice. */
+export function assertStartAllowed(startMs: number, calendar: SiteCalendarInputs, nowMs = Date.now()): void {
+  const local = DateTime.fromMillis(startMs, { zone: calendar.site.timeZone })
+  if ((local.hour * 60 + local.minute) % calendar.bookingUnitMinutes !== 0 || local.second !== 0 || local.millisecond !== 0) {
+    throw badRequest('startUtc', `must be on the site's ${calendar.bookingUnitMinutes}-minute grid (local time ${local.toFormat('HH:mm:ss')})`)
+  }
+  if (startMs < nowMs + calendar.minimumNoticeMinutes * MINUTE) {
+    throw badRequest('startUtc', `must be at least ${calendar.minimumNoticeMinutes} minutes from now`)
+  }
+}
+
+function covered(intervals: readonly EpochInterval[], startMs: number, endMs: number): boolean {
+  return intervals.some((interval) => interval.startMs <= startMs && interval.endMs >= endMs)
+}
+
+function clashError(resource: BookingConflict['resource'], id: number, name: string, clash: SegmentClash, zone: string, what: string) {
+  const startMs = new Date(clash.startUtc).getTime()
+  const endMs = new Date(clash.endUtc).getTime()
+  const detail: BookingConflict = {
+    resource, id, name, startUtc: new Date(startMs).toISOString(), endUtc: new Date(endMs).toISOString(), appointmentId: clash.appointmentId,
+  }
+  return conflict(`${name} ${what} from ${localTime(startMs, zone)} to ${DateTime.fromMillis(endMs, { zone }).toFormat('HH:mm')}.`, { conflict: detail })
+}
+
+function unavailableError(resource: BookingConflict['resource'], id: number, name: string, startMs: number, endMs: number, message: string) {
+  const detail: BookingConflict = { resource, id, name, startUtc: new Date(startMs).toISOString(), endUtc: new Date(endMs).toISOString(), appointmentId: null }
+  return conflict(message, { conflict: detail })
+}
+
+async function assertPeopleAndRoom(db: Db, request: BookingRequest) {
+  const room = request.calendar.operatoryDetails.find((operatory) => operatory.id === request.operatoryId)
+  if (!room) throw badRequest('operatoryId', 'is not a room of this site')
+  if (!room.active) throw badRequest('operatoryId', `${room.name} is not in use`)
+  const missing = request.templates.find((template) => !room.capabilities.includes(template.capability))
+  if (missing) throw badRequest('operatoryId', `${room.name} is not equipped for ${missing.capability} (${missing.name})`)
+  const provider = await findProviderDetails(db, request.providerId)
+  if (!provider || !provider.active) throw badRequest('providerId', 'is not an active provider')
+  const unskilled = request.templates.find((template) => !provider.capabilities.includes(template.category))
+  if (unskilled) throw badRequest('providerId', `${provider.name} does not do ${unskilled.category} procedures (${unskilled.name})`)
+  if (!await findPatient(db, request.patientId)) throw badRequest('patientId', 'no such patient')
+  return { room, provider }
+}
+
+/** Throws 400/409 unless the visit fits: room and provider exist and fit, time is open and free. */
+export async function assertBookable(db: Db, request: BookingRequest): Promise<void> {
+  const { room, provider } = await assertPeopleAndRoom(db, request)
+  const { plan, startMs, calendar } = request
+  const endMs = visitEnd(plan, startMs)
+  const zone = calendar.site.timeZone
+  const handsOn = placeSegments(plan, startMs, request.operatoryId, request.providerId).filter((segment) => segment.kind === 'hands_on')
+
+  const availability = expandAvailabilityMs({
+    ...calendar, fromUtc: new Date(startMs - DAY).toISOString(), toUtc: new Date(endMs + DAY).toISOString(),
+  })
+  const roomTime = availability.operatories.find((entry) => entry.operatoryId === room.id)?.intervals ?? []
+  if (!covered(roomTime, startMs, endMs)) {
+    throw unavailableError('operatory', room.id, room.name, startMs, endMs, `${room.name} is closed or blocked during ${localTime(startMs, zone)}–${DateTime.fromMillis(endMs, { zone }).toFormat('HH:mm')}.`)
+  }
+  const providerTime = availability.providers.find((entry) => entry.providerId === provider.id)?.intervals ?? []
+  const offShift = handsOn.find((segment) => !covered(providerTime, segment.startMs, segment.endMs))
+  if (offShift) {
+    throw unavailableError('provider', provider.id, provider.name, offShift.startMs, offShift.endMs, `${provider.name} is not on shift here (or is blocked) at ${localTime(offShift.startMs, zone)}.`)
+  }
+
+  const roomClash = await operatoryClash(db, room.id, startMs, endMs, request.exceptAppointmentId)
+  if (roomClash) throw clashError('operatory', room.id, room.name, roomClash, zone, 'is already taken')
+  const providerBusy = await providerClash(db, provider.id, handsOn, request.exceptAppointmentId)
+  if (providerBusy) throw clashError('provider', provider.id, provider.name, providerBusy, zone, 'is already working with another patient')
+  const patientBusy = await patientClash(db, request.patientId, startMs, endMs, request.exceptAppointmentId)
+  if (patientBusy) throw clashError('patient', request.patientId, 'This patient', patientBusy, zone, 'already has a visit')
+}

@@ -1,0 +1,167 @@
+// Booking, moving, re-planning, state changes and cancellation: each one MariaDB transaction at
+// READ COMMITTED that locks the rooms and providers involved, re-checks every conflict, writes the
+// visit, its segments, an audit row and the patient's outbox e-mail, then commits.
+import { createHash, randomUUID } from 'node:crypto'
+import type { SessionUser } from '#shared/types/auth'
+import type { AppointmentDto } from '#shared/types/appointments'
+import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
+import type { BookAppointmentInput, MoveAppointmentInput } from '#shared/schemas/appointments'
+import { canMoveToState, holdsTime, type VisitState } from '#shared/domain/visit-states'
+import { useDb, type Db } from '../utils/db'
+import { badRequest, conflict, notFound } from '../utils/errors'
+import { requireSiteAccess } from '../utils/auth'
+import { isDuplicateKey, withTransactionRetry } from '../utils/db-retry'
+import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
+import { findAppointment, findAppointmentRow, insertAppointment, replaceSegments, updateAppointmentIfVersion, type AppointmentRow } from '../repositories/appointments'
+import { lockForBooking } from '../repositories/booking-locks'
+import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
+import { enqueueMessage, type OutboxKind } from '../repositories/outbox'
+import { findPatient } from '../repositories/patients'
+import { writeAudit } from '../repositories/audit-log'
+import { findTemplateById } from '../repositories/templates'
+import { parseJson } from '../repositories/json'
+import { planItems } from './plan-service'
+import { assertBookable, assertStartAllowed, placeSegments, visitEnd } from './booking-rules'
+
+const READ_COMMITTED = { isolationLevel: 'read committed' as const }
+
+async function siteCalendar(db: Db, siteId: number): Promise<SiteCalendarInputs> {
+  const calendar = await loadSiteCalendar(db, siteId)
+  if (!calendar) throw badRequest('siteId', 'no such site')
+  return calendar
+}
+
+function startOf(startUtc: string): number {
+  return new Date(startUtc).getTime()
+}
+
+async function queueMessage(db: Db, kind: OutboxKind, appointmentId: number, siteId: number, patientId: number): Promise<void> {
+  const patient = await findPatient(db, patientId)
+  // No consent, no e-mail (the dispatcher checks again at send time).
+  if (!patient?.email || !patient.emailConsent) return
+  await enqueueMessage(db, { kind, appointmentId, siteId, dueAt: new Date(), payload: { appointmentId } })
+}
+
+async function loaded(db: Db, id: number): Promise<AppointmentDto> {
+  const visit = await findAppointment(db, id)
+  if (!visit) throw notFound('No such visit.')
+  return visit
+}
+
+export async function bookAppointment(input: BookAppointmentInput, user: SessionUser, idempotencyKey?: string): Promise<AppointmentDto> {
+  requireSiteAccess(user, input.siteId)
+  const db = useDb()
+  const requestHash = createHash('sha256').update(JSON.stringify(input)).digest('hex')
+  if (idempotencyKey) {
+    const prior = await findAnswer<AppointmentDto>(db, user.id, idempotencyKey)
+    if (prior?.response) return replayed(prior.requestHash, requestHash, prior.response)
+  }
+  const calendar = await siteCalendar(db, input.siteId)
+  const { plan, templates } = await planItems(db, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
+  const startMs = startOf(input.startUtc)
+  assertStartAllowed(startMs, calendar)
+
+  try {
+    return await withTransactionRetry(() => db.transaction(async (trx) => {
+      // Claimed first: a concurrent request with the same key waits here, then replays our answer.
+      if (idempotencyKey) await claimKey(trx, user.id, idempotencyKey, requestHash)
+      await lockForBooking(trx, [input.operatoryId], [input.providerId], input.patientId)
+      await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptAppointmentId: null })
+      const id = await insertAppointment(trx, {
+        siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
+        startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId: user.id,
+      })
+      await replaceSegments(trx, id, placeSegments(plan, startMs, input.operatoryId, input.providerId))
+      await writeAudit(trx, { userId: user.id, action: 'visit_booked', entity: 'appointment', entityId: id, after: input })
+      await queueMessage(trx, 'invitation', id, input.siteId, input.patientId)
+      const visit = await loaded(trx, id)
+      if (idempotencyKey) await storeAnswer(trx, user.id, idempotencyKey, 201, visit, id)
+      return visit
+    }, READ_COMMITTED))
+  } catch (error) {
+    // Another request with the same key committed first: answer what it answered.
+    if (idempotencyKey && isDuplicateKey(error)) {
+      const prior = await findAnswer<AppointmentDto>(db, user.id, idempotencyKey)
+      if (prior?.response) return replayed(prior.requestHash, requestHash, prior.response)
+    }
+    throw error
+  }
+}
+
+function replayed(storedHash: string, requestHash: string, response: AppointmentDto): AppointmentDto {
+  if (storedHash !== requestHash) {
+    throw conflict('This Idempotency-Key was already used for a different booking request.', { field: 'Idempotency-Key' })
+  }
+  return response
+}
+
+async function liveVisit(db: Db, id: number, user: SessionUser): Promise<AppointmentRow> {
+  const row = await findAppointmentRow(db, id)
+  if (!row) throw notFound('No such visit.')
+  requireSiteAccess(user, row.site_id)
+  return row
+}
+
+function staleVersion() {
+  return conflict('Someone changed this visit since you opened it. Reload to see the latest version.', { field: 'rowVersion' })
+}
+
+/** The stored plan, unless new items were given: template edits never change a booked visit. */
+async function planForMove(db: Db, row: AppointmentRow, input: MoveAppointmentInput, calendar: SiteCalendarInputs) {
+  if (input.items) return planItems(db, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
+  const plan = parseJson<VisitPlan>(row.plan, {} as VisitPlan)
+  const templates = (await Promise.all((plan.items ?? []).map((item) => findTemplateByCodeVersion(db, item.templateCode, item.templateVersion))))
+    .filter((template) => template !== undefined)
+  return { plan, templates }
+}
+
+async function findTemplateByCodeVersion(db: Db, code: string, version: number | undefined) {
+  const row = await db('procedure_templates').where({ code, ...(version ? { version } : { is_current: true }) }).first('id')
+  return row ? findTemplateById(db, row.id) : undefined
+}
+
+export async function moveAppointment(id: number, input: MoveAppointmentInput, user: SessionUser): Promise<AppointmentDto> {
+  const db = useDb()
+  const row = await liveVisit(db, id, user)
+  if (row.row_version !== input.rowVersion) throw staleVersion()
+  if (!holdsTime(row.state) || row.state === 'finished') throw conflict(`A ${row.state} visit cannot be moved.`, { field: 'state' })
+  const calendar = await siteCalendar(db, row.site_id)
+  const { plan, templates } = await planForMove(db, row, input, calendar)
+  const startMs = input.startUtc ? startOf(input.startUtc) : row.start_utc.getTime()
+  if (input.startUtc) assertStartAllowed(startMs, calendar)
+  const operatoryId = input.operatoryId ?? row.operatory_id
+  const providerId = input.providerId ?? row.provider_id
+
+  return withTransactionRetry(() => db.transaction(async (trx) => {
+    await lockForBooking(trx, [operatoryId], [providerId], row.patient_id)
+    await assertBookable(trx, { calendar, plan, templates, operatoryId, providerId, patientId: row.patient_id, startMs, exceptAppointmentId: id })
+    const changed = await updateAppointmentIfVersion(trx, id, input.rowVersion, {
+      operatory_id: operatoryId, provider_id: providerId, start_utc: new Date(startMs), end_utc: new Date(visitEnd(plan, startMs)),
+      plan: JSON.stringify(plan), ical_sequence: row.ical_sequence + 1, updated_by: user.id, ...(input.note === undefined ? {} : { note: input.note }),
+    })
+    if (!changed) throw staleVersion()
+    await replaceSegments(trx, id, placeSegments(plan, startMs, operatoryId, providerId))
+    await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'appointment', entityId: id, before: { start: row.start_utc, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
+    await queueMessage(trx, 'update', id, row.site_id, row.patient_id)
+    return loaded(trx, id)
+  }, READ_COMMITTED))
+}
+
+export async function changeVisitState(id: number, to: VisitState, user: SessionUser, reason?: string): Promise<AppointmentDto> {
+  const db = useDb()
+  return withTransactionRetry(() => db.transaction(async (trx) => {
+    const row = await liveVisit(trx, id, user)
+    if (!canMoveToState(row.state, to)) throw conflict(`A visit that is ${row.state} cannot become ${to}.`, { field: 'state', from: row.state, to })
+    const releases = !holdsTime(to)
+    const changed = await updateAppointmentIfVersion(trx, id, row.row_version, {
+      state: to, updated_by: user.id,
+      ...(to === 'cancelled' ? { cancel_reason: reason ?? '', ical_sequence: row.ical_sequence + 1 } : {}),
+    })
+    if (!changed) throw staleVersion()
+    // A cancelled or missed visit gives its chair and provider back.
+    if (releases) await replaceSegments(trx, id, [])
+    await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'appointment', entityId: id, before: { state: row.state }, after: { state: to, reason } })
+    if (to === 'cancelled') await queueMessage(trx, 'cancellation', id, row.site_id, row.patient_id)
+    return loaded(trx, id)
+  }, READ_COMMITTED))
+}

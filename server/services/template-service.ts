@@ -1,0 +1,73 @@
+// Chair-time templates: create, revise (new version), deactivate; and the chair-time calculation.
+import type { SessionUser } from '#shared/types/auth'
+import type { ChairTimeTemplate, BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
+import type { StoredTemplate } from '#shared/types/templates'
+import type { ChairTimeRequest, TemplateInput } from '#shared/schemas/templates'
+import { validateTemplate } from '#shared/domain/template-validation'
+import { useDb, type Db } from '../utils/db'
+import { badRequest, conflict, notFound } from '../utils/errors'
+import { requireSiteAccess } from '../utils/auth'
+import { findSite } from '../repositories/sites'
+import { writeAudit } from '../repositories/audit-log'
+import {
+  codeExists, findTemplateById, insertFirstVersion, insertNextVersion, setCodeActive,
+} from '../repositories/templates'
+import { planItems } from './plan-service'
+
+function assertValid(template: ChairTimeTemplate): void {
+  const issues = validateTemplate(template)
+  const first = issues[0]
+  if (first) throw badRequest(first.field, first.reason, issues)
+}
+
+async function existingTemplate(db: Db, id: number): Promise<StoredTemplate> {
+  const template = await findTemplateById(db, id)
+  if (!template) throw notFound('No such template.')
+  return template
+}
+
+export async function createTemplate(input: TemplateInput, user: SessionUser): Promise<StoredTemplate> {
+  assertValid(input)
+  return useDb().transaction(async (trx) => {
+    if (await codeExists(trx, input.code)) {
+      throw conflict(`A template with code ${input.code} already exists. Edit it to save a new version.`, { field: 'code' })
+    }
+    const id = await insertFirstVersion(trx, input, user.id)
+    await writeAudit(trx, { userId: user.id, action: 'template_created', entity: 'procedure_template', entityId: id, after: input })
+    return existingTemplate(trx, id)
+  })
+}
+
+/** An edit never changes a version in place: booked visits keep the plan they were booked with. */
+export async function reviseTemplate(id: number, input: TemplateInput, user: SessionUser): Promise<StoredTemplate> {
+  assertValid(input)
+  return useDb().transaction(async (trx) => {
+    const before = await existingTemplate(trx, id)
+    if (input.code !== before.code) throw badRequest('code', `cannot change; this template's code is ${before.code}`)
+    const newId = await insertNextVersion(trx, before.code, input, user.id)
+    await writeAudit(trx, { userId: user.id, action: 'template_revised', entity: 'procedure_template', entityId: newId, before, after: input })
+    return existingTemplate(trx, newId)
+  })
+}
+
+export async function deactivateTemplate(id: number, user: SessionUser): Promise<StoredTemplate> {
+  const db = useDb()
+  const template = await existingTemplate(db, id)
+  await setCodeActive(db, template.code, false)
+  await writeAudit(db, { userId: user.id, action: 'template_deactivated', entity: 'procedure_template', entityId: id })
+  return existingTemplate(db, id)
+}
+
+async function bookingUnitFor(user: SessionUser, siteId: number | undefined): Promise<BookingUnitMinutes> {
+  if (siteId === undefined) return 5
+  requireSiteAccess(user, siteId)
+  const site = await findSite(useDb(), siteId)
+  if (!site) throw badRequest('siteId', 'no such site')
+  return site.bookingUnitMinutes as BookingUnitMinutes
+}
+
+/** Resolves the request's templates and runs the pure engine; domain errors become 400s. */
+export async function computeChairTime(request: ChairTimeRequest, user: SessionUser): Promise<VisitPlan> {
+  const unitMinutes = await bookingUnitFor(user, request.siteId)
+  return (await planItems(useDb(), request.items, unitMinutes)).plan
+}

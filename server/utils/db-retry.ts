@@ -1,0 +1,26 @@
+// MariaDB answers a deadlock (1213, also Galera's certification failure) or a lock wait timeout
+// (1205) by rolling back; the whole transaction is then safe to run again.
+const RETRYABLE = new Set([1213, 1205])
+const ATTEMPTS = 3
+
+export function isRetryable(error: unknown): boolean {
+  return RETRYABLE.has((error as { errno?: number }).errno ?? 0)
+}
+
+export function isDuplicateKey(error: unknown): boolean {
+  return (error as { errno?: number }).errno === 1062
+}
+
+export async function withTransactionRetry<T>(work: () => Promise<T>): Promise<T> {
+  for (let attempt = 1; ; attempt += 1) {
+    try {
+      return await work()
+    } catch (error) {
+      if (!isRetryable(error)) throw error
+      if (attempt >= ATTEMPTS) {
+        throw createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: 'The schedule is very busy right now. Please try again.' })
+      }
+      await new Promise((wait) => setTimeout(wait, 10 + Math.random() * 40 * attempt))
+    }
+  }
+}

@@ -1,0 +1,70 @@
+import { z } from 'zod'
+import { ChairTimeItemSchema } from './templates'
+import { VISIT_STATES } from '../domain/visit-states'
+
+const id = (what: string) => z.number({ error: `must be a ${what} id` }).int(`must be a ${what} id`).positive(`must be a ${what} id`)
+const utcInstant = z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time such as 2027-01-11T17:00:00Z' })
+const planItems = z.array(ChairTimeItemSchema, { error: 'must be a list of procedures' }).min(1, 'add at least one procedure').max(8, 'at most 8 procedures in one visit')
+
+export const BookAppointmentSchema = z.object({
+  patientId: id('patient'),
+  siteId: id('site'),
+  operatoryId: id('operatory'),
+  providerId: id('provider'),
+  startUtc: utcInstant,
+  items: planItems,
+  note: z.string().max(1000, 'is too long').default(''),
+})
+export type BookAppointmentInput = z.infer<typeof BookAppointmentSchema>
+
+export const MoveAppointmentSchema = z.object({
+  rowVersion: z.number({ error: 'is required (the version you last saw)' }).int().positive(),
+  startUtc: utcInstant.optional(),
+  operatoryId: id('operatory').optional(),
+  providerId: id('provider').optional(),
+  items: planItems.optional(),
+  note: z.string().max(1000, 'is too long').optional(),
+})
+export type MoveAppointmentInput = z.infer<typeof MoveAppointmentSchema>
+
+export const ChangeStateSchema = z.object({
+  state: z.enum(VISIT_STATES, { error: `must be one of ${VISIT_STATES.join(', ')}` }),
+  rowVersion: z.number().int().positive().optional(),
+})
+
+export const CancelSchema = z.object({
+  reason: z.string({ error: 'is required' }).trim().min(1, 'is required').max(300, 'is too long'),
+  rowVersion: z.number().int().positive().optional(),
+})
+
+export const PatientSearchSchema = z.object({
+  q: z.string({ error: 'is required' }).trim().min(2, 'type at least 2 characters').max(100, 'is too long'),
+  limit: z.coerce.number().int().min(1).max(50).default(20),
+})
+
+export const NewPatientSchema = z.object({
+  firstName: z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long'),
+  lastName: z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long'),
+  dateOfBirth: z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 1980-04-30'),
+  email: z.string().trim().toLowerCase().email('is not an e-mail address').max(254).nullable().optional(),
+  phone: z.string().trim().regex(/^[0-9+()\-. ]{7,25}$/, 'is not a phone number').nullable().optional(),
+  preferredSiteId: id('site').nullable().optional(),
+  emailConsent: z.boolean().default(false),
+}).refine((patient) => !patient.emailConsent || Boolean(patient.email), { message: 'needs an e-mail address', path: ['emailConsent'] })
+
+const localDate = z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 2027-01-11')
+
+export const OpeningsRequestSchema = z.object({
+  items: planItems,
+  siteIds: z.array(id('site')).min(1, 'choose at least one site').max(20).optional(),
+  providerId: id('provider').optional(),
+  operatoryId: id('operatory').optional(),
+  from: localDate,
+  to: localDate,
+  partOfDay: z.enum(['morning', 'afternoon', 'any'], { error: 'must be morning, afternoon or any' }).default('any'),
+  limit: z.number().int().min(1, 'must be at least 1').max(500, 'must be at most 500').default(10),
+  fewestGaps: z.boolean().default(false),
+})
+  .refine((request) => request.from <= request.to, { message: 'must not be before from', path: ['to'] })
+  .refine((request) => Date.parse(request.to) - Date.parse(request.from) <= 92 * 86_400_000, { message: 'search at most 92 days at once', path: ['to'] })
+export type OpeningsRequest = z.infer<typeof OpeningsRequestSchema>

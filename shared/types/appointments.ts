@@ -1,0 +1,70 @@
+// Visits as the API returns them.
+import type { StepKind, VisitPlan } from './chair-time'
+import type { VisitState } from '../domain/visit-states'
+
+export interface SegmentDto {
+  kind: StepKind
+  label: string
+  operatoryId: number
+  providerId: number
+  startUtc: string
+  endUtc: string
+}
+
+export interface AppointmentDto {
+  id: number
+  siteId: number
+  operatoryId: number
+  providerId: number
+  patientId: number
+  startUtc: string
+  endUtc: string
+  state: VisitState
+  note: string
+  cancelReason: string | null
+  rowVersion: number
+  icalUid: string
+  icalSequence: number
+  plan: VisitPlan
+  segments: SegmentDto[]
+}
+
+/** What a 409 says about the booking it collided with. */
+export interface BookingConflict {
+  resource: 'operatory' | 'provider' | 'patient'
+  id: number
+  name: string
+  startUtc: string
+  endUtc: string
+  appointmentId: number | null
+}
+
+export interface PatientDto {
+  id: number
+  firstName: string
+  lastName: string
+  dateOfBirth: string
+  email: string | null
+  phone: string | null
+  preferredSiteId: number | null
+  emailConsent: boolean
+}
+
+export interface OpeningDto {
+  siteId: number
+  siteName: string
+  operatoryId: number
+  operatoryName: string
+  providerId: number
+  providerName: string
+  startUtc: string
+  endUtc: string
+  startLocal: string
+  timeZone: string
+}
+
+export interface OpeningsResponse {
+  plan: VisitPlan
+  openings: OpeningDto[]
+  reasons: string[]
+}

@@ -1,0 +1,242 @@
+// Booking never double-books: concurrency, numbing interleave, moves, states, idempotency.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { ApiClient, signedInAs } from '../helpers/api-client'
+import { startAppServer, type RunningServer } from '../helpers/app-server'
+import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
+import { createAnnex, FILLING, utcAt, type Annex } from '../helpers/booking-fixtures'
+
+const QUARRY_ZONE = 'America/Los_Angeles'
+let manager: ApiClient
+let quarry: { siteId: number; chair1: number; chair2: number; chair3: number; hygieneA: number; hygieneB: number; dentist: number; patients: number[] }
+
+beforeAll(async () => {
+  manager = await signedInAs('manager@fernhollow.test')
+  const siteId = await siteIdBySlug('quarry-street')
+  const rooms = await testDb()('operatories').where({ site_id: siteId }).orderBy('sort_order').pluck('id')
+  const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist@fernhollow.test').first('providers.id')
+  const patients = await testDb()('patients').orderBy('id').limit(40).pluck('id')
+  quarry = { siteId, chair1: rooms[0], chair2: rooms[1], chair3: rooms[2], hygieneA: rooms[3], hygieneB: rooms[4], dentist: dentist.id, patients }
+})
+afterAll(closeTestDb)
+
+function booking(overrides: Record<string, unknown>) {
+  return { siteId: quarry.siteId, operatoryId: quarry.chair1, providerId: quarry.dentist, patientId: quarry.patients[0], items: FILLING, ...overrides }
+}
+
+async function visitsAt(operatoryId: number, startUtc: string): Promise<number> {
+  const row = await testDb()('appointments').where({ operatory_id: operatoryId, start_utc: new Date(startUtc) }).whereNot('state', 'cancelled').count({ count: '*' }).first()
+  return Number(row!.count)
+}
+
+function statuses(responses: Array<{ status: number }>): Record<number, number> {
+  return responses.reduce<Record<number, number>>((counts, response) => ({ ...counts, [response.status]: (counts[response.status] ?? 0) + 1 }), {})
+}
+
+describe('booking a visit', () => {
+  it('books a two-surface filling with its segments, an audit row and an outbox row', async () => {
+    const startUtc = utcAt('2027-01-11T09:00', QUARRY_ZONE) // a Monday: the demo dentist is at Quarry Street
+    const consenting = await testDb()('patients').whereNotNull('email').where({ email_consent: true }).first('id')
+    const response = await manager.post('/api/appointments', booking({ startUtc, patientId: consenting.id, operatoryId: quarry.chair3 }))
+    expect(response.status).toBe(201)
+    expect(response.body).toMatchObject({ state: 'booked', rowVersion: 1, startUtc: new Date(startUtc).toISOString() })
+    const kinds = response.body.segments.map((segment: { kind: string }) => segment.kind)
+    expect(kinds).toContain('numbing')
+    expect(response.body.segments[0].startUtc).toBe(response.body.startUtc)
+    expect(response.body.segments.at(-1).endUtc).toBe(response.body.endUtc)
+    expect(await testDb()('audit_log').where({ action: 'visit_booked', entity_id: String(response.body.id) })).toHaveLength(1)
+    expect(await testDb()('outbox').where({ appointment_id: response.body.id, kind: 'invitation' })).toHaveLength(1)
+  })
+
+  it('books a second patient in another chair during the first one\'s numbing wait, not during hands-on work', async () => {
+    const first = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-01-18T09:00', QUARRY_ZONE), patientId: quarry.patients[1] }))
+    expect(first.status).toBe(201)
+    const numbing = first.body.segments.find((segment: { kind: string }) => segment.kind === 'numbing')
+    expect(numbing).toBeTruthy()
+    // A sealant's hands-on minutes fit inside the 10-minute onset wait of the first patient's block.
+    const sealant = [{ templateCode: 'SEAL', tooth: '3' }]
+    const during = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-01-18T09:05', QUARRY_ZONE), operatoryId: quarry.hygieneA, patientId: quarry.patients[2], items: sealant }))
+    expect(during.status).toBe(201)
+    const overlapping = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-01-18T09:10', QUARRY_ZONE), operatoryId: quarry.hygieneB, patientId: quarry.patients[3], items: sealant }))
+    expect(overlapping.status).toBe(409)
+    expect(overlapping.body.data.conflict).toMatchObject({ resource: 'provider', id: quarry.dentist })
+    expect(overlapping.body.message).toMatch(/already working with another patient/)
+  })
+
+  it('refuses a second visit for a patient who already has one then', async () => {
+    const startUtc = utcAt('2027-01-25T10:00', QUARRY_ZONE)
+    expect((await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[4] }))).status).toBe(201)
+    // Another room and another provider: only the patient is double-booked.
+    const hygienist = await providerIdOf('hygienist.two@fernhollow.test')
+    const again = await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[4], operatoryId: quarry.hygieneA, providerId: hygienist, items: [{ templateCode: 'SEAL', tooth: '3' }] }))
+    expect(again.status).toBe(409)
+    expect(again.body.data.conflict).toMatchObject({ resource: 'patient', id: quarry.patients[4] })
+  })
+
+  it.each([
+    ['startUtc', { startUtc: utcAt('2027-01-11T09:03', QUARRY_ZONE) }, /grid/],
+    ['startUtc', { startUtc: '2020-01-06T17:00:00Z' }, /from now/],
+    ['startUtc', { startUtc: 'next monday' }, /ISO date-time/],
+    ['operatoryId', { startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE), operatoryId: 999999 }, /not a room/],
+    ['patientId', { startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE), patientId: 99999999 }, /no such patient/],
+    ['items.0.surfaces', { startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE), items: [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MOX' }] }, /X/],
+  ])('answers 400 naming %s', async (field, change, reason) => {
+    const response = await manager.post('/api/appointments', booking(change))
+    expect(response.status).toBe(400)
+    expect(response.body.data.field).toBe(field)
+    expect(response.body.data.reason).toMatch(reason)
+  })
+
+  it('refuses a chair without the equipment (a filling in a hygiene room)', async () => {
+    const response = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE), operatoryId: quarry.hygieneA }))
+    expect(response.status).toBe(400)
+    expect(response.body.data.field).toBe('operatoryId')
+  })
+
+  it('answers 409 outside opening hours and when the provider is not on shift', async () => {
+    const lateEvening = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-08T19:00', QUARRY_ZONE) }))
+    expect(lateEvening.status).toBe(409)
+    expect(lateEvening.body.data.conflict.resource).toBe('operatory')
+    // Wednesdays the demo dentist works at Saguaro Flats, not Quarry Street.
+    const wednesday = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-10T09:00', QUARRY_ZONE) }))
+    expect(wednesday.status).toBe(409)
+    expect(wednesday.body.data.conflict.resource).toBe('provider')
+  })
+
+  it('keeps front desk to its own sites and signed-out callers out', async () => {
+    const desk = await signedInAs('desk.aspen@fernhollow.test')
+    expect((await desk.post('/api/appointments', booking({ startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE) }))).status).toBe(403)
+    const hygienist = await signedInAs('hygienist@fernhollow.test')
+    expect((await hygienist.post('/api/appointments', booking({ startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE) }))).status).toBe(403)
+    expect((await new ApiClient().post('/api/appointments', booking({}))).status).toBe(401)
+  })
+})
+
+describe('moving, states and cancelling', () => {
+  it('moves with the current row version, refuses a stale one and a busy chair', async () => {
+    const a = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-01T13:00', QUARRY_ZONE), patientId: quarry.patients[5] }))
+    const b = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-01T13:00', QUARRY_ZONE), patientId: quarry.patients[6], operatoryId: quarry.chair2, providerId: quarry.dentist, items: [{ templateCode: 'EXAM-EMER' }] }))
+    expect(a.status).toBe(201)
+    expect([201, 409]).toContain(b.status)
+    const moved = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 1, startUtc: utcAt('2027-02-01T14:30', QUARRY_ZONE) })
+    expect(moved.status).toBe(200)
+    expect(moved.body).toMatchObject({ rowVersion: 2, icalSequence: 1, startUtc: new Date(utcAt('2027-02-01T14:30', QUARRY_ZONE)).toISOString() })
+    const stale = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 1, startUtc: utcAt('2027-02-01T15:00', QUARRY_ZONE) })
+    expect(stale.status).toBe(409)
+    expect(stale.body.data.field).toBe('rowVersion')
+
+    const blocker = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-01T14:30', QUARRY_ZONE), patientId: quarry.patients[7], operatoryId: quarry.chair3, providerId: await otherQuarryDentist(), items: [{ templateCode: 'EXAM-EMER' }] }))
+    expect(blocker.status).toBe(201)
+    const ontoBusy = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 2, operatoryId: quarry.chair3 })
+    expect(ontoBusy.status).toBe(409)
+    expect(ontoBusy.body.data.conflict).toMatchObject({ resource: 'operatory', id: quarry.chair3, appointmentId: blocker.body.id })
+    const unchanged = await manager.get(`/api/appointments/${a.body.id}`)
+    expect(unchanged.body).toMatchObject({ operatoryId: quarry.chair1, rowVersion: 2 })
+  })
+
+  it('allows only the glossary\'s state transitions and frees the time on cancel', async () => {
+    const startUtc = utcAt('2027-02-04T10:00', QUARRY_ZONE) // a Thursday
+    const visit = await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[8] }))
+    expect(visit.status).toBe(201)
+    const id = visit.body.id
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'finished' })).status).toBe(409)
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived' })).body.state).toBe('arrived')
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'treating' })).body.state).toBe('treating')
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'booked' })).status).toBe(409)
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'asleep' })).status).toBe(400)
+
+    const other = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-04T13:00', QUARRY_ZONE), patientId: quarry.patients[9] }))
+    expect((await manager.post(`/api/appointments/${other.body.id}/cancel`, {})).status).toBe(400)
+    const cancelled = await manager.post(`/api/appointments/${other.body.id}/cancel`, { reason: 'Patient is travelling' })
+    expect(cancelled.body).toMatchObject({ state: 'cancelled', cancelReason: 'Patient is travelling', segments: [] })
+    expect((await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-04T13:00', QUARRY_ZONE), patientId: quarry.patients[10] }))).status).toBe(201)
+  })
+})
+
+async function providerIdOf(email: string): Promise<number> {
+  const row = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', email).first('providers.id')
+  return row.id
+}
+
+function otherQuarryDentist(): Promise<number> {
+  return providerIdOf('dentist.three@fernhollow.test')
+}
+
+describe('concurrency (real MariaDB, real HTTP)', () => {
+  let annex: Annex
+  let second: RunningServer
+  beforeAll(async () => {
+    annex = await createAnnex({ rooms: 50, providers: 3, patients: 150 })
+    second = await startAppServer()
+  })
+  afterAll(async () => { await second?.stop() })
+
+  function annexBooking(index: number, overrides: Record<string, unknown>) {
+    return { siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], patientId: annex.patientIds[index], items: FILLING, ...overrides }
+  }
+
+  it('50 simultaneous bookings of one chair at one time: exactly one wins', async () => {
+    const startUtc = utcAt('2027-03-01T09:00', annex.timeZone)
+    const clients = await Promise.all(Array.from({ length: 5 }, () => signedInAs('admin@fernhollow.test')))
+    const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
+      clients[index % 5]!.post('/api/appointments', annexBooking(index, { startUtc, providerId: annex.providerIds[index % 3] }))))
+    expect(statuses(responses)).toEqual({ 201: 1, 409: 49 })
+    expect(await visitsAt(annex.operatoryIds[0]!, startUtc)).toBe(1)
+  })
+
+  it('50 simultaneous bookings in 50 chairs that all need one provider hands-on: exactly one wins', async () => {
+    const startUtc = utcAt('2027-03-02T09:00', annex.timeZone)
+    const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
+      manager.post('/api/appointments', annexBooking(50 + index, { startUtc, operatoryId: annex.operatoryIds[index] }))))
+    expect(statuses(responses)).toEqual({ 201: 1, 409: 49 })
+    const booked = await testDb()('appointments').where({ provider_id: annex.providerIds[0], start_utc: new Date(startUtc) }).count({ count: '*' }).first()
+    expect(Number(booked!.count)).toBe(1)
+  })
+
+  it('the same race across two app server processes sharing the database', async () => {
+    const startUtc = utcAt('2027-03-03T09:00', annex.timeZone)
+    const onSecond = new ApiClient(second.url)
+    await onSecond.signIn('manager@fernhollow.test')
+    const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
+      (index % 2 ? onSecond : manager).post('/api/appointments', annexBooking(100 + index, { startUtc, operatoryId: annex.operatoryIds[1] }))))
+    expect(statuses(responses)).toEqual({ 201: 1, 409: 49 })
+    expect(await visitsAt(annex.operatoryIds[1]!, startUtc)).toBe(1)
+  })
+
+  it('an Idempotency-Key repeated (even at once) books one visit and answers the same', async () => {
+    const startUtc = utcAt('2027-03-04T09:00', annex.timeZone)
+    const body = annexBooking(0, { startUtc, operatoryId: annex.operatoryIds[2] })
+    const headers = { 'idempotency-key': `test-key-${annex.siteId}` }
+    const [first, second] = await Promise.all([manager.post('/api/appointments', body, { headers }), manager.post('/api/appointments', body, { headers })])
+    expect(first.status).toBe(201)
+    expect(second.status).toBe(201)
+    expect(second.body.id).toBe(first.body.id)
+    const third = await manager.post('/api/appointments', body, { headers })
+    expect(third.body.id).toBe(first.body.id)
+    expect(await visitsAt(annex.operatoryIds[2]!, startUtc)).toBe(1)
+    const reused = await manager.post('/api/appointments', { ...body, operatoryId: annex.operatoryIds[3] }, { headers })
+    expect(reused.status).toBe(409)
+  })
+})
+
+describe('patients for booking', () => {
+  it('finds patients by name, birth date and phone digits, and registers a new one with validation', async () => {
+    const desk = await signedInAs('desk.quarry@fernhollow.test')
+    const someone = await testDb()('patients').whereNotNull('phone').orderBy('id').first()
+    const byName = await desk.get(`/api/patients?q=${encodeURIComponent(someone.last_name)}`)
+    expect(byName.body.some((patient: { id: number }) => patient.id === someone.id)).toBe(true)
+    const born = someone.date_of_birth.toISOString().slice(0, 10)
+    expect((await desk.get(`/api/patients?q=${born}`)).body.some((patient: { id: number }) => patient.id === someone.id)).toBe(true)
+    const digits = someone.phone.replace(/\D/g, '')
+    expect((await desk.get(`/api/patients?q=${digits}`)).body.some((patient: { id: number }) => patient.id === someone.id)).toBe(true)
+    expect((await desk.get('/api/patients?q=a')).status).toBe(400)
+
+    const created = await desk.post('/api/patients', { firstName: 'Ola', lastName: 'Testperson', dateOfBirth: '1990-05-06', email: 'ola.testperson@fernhollow.test', emailConsent: true })
+    expect(created.status).toBe(201)
+    expect(created.body).toMatchObject({ firstName: 'Ola', emailConsent: true })
+    const bad = await desk.post('/api/patients', { firstName: 'Ola', lastName: 'Testperson', dateOfBirth: '1990-02-31' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.field).toBe('dateOfBirth')
+    const noEmail = await desk.post('/api/patients', { firstName: 'Ola', lastName: 'Testperson', dateOfBirth: '1990-02-03', emailConsent: true })
+    expect(noEmail.body.data.field).toBe('emailConsent')
+  })
+})
