@@ -149,3 +149,48 @@ export async function countAppointments(db: Db, where: Record<string, unknown>):
   const row = await db('appointments').where(where).count({ count: '*' }).first()
   return Number(row?.count ?? 0)
 }
+
+export interface VisitListFilter {
+  siteIds: number[] | 'all'
+  siteId?: number
+  providerId?: number
+  fromMs: number
+  toMs: number
+  includeCancelled: boolean
+}
+
+export interface BoardRow extends AppointmentRow {
+  patient_first_name: string
+  patient_last_name: string
+  provider_name: string
+}
+
+/** Visits overlapping [from, to) for a site or a provider, with patient and provider names. */
+export async function listVisits(db: Db, filter: VisitListFilter): Promise<{ rows: BoardRow[]; segments: SegmentRow[] }> {
+  const query = db('appointments')
+    .join('patients', 'patients.id', 'appointments.patient_id')
+    .join('providers', 'providers.id', 'appointments.provider_id')
+    .join('users', 'users.id', 'providers.user_id')
+    .where('appointments.start_utc', '<', new Date(filter.toMs)).where('appointments.end_utc', '>', new Date(filter.fromMs))
+    .orderBy(['appointments.start_utc', 'appointments.id'])
+    .select('appointments.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'users.name as provider_name')
+  if (filter.siteId !== undefined) query.where('appointments.site_id', filter.siteId)
+  if (filter.providerId !== undefined) query.where('appointments.provider_id', filter.providerId)
+  if (filter.siteIds !== 'all') query.whereIn('appointments.site_id', filter.siteIds)
+  if (!filter.includeCancelled) query.whereNot('appointments.state', 'cancelled')
+  const rows = (await query) as BoardRow[]
+  const segments = rows.length
+    ? await db<SegmentRow>('appointment_segments').whereIn('appointment_id', rows.map((row) => row.id)).orderBy('start_utc')
+    : []
+  return { rows, segments }
+}
+
+export function groupSegments(segments: SegmentRow[]): Map<number, SegmentRow[]> {
+  const byVisit = new Map<number, SegmentRow[]>()
+  for (const segment of segments) {
+    const list = byVisit.get(segment.appointment_id) ?? []
+    list.push(segment)
+    byVisit.set(segment.appointment_id, list)
+  }
+  return byVisit
+}

@@ -68,3 +68,12 @@ export interface OpeningsResponse {
   openings: OpeningDto[]
   reasons: string[]
 }
+
+/** A visit as the Chairboard, My day and week views draw it. */
+export interface BoardVisitDto extends AppointmentDto {
+  patientName: string
+  providerName: string
+  providerInitials: string
+  /** e.g. "Posterior composite 19 MO" per item, in the site's tooth notation. */
+  procedures: string[]
+}

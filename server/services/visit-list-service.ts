@@ -1,0 +1,45 @@
+// Visits for the Chairboard, My day and week views.
+import type { SessionUser } from '#shared/types/auth'
+import type { BoardVisitDto } from '#shared/types/appointments'
+import type { PlanItemSummary } from '#shared/types/chair-time'
+import { useDb } from '../utils/db'
+import { requireSiteAccess } from '../utils/auth'
+import { groupSegments, listVisits, toAppointmentDto, type BoardRow } from '../repositories/appointments'
+
+export interface VisitListRequest {
+  siteId?: number
+  providerId?: number
+  fromMs: number
+  toMs: number
+  includeCancelled: boolean
+}
+
+function initials(name: string): string {
+  return name.replace(/^Dr\.\s*/, '').split(/\s+/).map((part) => part[0] ?? '').join('').slice(0, 3).toUpperCase()
+}
+
+function procedureLine(item: PlanItemSummary): string {
+  const tooth = item.tooth ? ` ${item.tooth.universal}` : ''
+  const surfaces = item.surfaces?.length ? ` ${item.surfaces.join('')}` : ''
+  return `${item.templateName}${tooth}${surfaces}`
+}
+
+function toBoardVisit(row: BoardRow, segments: Parameters<typeof toAppointmentDto>[1]): BoardVisitDto {
+  const visit = toAppointmentDto(row, segments)
+  return {
+    ...visit,
+    patientName: `${row.patient_first_name} ${row.patient_last_name}`,
+    providerName: row.provider_name,
+    providerInitials: initials(row.provider_name),
+    procedures: (visit.plan.items ?? []).map(procedureLine),
+  }
+}
+
+export async function visitsFor(request: VisitListRequest, user: SessionUser): Promise<BoardVisitDto[]> {
+  if (request.siteId !== undefined) requireSiteAccess(user, request.siteId)
+  const { rows, segments } = await listVisits(useDb(), {
+    ...request, siteIds: user.allSites ? 'all' : user.siteIds,
+  })
+  const bySegment = groupSegments(segments)
+  return rows.map((row) => toBoardVisit(row, bySegment.get(row.id) ?? []))
+}
