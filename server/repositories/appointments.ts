@@ -115,10 +115,13 @@ export interface SegmentClash {
 
 /** Any live segment of another visit in this chair overlapping [start, end). */
 export async function operatoryClash(db: Db, operatoryId: number, startMs: number, endMs: number, exceptAppointmentId: number | null): Promise<SegmentClash | undefined> {
-  const query = db('appointment_segments').where({ operatory_id: operatoryId })
-    .where('start_utc', '<', new Date(endMs)).where('end_utc', '>', new Date(startMs))
-    .orderBy('start_utc').first({ appointmentId: 'appointment_id', startUtc: 'start_utc', endUtc: 'end_utc' })
-  if (exceptAppointmentId !== null) query.whereNot({ appointment_id: exceptAppointmentId })
+  // The whole visit's times, not the one segment, so the message names the visit in the way.
+  const query = db('appointment_segments').join('appointments', 'appointments.id', 'appointment_segments.appointment_id')
+    .where('appointment_segments.operatory_id', operatoryId)
+    .where('appointment_segments.start_utc', '<', new Date(endMs)).where('appointment_segments.end_utc', '>', new Date(startMs))
+    .orderBy('appointment_segments.start_utc')
+    .first({ appointmentId: 'appointment_segments.appointment_id', startUtc: 'appointments.start_utc', endUtc: 'appointments.end_utc' })
+  if (exceptAppointmentId !== null) query.whereNot('appointment_segments.appointment_id', exceptAppointmentId)
   return query
 }
 

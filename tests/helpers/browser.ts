@@ -17,14 +17,14 @@ export interface BrowserSession {
   close: () => Promise<void>
 }
 
-export async function openBrowser(baseURL: string): Promise<BrowserSession> {
+export async function openBrowser(baseURL: string, viewport = { width: 1280, height: 800 }): Promise<BrowserSession> {
   const profile = mkdtempSync(join(tmpdir(), 'cuspline-chromium-'))
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     args: FLAGS,
     headless: true,
     baseURL,
-    viewport: { width: 1280, height: 800 },
+    viewport,
     timezoneId: 'UTC',
   })
   const page = context.pages()[0] ?? await context.newPage()
