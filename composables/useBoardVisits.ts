@@ -11,8 +11,11 @@ export function useBoardVisits(siteId: Ref<number | null>, date: Ref<string>, zo
   let etag = ''
   let timer: ReturnType<typeof setInterval> | undefined
 
+  const currentKey = () => `${siteId.value}|${date.value}|${zone.value}`
+
   async function load(force = false): Promise<void> {
     if (siteId.value === null) return
+    const key = currentKey()
     const { fromUtc, toUtc } = siteDayRange(date.value, zone.value)
     loading.value = visits.value.length === 0
     try {
@@ -21,6 +24,8 @@ export function useBoardVisits(siteId: Ref<number | null>, date: Ref<string>, zo
         headers: force || !etag ? {} : { 'if-none-match': etag },
         ignoreResponseError: true,
       })
+      // A slow answer for a day the board has left must not overwrite the day it shows now.
+      if (key !== currentKey()) return
       if (response.status === 200 && response._data) {
         visits.value = response._data
         etag = response.headers.get('etag') ?? ''

@@ -6,6 +6,8 @@ cd "$ROOT"
 bash scripts/provision.sh
 bash scripts/with-env.sh tsx scripts/db-seed.ts
 bash scripts/build-if-stale.sh
+# Demo visits go through the real booking service, so they need the built app.
+bash scripts/with-env.sh tsx scripts/seed-demo-visits.ts
 cat <<TXT
 
   Cuspline is running at http://$HOST:$PORT

@@ -15,7 +15,7 @@ const ZONE = 'America/Chicago'
 const ALL_DAY = [{ start: '00:00', end: '24:00' }]
 
 process.env.NUXT_DB_DATABASE = DATABASE
-const { startAppServer } = await import('../../tests/helpers/app-server')
+const { startAppServer } = await import('../lib/app-server')
 
 function percentile(values: number[], share: number): number {
   const sorted = [...values].sort((a, b) => a - b)

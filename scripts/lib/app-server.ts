@@ -1,0 +1,58 @@
+// Starts the built app (.output) as a real Node process on a free loopback port.
+import { spawn, type ChildProcess } from 'node:child_process'
+import { createServer } from 'node:net'
+import { resolve } from 'node:path'
+
+export interface RunningServer {
+  url: string
+  stop: () => Promise<void>
+}
+
+export async function freePort(): Promise<number> {
+  return new Promise((done, fail) => {
+    const probe = createServer()
+    probe.once('error', fail)
+    probe.listen(0, '127.0.0.1', () => {
+      const address = probe.address()
+      const port = typeof address === 'object' && address ? address.port : 0
+      probe.close(() => done(port))
+    })
+  })
+}
+
+async function waitUntilAnswering(url: string, child: ChildProcess, output: () => string): Promise<void> {
+  const deadline = Date.now() + 30_000
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`app server exited early:\n${output()}`)
+    try {
+      const response = await fetch(`${url}/api/me`)
+      if (response.status === 401) return
+    } catch {
+      // not listening yet
+    }
+    await new Promise((wait) => setTimeout(wait, 150))
+  }
+  throw new Error(`app server did not answer at ${url}:\n${output()}`)
+}
+
+/** Extra environment (for example a short idle timeout) applies to this process only. */
+export async function startAppServer(extraEnv: Record<string, string> = {}): Promise<RunningServer> {
+  const port = await freePort()
+  const url = `http://127.0.0.1:${port}`
+  let log = ''
+  const child = spawn(process.execPath, [resolve('.output/server/index.mjs')], {
+    env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), NITRO_PORT: String(port), ...extraEnv },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  child.stdout?.on('data', (chunk) => { log += chunk })
+  child.stderr?.on('data', (chunk) => { log += chunk })
+  await waitUntilAnswering(url, child, () => log)
+  return {
+    url,
+    stop: () => new Promise((done) => {
+      if (child.exitCode !== null) return done()
+      child.once('exit', () => done())
+      child.kill('SIGTERM')
+    }),
+  }
+}
