@@ -1,6 +1,9 @@
 // How long the Chairboard takes to draw a site day with 60 visits once the data has arrived, in
 // Debian's Chromium against the built app (own database cuspline_bench_board). Figures only.
 import { performance } from 'node:perf_hooks'
+import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
+import { gzipSync } from 'node:zlib'
 import { DateTime } from 'luxon'
 import type { Knex } from 'knex'
 import { createDb, dbSettingsFromEnv } from '../../db/connection'
@@ -58,6 +61,13 @@ const browser = await openBrowser(server.url, { width: 1400, height: 1600 })
 try {
   await signInThroughForm(browser.page, 'desk.quarry@fernhollow.test')
   await browser.page.waitForURL(/chairboard/)
+  // JavaScript the Chairboard route loads, gzipped as a server would send it.
+  const scripts = new Set<string>()
+  browser.page.on('request', (request) => { if (request.resourceType() === 'script') scripts.add(new URL(request.url()).pathname) })
+  await browser.page.goto('/chairboard')
+  await browser.page.locator('td.fc-timegrid-col').first().waitFor()
+  const gzipped = [...scripts].reduce((total, path) => total + gzipSync(readFileSync(join('.output/public', path))).length, 0)
+  console.log(`Chairboard route JavaScript: ${scripts.size} files, ${(gzipped / 1024).toFixed(0)} KiB gzipped`)
   const timings: number[] = []
   for (let run = 0; run < RUNS; run += 1) {
     await browser.page.goto('/chairboard')
