@@ -111,7 +111,8 @@ async function rawCeiling(db: Knex, site: Awaited<ReturnType<typeof benchSite>>)
 
 const db = await freshDatabase()
 const site = await benchSite(db)
-const server = await startAppServer({ NUXT_DB_DATABASE: DATABASE })
+// BENCH_CPU_PROFILE=dir writes a V8 CPU profile of the app server there.
+const server = await startAppServer({ NUXT_DB_DATABASE: DATABASE }, process.env.BENCH_CPU_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROFILE}`] : [])
 try {
   const ceiling = await rawCeiling(db, site)
   const http = await httpRun(server.url, site)

@@ -36,11 +36,11 @@ async function waitUntilAnswering(url: string, child: ChildProcess, output: () =
 }
 
 /** Extra environment (for example a short idle timeout) applies to this process only. */
-export async function startAppServer(extraEnv: Record<string, string> = {}): Promise<RunningServer> {
+export async function startAppServer(extraEnv: Record<string, string> = {}, nodeArgs: string[] = []): Promise<RunningServer> {
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
   let log = ''
-  const child = spawn(process.execPath, [resolve('.output/server/index.mjs')], {
+  const child = spawn(process.execPath, [...nodeArgs, resolve('.output/server/index.mjs')], {
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), NITRO_PORT: String(port), ...extraEnv },
     stdio: ['ignore', 'pipe', 'pipe'],
   })

@@ -20,8 +20,10 @@ export default defineEventHandler((event) => {
   const claimed = origin ? (origin === 'null' ? null : originOf(origin)) : referer ? originOf(referer) : undefined
   if (claimed === undefined) return
 
-  const ownHost = getRequestHost(event, { xForwardedHost: Boolean(useRuntimeConfig(event).auth.trustProxy) })
-  const allowed = String(useRuntimeConfig(event).auth.allowedOrigins || '')
+  // The global config (not the per-request copy, which re-reads the environment on every call).
+  const { auth } = useRuntimeConfig()
+  const ownHost = getRequestHost(event, { xForwardedHost: Boolean(auth.trustProxy) })
+  const allowed = String(auth.allowedOrigins || '')
     .split(',')
     .map((entry) => entry.trim())
     .filter(Boolean)

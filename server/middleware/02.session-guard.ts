@@ -2,7 +2,7 @@
 // a sign-out, password change or deactivation, or one idle or too old, is cleared. The fresh user
 // (role and sites as they are now) is put on event.context.currentUser for requireUser().
 import { useDb } from '../utils/db'
-import { findUserById, siteIdsOfUser, toSessionUser } from '../repositories/users'
+import { findUserWithSites, toSessionUser } from '../repositories/users'
 
 const REFRESH_EVERY_MS = 60_000
 
@@ -11,22 +11,23 @@ export default defineEventHandler(async (event) => {
   const session = await getUserSession(event)
   if (!session.user) return
 
-  const { auth } = useRuntimeConfig(event)
+  const { auth } = useRuntimeConfig()
   const idleMs = Number(auth.idleMinutes) * 60_000
   const lifetimeMs = Number(auth.absoluteHours) * 3_600_000
   const now = Date.now()
   const expired = !session.signedInAt || now - session.signedInAt > lifetimeMs || !session.lastSeenAt || now - session.lastSeenAt > idleMs
 
   const db = useDb()
-  const row = expired ? undefined : await findUserById(db, session.user.id)
-  if (!row || !row.active || row.session_version !== session.sessionVersion) {
+  const found = expired ? undefined : await findUserWithSites(db, session.user.id)
+  const row = found?.row
+  if (!found || !row || !row.active || row.session_version !== session.sessionVersion) {
     // Already invalid: clearing it must not revoke the user's other, still valid cookies.
     event.context.sessionAlreadyInvalid = true
     await clearUserSession(event)
     return
   }
 
-  event.context.currentUser = toSessionUser(row, await siteIdsOfUser(db, row.id))
+  event.context.currentUser = toSessionUser(row, found.siteIds)
   if (now - session.lastSeenAt > Math.min(REFRESH_EVERY_MS, idleMs / 2)) {
     await setUserSession(event, { lastSeenAt: now })
   }

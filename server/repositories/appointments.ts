@@ -64,8 +64,8 @@ export async function insertAppointment(db: Db, visit: NewAppointment): Promise<
   return id as number
 }
 
-export async function replaceSegments(db: Db, appointmentId: number, segments: NewSegment[]): Promise<void> {
-  await db('appointment_segments').where({ appointment_id: appointmentId }).delete()
+export async function replaceSegments(db: Db, appointmentId: number, segments: NewSegment[], options: { isNew?: boolean } = {}): Promise<void> {
+  if (!options.isNew) await db('appointment_segments').where({ appointment_id: appointmentId }).delete()
   if (!segments.length) return
   await db('appointment_segments').insert(segments.map((segment) => ({
     appointment_id: appointmentId, kind: segment.kind, label: segment.label, operatory_id: segment.operatoryId,

@@ -118,3 +118,12 @@ export async function replaceUserSites(db: Db, userId: number, siteIds: readonly
   await db('user_sites').where({ user_id: userId }).delete()
   if (siteIds.length) await db('user_sites').insert([...new Set(siteIds)].map((siteId) => ({ user_id: userId, site_id: siteId })))
 }
+
+/** The user and their site scope in one round trip (the session guard runs this on every API call). */
+export async function findUserWithSites(db: Db, id: number): Promise<{ row: UserRow; siteIds: number[] } | undefined> {
+  const row = await db('users').leftJoin('user_sites', 'user_sites.user_id', 'users.id').where('users.id', id)
+    .groupBy('users.id').first('users.*', db.raw('GROUP_CONCAT(user_sites.site_id ORDER BY user_sites.site_id) AS site_ids'))
+  if (!row) return undefined
+  const { site_ids: siteIds, ...user } = row as UserRow & { site_ids: string | null }
+  return { row: user, siteIds: siteIds ? siteIds.split(',').map(Number) : [] }
+}

@@ -28,7 +28,7 @@ function tooManyAttempts(window: FailureWindow, windowMs: number) {
 }
 
 async function refuseWhenLimited(event: H3Event, email: string, ip: string): Promise<void> {
-  const { auth } = useRuntimeConfig(event)
+  const { auth } = useRuntimeConfig()
   const windowMs = Number(auth.failureWindowMinutes) * 60_000
   const since = new Date(Date.now() - windowMs)
   const db = useDb()

@@ -71,7 +71,7 @@ export async function bookAppointment(input: BookAppointmentInput, user: Session
         siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
         startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId: user.id,
       })
-      await replaceSegments(trx, id, placeSegments(plan, startMs, input.operatoryId, input.providerId))
+      await replaceSegments(trx, id, placeSegments(plan, startMs, input.operatoryId, input.providerId), { isNew: true })
       await writeAudit(trx, { userId: user.id, action: 'visit_booked', entity: 'appointment', entityId: id, after: input })
       await queueMessage(trx, 'invitation', id, input.siteId, input.patientId)
       const visit = await loaded(trx, id)
