@@ -28,7 +28,7 @@ describe('app shell', () => {
     expect(await switcher.locator('option').count()).toBe(1)
     expect(await page.getByTestId('user-role').textContent()).toBe('Front desk')
     const nav = page.getByRole('navigation', { name: 'Main' })
-    expect(await nav.getByRole('link').allTextContents()).toEqual(['Chairboard', 'Templates', 'Rota', 'Patients', 'Outbox'])
+    expect(await nav.getByRole('link').allTextContents()).toEqual(['Chairboard', 'Week', 'Templates', 'Rota', 'Patients', 'Outbox'])
     await expect.poll(() => page.getByTestId('operatory-list').locator('.panel').count()).toBe(5)
     await screenshot(page, 'shell-desk-quarry')
   })
