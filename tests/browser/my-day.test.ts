@@ -81,6 +81,7 @@ describe('My day', () => {
     await expect.poll(async () => (await testDb()('appointments').where({ id: booking.visit.id }).first('state')).state).toBe('treating')
     // Every view of the visit follows the change, not only the button that made it.
     expect(await next.getByTestId('visit-state').getAttribute('data-state')).toBe('treating')
+    expect(await page.getByText('On shift ').count()).toBe(1)
     await screenshot(page, 'my-day-dentist')
     await block.screenshot({ path: join(ARTIFACTS, 'my-day-visit-block.png') })
   })
@@ -95,5 +96,19 @@ describe('My day', () => {
       .toBe(`Could not mark ${booking.patientName} as finished: A visit that is finished cannot become finished.`)
     expect(await block.getByTestId('visit-state').getAttribute('data-state')).toBe('treating')
     await screenshot(page, 'my-day-refused')
+  })
+
+  it('opens a Wednesday at Saguaro Flats, where the dentist works that day, in Phoenix time', async () => {
+    const { page } = browser
+    const wednesday = DateTime.now().setZone('America/Phoenix').startOf('week').plus({ weeks: 1, days: 2 }).toISODate()!
+    await page.getByLabel('Day to show').fill(wednesday)
+    await page.waitForURL(new RegExp(`/my-day\\?date=${wednesday}$`))
+    await expect.poll(() => page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in America/Phoenix')
+    expect(await page.getByTestId('myday-empty').textContent()).toContain('No visits booked for you at Fernhollow Saguaro Flats')
+    expect(await page.getByText('On shift 07:00–15:00').count()).toBe(1)
+    // The same day straight from its address (rendered on the server first).
+    await page.reload()
+    await expect.poll(() => page.getByText('On shift 07:00–15:00').count()).toBe(1)
+    expect(await page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in America/Phoenix')
   })
 })
