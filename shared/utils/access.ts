@@ -13,6 +13,7 @@ const EVERYONE: readonly Role[] = ['admin', 'manager', 'front_desk', 'dentist', 
 export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/chairboard', label: 'Chairboard', roles: EVERYONE },
   { path: '/my-day', label: 'My day', roles: ['dentist', 'hygienist'] },
+  { path: '/week', label: 'Week', roles: EVERYONE },
   { path: '/templates', label: 'Templates', roles: EVERYONE },
   { path: '/rota', label: 'Rota', roles: EVERYONE },
   { path: '/balance', label: 'Balance', roles: ['admin', 'manager'] },

@@ -22,4 +22,11 @@ describe('page access by role', () => {
     expect(canOpenPath('dentist', '/my-day')).toBe(true)
     expect(canOpenPath('front_desk', '/my-day')).toBe(false)
   })
+
+  it('gives everyone the week views, including their sub-pages', () => {
+    for (const role of ['admin', 'manager', 'front_desk', 'dentist', 'hygienist', 'assistant'] as const) {
+      expect(navItemsFor(role).map((item) => item.label)).toContain('Week')
+      expect(canOpenPath(role, '/week/operatory')).toBe(true)
+    }
+  })
 })

@@ -1,0 +1,21 @@
+// Visits of one site or one provider over a UTC range (GET /api/appointments), cached per scope and
+// range. The key follows the scope, so a scope that is only known later (the signed-in provider)
+// still fetches; a null scope is an empty list.
+import type { BoardVisitDto } from '#shared/types/appointments'
+import type { UtcRange } from './useVisitTimes'
+
+export interface VisitScope {
+  siteId?: number
+  providerId?: number
+}
+
+export function useVisitList(scope: Ref<VisitScope | null>, range: Ref<UtcRange>) {
+  const fetcher = useRequestFetch()
+  return useAsyncData<BoardVisitDto[]>(
+    computed(() => `visits-${JSON.stringify(scope.value)}-${range.value.from}-${range.value.to}`),
+    (_nuxtApp, { signal }) => (scope.value === null
+      ? Promise.resolve([])
+      : fetcher<BoardVisitDto[]>('/api/appointments', { query: { ...scope.value, from: range.value.from, to: range.value.to }, signal })),
+    { default: () => [] },
+  )
+}

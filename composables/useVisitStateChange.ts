@@ -1,0 +1,47 @@
+// Move a visit along its states from a screen: the change shows at once and is rolled back, with a
+// message, when the server refuses it.
+import type { AppointmentDto, BoardVisitDto } from '#shared/types/appointments'
+import { VISIT_STATE_LABELS, type VisitState } from '#shared/domain/visit-states'
+
+interface FetchFailure {
+  data?: { statusMessage?: string; message?: string }
+}
+
+function reasonOf(error: unknown): string {
+  const failure = error as FetchFailure
+  return failure?.data?.message ?? failure?.data?.statusMessage ?? 'the server did not answer'
+}
+
+export function useVisitStateChange(visits: Ref<BoardVisitDto[] | null | undefined>) {
+  const pendingId = ref<number | null>(null)
+  const problem = ref<string | null>(null)
+
+  /** useFetch data is a shallow ref: replace the visit, never mutate it, so every view redraws. */
+  function patch(visitId: number, change: Partial<BoardVisitDto>): void {
+    visits.value = (visits.value ?? []).map((entry) => (entry.id === visitId ? { ...entry, ...change } : entry))
+  }
+
+  async function changeState(visitId: number, to: VisitState): Promise<boolean> {
+    const visit = visits.value?.find((entry) => entry.id === visitId)
+    if (!visit || pendingId.value !== null) return false
+    const before = { state: visit.state, rowVersion: visit.rowVersion }
+    problem.value = null
+    pendingId.value = visitId
+    patch(visitId, { state: to })
+    try {
+      const saved = await $fetch<AppointmentDto>(`/api/appointments/${visitId}/state`, {
+        method: 'POST', body: { state: to, rowVersion: before.rowVersion },
+      })
+      patch(visitId, { state: saved.state, rowVersion: saved.rowVersion })
+      return true
+    } catch (error) {
+      patch(visitId, before)
+      problem.value = `Could not mark ${visit.patientName} as ${VISIT_STATE_LABELS[to].toLowerCase()}: ${reasonOf(error)}`
+      return false
+    } finally {
+      pendingId.value = null
+    }
+  }
+
+  return { changeState, pendingId, problem }
+}

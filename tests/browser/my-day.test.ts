@@ -1,0 +1,114 @@
+// My day as the demo dentist sees it, in real Chromium: a filling booked a few minutes from now,
+// its numbing band and countdown, and moving it arrived → treating with the buttons.
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { DateTime } from 'luxon'
+import { ARTIFACTS, openBrowser, screenshot, signInThroughForm, type BrowserSession } from '../helpers/browser'
+import { signedInAs } from '../helpers/api-client'
+import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
+import { bookFirstOpening, demoDentistProviderId, ensureOnShiftNow, openSiteForToday } from '../helpers/visits'
+
+const ZONE = 'America/Los_Angeles'
+let browser: BrowserSession
+let restoreSite: (() => Promise<void>) | undefined
+let extraShiftId: number | null = null
+let booking: Awaited<ReturnType<typeof bookFirstOpening>>
+
+beforeAll(async () => {
+  const quarry = await siteIdBySlug('quarry-street')
+  const dentist = await demoDentistProviderId()
+  const manager = await signedInAs('manager@fernhollow.test')
+  restoreSite = await openSiteForToday(quarry, ZONE)
+  extraShiftId = await ensureOnShiftNow(manager, dentist, quarry, ZONE)
+  const today = DateTime.now().setZone(ZONE).toISODate()!
+  booking = await bookFirstOpening(await signedInAs('desk.quarry@fernhollow.test'), {
+    siteId: quarry, providerId: dentist, from: today, to: today, patientOffset: 141, note: 'Prefers the left side of the chair',
+  })
+  browser = await openBrowser(inject('baseURL'))
+})
+afterAll(async () => {
+  await browser?.close()
+  // Give the chair and the dentist back, so later tests find today as it was.
+  if (booking) {
+    await testDb()('appointment_segments').where({ appointment_id: booking.visit.id }).delete()
+    await testDb()('appointments').where({ id: booking.visit.id }).update({ state: 'cancelled', cancel_reason: 'My day test' })
+  }
+  if (extraShiftId !== null) await testDb()('shift_exceptions').where({ id: extraShiftId }).delete()
+  await restoreSite?.()
+  await closeTestDb()
+})
+
+describe('My day', () => {
+  it('shows the dentist the visit with its numbing band and a countdown, and moves it arrived → treating', async () => {
+    const { page } = browser
+    const numbing = booking.visit.segments.find((segment: { kind: string }) => segment.kind === 'numbing')
+    expect(numbing, 'a two-surface filling on 19 waits for the anaesthetic').toBeTruthy()
+    // The visit starts within minutes; the browser's clock is moved on to half a minute into the numbing wait.
+    await page.clock.install({ time: new Date(Date.parse(numbing.startUtc) + 30_000) })
+
+    await signInThroughForm(page, 'dentist@fernhollow.test')
+    await page.waitForURL(/\/my-day$/)
+    await expect.poll(() => page.getByTestId('myday-site').textContent()).toContain('Fernhollow Quarry Street · times in America/Los_Angeles')
+    const block = page.locator(`[data-testid="myday-visit"][data-visit-id="${booking.visit.id}"]`)
+    await expect.poll(() => block.count()).toBe(1)
+    expect(await block.textContent()).toContain(booking.patientName)
+    expect(await block.textContent()).toContain('Posterior composite 19 MO')
+    expect(await block.locator('[data-kind="numbing"]').count()).toBeGreaterThan(0)
+    expect(await block.locator('[data-kind="hands_on"]').count()).toBeGreaterThan(0)
+    expect(await block.getByTestId('visit-state').getAttribute('data-state')).toBe('booked')
+
+    // Ready at the end of the numbing segment, counting down every second.
+    const countdown = block.getByTestId('numbing-countdown')
+    await expect.poll(() => countdown.textContent()).toMatch(/Ready in \d+:\d\d/)
+    const readyAt = DateTime.fromISO(numbing.endUtc).setZone(ZONE).toFormat('HH:mm')
+    expect(await countdown.getAttribute('aria-label')).toBe(`Numbing, ready at ${readyAt}`)
+    const first = await countdown.textContent()
+    await expect.poll(() => countdown.textContent(), { timeout: 5000 }).not.toBe(first)
+    const numbingPanel = page.getByTestId('numbing-now')
+    expect(await numbingPanel.textContent()).toContain(booking.patientName)
+
+    // Next up lists tooth, surfaces and the note.
+    const next = page.getByTestId('next-up-item').filter({ hasText: booking.patientName })
+    expect(await next.textContent()).toMatch(/tooth 19 · surfaces MO/)
+    expect(await next.textContent()).toContain('Prefers the left side of the chair')
+
+    await block.getByRole('button', { name: `Mark arrived: ${booking.patientName}` }).click()
+    await expect.poll(() => block.getByTestId('visit-state').getAttribute('data-state')).toBe('arrived')
+    await expect.poll(async () => (await testDb()('appointments').where({ id: booking.visit.id }).first('state')).state).toBe('arrived')
+    await block.getByRole('button', { name: `Start treatment: ${booking.patientName}` }).click()
+    await expect.poll(() => block.getByTestId('visit-state').getAttribute('data-state')).toBe('treating')
+    expect(await block.getByTestId('visit-state').textContent()).toContain('In treatment')
+    await expect.poll(async () => (await testDb()('appointments').where({ id: booking.visit.id }).first('state')).state).toBe('treating')
+    // Every view of the visit follows the change, not only the button that made it.
+    expect(await next.getByTestId('visit-state').getAttribute('data-state')).toBe('treating')
+    expect(await page.getByText('On shift ').count()).toBe(1)
+    await screenshot(page, 'my-day-dentist')
+    await block.screenshot({ path: join(ARTIFACTS, 'my-day-visit-block.png') })
+  })
+
+  it('rolls a refused state change back and says why', async () => {
+    const { page } = browser
+    const block = page.locator(`[data-testid="myday-visit"][data-visit-id="${booking.visit.id}"]`)
+    // Someone else finished the visit behind this screen's back: finishing it again is refused.
+    await testDb()('appointments').where({ id: booking.visit.id }).update({ state: 'finished' })
+    await block.getByRole('button', { name: `Finish: ${booking.patientName}` }).click()
+    await expect.poll(() => page.getByTestId('state-problem').textContent())
+      .toBe(`Could not mark ${booking.patientName} as finished: A visit that is finished cannot become finished.`)
+    expect(await block.getByTestId('visit-state').getAttribute('data-state')).toBe('treating')
+    await screenshot(page, 'my-day-refused')
+  })
+
+  it('opens a Wednesday at Saguaro Flats, where the dentist works that day, in Phoenix time', async () => {
+    const { page } = browser
+    const wednesday = DateTime.now().setZone('America/Phoenix').startOf('week').plus({ weeks: 1, days: 2 }).toISODate()!
+    await page.getByLabel('Day to show').fill(wednesday)
+    await page.waitForURL(new RegExp(`/my-day\\?date=${wednesday}$`))
+    await expect.poll(() => page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in America/Phoenix')
+    expect(await page.getByTestId('myday-empty').textContent()).toContain('No visits booked for you at Fernhollow Saguaro Flats')
+    expect(await page.getByText('On shift 07:00–15:00').count()).toBe(1)
+    // The same day straight from its address (rendered on the server first).
+    await page.reload()
+    await expect.poll(() => page.getByText('On shift 07:00–15:00').count()).toBe(1)
+    expect(await page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in America/Phoenix')
+  })
+})
