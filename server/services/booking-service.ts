@@ -147,10 +147,11 @@ export async function moveAppointment(id: number, input: MoveAppointmentInput, u
   }, READ_COMMITTED))
 }
 
-export async function changeVisitState(id: number, to: VisitState, user: SessionUser, reason?: string): Promise<AppointmentDto> {
+export async function changeVisitState(id: number, to: VisitState, user: SessionUser, reason?: string, seenVersion?: number): Promise<AppointmentDto> {
   const db = useDb()
   return withTransactionRetry(() => db.transaction(async (trx) => {
     const row = await liveVisit(trx, id, user)
+    if (seenVersion !== undefined && seenVersion !== row.row_version) throw staleVersion()
     if (!canMoveToState(row.state, to)) throw conflict(`A visit that is ${row.state} cannot become ${to}.`, { field: 'state', from: row.state, to })
     const releases = !holdsTime(to)
     const changed = await updateAppointmentIfVersion(trx, id, row.row_version, {

@@ -139,7 +139,8 @@ describe('moving, states and cancelling', () => {
     expect(visit.status).toBe(201)
     const id = visit.body.id
     expect((await manager.post(`/api/appointments/${id}/state`, { state: 'finished' })).status).toBe(409)
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived' })).body.state).toBe('arrived')
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived', rowVersion: 99 })).status).toBe(409)
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived', rowVersion: 1 })).body.state).toBe('arrived')
     expect((await manager.post(`/api/appointments/${id}/state`, { state: 'treating' })).body.state).toBe('treating')
     expect((await manager.post(`/api/appointments/${id}/state`, { state: 'booked' })).status).toBe(409)
     expect((await manager.post(`/api/appointments/${id}/state`, { state: 'asleep' })).status).toBe(400)

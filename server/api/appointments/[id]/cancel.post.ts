@@ -8,6 +8,6 @@ import { changeVisitState } from '../../../services/booking-service'
 export default defineEventHandler(async (event): Promise<AppointmentDto> => {
   const user = requireRole(event, BOOKING_ROLES)
   const id = numericParam(event, 'id')
-  const { reason } = await readValidatedBody(event, validateWith(CancelSchema))
-  return changeVisitState(id, 'cancelled', user, reason)
+  const { reason, rowVersion } = await readValidatedBody(event, validateWith(CancelSchema))
+  return changeVisitState(id, 'cancelled', user, reason, rowVersion)
 })

@@ -8,7 +8,7 @@ import { changeVisitState } from '../../../services/booking-service'
 export default defineEventHandler(async (event): Promise<AppointmentDto> => {
   const user = requireRole(event, STAFF_ROLES)
   const id = numericParam(event, 'id')
-  const { state } = await readValidatedBody(event, validateWith(ChangeStateSchema))
+  const { state, rowVersion } = await readValidatedBody(event, validateWith(ChangeStateSchema))
   if (state === 'cancelled') throw badRequest('state', 'use POST /api/appointments/:id/cancel with a reason')
-  return changeVisitState(id, state, user)
+  return changeVisitState(id, state, user, undefined, rowVersion)
 })
