@@ -107,7 +107,8 @@ export function composeMessage(kind: OutboxKind, context: MailContext, links: Pa
       html: rendered.html,
       // nodemailer adds this as a text/calendar; method=… alternative (RFC 6047 §2.4).
       icalEvent: { method, filename: method === 'CANCEL' ? 'cancelled-visit.ics' : 'visit.ics', content: ics },
-      headers: outboxId === undefined ? {} : { 'X-Cuspline-Outbox': String(outboxId) },
+      // Which outbox row and which dispatcher process sent it, for tracing a message back.
+      headers: outboxId === undefined ? {} : { 'X-Cuspline-Outbox': String(outboxId), 'X-Cuspline-Dispatcher': String(process.pid) },
     },
   }
 }
