@@ -1,5 +1,6 @@
 // Everything one patient e-mail needs about its visit, read in one go.
 import type { Db } from '../utils/db'
+import type { CancelRequestDto } from '#shared/types/outbox'
 import type { VisitPlan } from '#shared/types/chair-time'
 import type { VisitState } from '#shared/domain/visit-states'
 import { parseJson } from './json'
@@ -76,4 +77,18 @@ export async function confirmVisit(db: Db, id: number, rowVersion: number): Prom
 /** The patient asked to cancel; the front desk decides (or the site cancels at once, see the service). */
 export async function recordCancelRequest(db: Db, id: number): Promise<void> {
   await db('appointments').where({ id }).whereNull('cancel_requested_at').update({ cancel_requested_at: new Date(), updated_at: db.fn.now(3) })
+}
+
+/** Upcoming live visits whose patient asked to cancel, soonest first. */
+export async function listCancelRequests(db: Db, filter: { siteIds: number[] | 'all'; siteId?: number; nowMs: number }): Promise<CancelRequestDto[]> {
+  const query = db('appointments').join('patients', 'patients.id', 'appointments.patient_id')
+    .whereNotNull('appointments.cancel_requested_at').whereIn('appointments.state', ['booked', 'confirmed'])
+    .where('appointments.end_utc', '>', new Date(filter.nowMs)).orderBy('appointments.start_utc').limit(200)
+    .select('appointments.id', 'appointments.site_id', 'appointments.start_utc', 'appointments.state', 'appointments.cancel_requested_at', 'appointments.row_version', 'patients.first_name', 'patients.last_name')
+  if (filter.siteIds !== 'all') query.whereIn('appointments.site_id', filter.siteIds)
+  if (filter.siteId !== undefined) query.where('appointments.site_id', filter.siteId)
+  return (await query).map((row) => ({
+    appointmentId: row.id, siteId: row.site_id, patientName: `${row.first_name} ${row.last_name}`, startUtc: row.start_utc.toISOString(),
+    state: row.state, requestedAt: row.cancel_requested_at.toISOString(), rowVersion: row.row_version,
+  }))
 }

@@ -1,14 +1,14 @@
 // The Outbox screen: patient e-mails of the caller's sites, each as sent (or as it would be sent
 // now), and "resend", which queues a fresh copy so the history of the first one stays.
 import type { SessionUser } from '#shared/types/auth'
-import type { OutboxDetailDto, OutboxMessageDto } from '#shared/types/outbox'
+import type { CancelRequestDto, OutboxDetailDto, OutboxMessageDto } from '#shared/types/outbox'
 import type { OutboxQuery } from '#shared/schemas/outbox'
 import { useDb } from '../utils/db'
 import { conflict, notFound } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { enqueueMessage, findOutboxListed, listOutbox, payloadOf, renderedOf } from '../repositories/outbox'
-import { loadMailContext } from '../repositories/mail-context'
+import { listCancelRequests, loadMailContext } from '../repositories/mail-context'
 import { renderFor } from './mail/dispatcher'
 
 export async function listMessages(query: OutboxQuery, user: SessionUser): Promise<OutboxMessageDto[]> {
@@ -48,4 +48,9 @@ export async function resendMessage(id: number, user: SessionUser): Promise<Outb
   const payload = { ...payloadOf(row), appointmentId: row.appointment_id, resendOf: row.id, startUtc: context.visit.startUtc.toISOString() }
   const newId = await enqueueMessage(db, { kind: row.kind, appointmentId: row.appointment_id, siteId: row.site_id, dueAt: new Date(), payload })
   return (await findOutboxListed(db, newId))!.dto
+}
+
+export async function cancelRequests(siteId: number | undefined, user: SessionUser): Promise<CancelRequestDto[]> {
+  if (siteId !== undefined) requireSiteAccess(user, siteId)
+  return listCancelRequests(useDb(), { siteIds: user.allSites ? 'all' : user.siteIds, siteId, nowMs: Date.now() })
 }

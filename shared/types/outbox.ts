@@ -59,3 +59,14 @@ export interface PublicVisitDto {
   canCancel: boolean
   icsUrl: string
 }
+
+/** A patient's request to cancel, waiting for the front desk. */
+export interface CancelRequestDto {
+  appointmentId: number
+  siteId: number
+  patientName: string
+  startUtc: string
+  state: VisitState
+  requestedAt: string
+  rowVersion: number
+}

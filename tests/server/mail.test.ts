@@ -223,6 +223,11 @@ describe('the signed visit link', () => {
     expect(row.state).toBe('confirmed')
     expect(row.cancel_requested_at).not.toBeNull()
     expect(await testDb()('audit_log').where({ action: 'visit_cancel_requested', entity_id: String(visitId) })).toHaveLength(1)
+    // The front desk sees it: on the visit and in the Outbox's list of requests.
+    expect((await manager.get(`/api/appointments/${visitId}`)).body.cancelRequestedAt).toBe(row.cancel_requested_at.toISOString())
+    const requests = await manager.get(`/api/outbox/cancel-requests?siteId=${annex.siteId}`)
+    expect(requests.body.map((request: { appointmentId: number }) => request.appointmentId)).toContain(visitId)
+    expect((await (await signedInAs('desk.aspen@fernhollow.test')).get(`/api/outbox/cancel-requests?siteId=${annex.siteId}`)).status).toBe(403)
   })
 
   it('cancels at once where the site says so, sending the cancellation', async () => {
