@@ -108,3 +108,32 @@ describe('two dispatcher processes', () => {
     expect(senders.size).toBe(2)
   })
 })
+
+describe('giving up and taking over', () => {
+  it('marks a message failed after the last attempt, and sends one whose sender\'s lease ran out', async () => {
+    const lane = `fail-${randomUUID().slice(0, 8)}`
+    const catcher = ownCatcher(await freePort())
+    catchers.push(catcher)
+    const annex = await createMailAnnex({ patients: 1, mailLane: lane })
+    const server = await startAppServer({ ...dispatcherEnv(lane, catcher.port), NUXT_OUTBOX_MAX_ATTEMPTS: '2' })
+    servers.push(server)
+    const desk = new ApiClient(server.url)
+    await desk.signIn('manager@fernhollow.test')
+    const booked = await desk.post('/api/appointments', bookingFor(annex, 0, utcAt('2027-05-17T09:00', ZONE)))
+    expect(booked.status).toBe(201)
+    const invitation = () => testDb()('outbox').where({ appointment_id: booked.body.id, kind: 'invitation' }).first()
+    await expect.poll(async () => (await invitation()).state, { timeout: 20_000, interval: 200 }).toBe('failed')
+    expect(await invitation()).toMatchObject({ attempts: 2, last_error: expect.stringMatching(/ECONNREFUSED/) })
+
+    await catcher.start()
+    // A row some other process claimed and then died on: 'sending' with its lease in the past.
+    const [stranded] = await testDb()('outbox').insert({
+      kind: 'update', appointment_id: booked.body.id, site_id: annex.siteId, due_at: new Date(Date.now() - 300_000), state: 'sending',
+      attempts: 1, lease_until: new Date(Date.now() - 1000), payload: JSON.stringify({ appointmentId: booked.body.id }),
+    })
+    await expect.poll(async () => (await testDb()('outbox').where({ id: stranded }).first()).state, { timeout: 20_000, interval: 200 }).toBe('sent')
+    expect(deliveriesPerRow(catcher).get(stranded as number)).toBe(1)
+    // The failed one stays failed until someone presses "resend".
+    expect((await invitation()).state).toBe('failed')
+  })
+})

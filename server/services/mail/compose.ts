@@ -67,7 +67,7 @@ function textBody(context: MailContext, facts: VisitFacts, wording: Wording, lin
 function htmlBody(context: MailContext, facts: VisitFacts, wording: Wording, links: PatientLinks): string {
   const cancelled = context.visit.state === 'cancelled'
   const rows = detailLines(context, facts)
-    .map(([label, value]) => `<tr><th align="left" style="padding:4px 16px 4px 0;color:#5b5850;font-weight:600">${escapeHtml(label)}</th><td style="padding:4px 0">${escapeHtml(value)}</td></tr>`)
+    .map(([label, value]) => `<tr><th align="left" valign="top" style="padding:4px 16px 4px 0;color:#5b5850;font-weight:600;white-space:nowrap">${escapeHtml(label)}</th><td style="padding:4px 0">${escapeHtml(value)}</td></tr>`)
     .join('')
   const actions = cancelled
     ? `<p>To book a new time, call us at ${escapeHtml(context.site.phone)}.</p>`
