@@ -7,7 +7,7 @@ import { retryDelaySeconds, givesUp, type RetryPolicy } from '#shared/domain/out
 import { holdsTime } from '#shared/domain/visit-states'
 import { claimDueMessages, markFailed, markRetry, markSent, markSkipped, payloadOf, type OutboxRow } from '../../repositories/outbox'
 import { loadMailContext, type MailContext } from '../../repositories/mail-context'
-import { composeMessage } from './compose'
+import { composeMessage, type ComposedMessage } from './compose'
 import { patientLinks, visitToken } from './links'
 
 export interface DispatchSettings {
@@ -57,7 +57,20 @@ function describe(error: unknown): string {
   return String(error)
 }
 
+async function retryOrGiveUp(db: Knex, row: OutboxRow, error: unknown, settings: DispatchSettings, round: DispatchRound): Promise<void> {
+  const message = describe(error)
+  if (givesUp(row.attempts, settings.retry)) {
+    await markFailed(db, row, message)
+    round.failed += 1
+  } else {
+    const waitMs = retryDelaySeconds(row.attempts, settings.retry, Math.random()) * 1000
+    await markRetry(db, row, message, new Date(Date.now() + waitMs))
+    round.retried += 1
+  }
+}
+
 async function sendOne(db: Knex, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
+  let sent: { messageId: string; rendered: ComposedMessage['rendered'] }
   try {
     const context = row.appointment_id === null ? undefined : await loadMailContext(db, row.appointment_id)
     const skip = reasonToSkip(row, context, Date.now())
@@ -68,19 +81,15 @@ async function sendOne(db: Knex, transporter: Transporter, row: OutboxRow, setti
     }
     const composed = renderFor(row, context!, settings)
     const info = await transporter.sendMail(composed.mail)
-    await markSent(db, row, String(info.messageId ?? ''), composed.rendered)
-    round.sent += 1
+    sent = { messageId: String(info.messageId ?? ''), rendered: composed.rendered }
   } catch (error) {
-    const message = describe(error)
-    if (givesUp(row.attempts, settings.retry)) {
-      await markFailed(db, row, message)
-      round.failed += 1
-    } else {
-      const waitMs = retryDelaySeconds(row.attempts, settings.retry, Math.random()) * 1000
-      await markRetry(db, row, message, new Date(Date.now() + waitMs))
-      round.retried += 1
-    }
+    await retryOrGiveUp(db, row, error, settings, round)
+    return
   }
+  // Sent: never scheduled again from here. If this update fails, the row stays 'sending' and is
+  // claimed again only after its lease (the one window where a message can go out twice).
+  if (await markSent(db, row, sent.messageId, sent.rendered)) round.sent += 1
+  else console.warn(`outbox: row ${row.id} was sent but its lease had passed to another process`)
 }
 
 export async function dispatchOnce(db: Knex, transporter: Transporter, settings: DispatchSettings): Promise<DispatchRound> {
