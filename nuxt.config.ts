@@ -43,6 +43,19 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true, secure: true },
     },
     smtp: { host: '127.0.0.1', port: 1025, secure: false, user: '', password: '', from: '' },
+    // Patient links (confirm / ask to cancel / .ics): HMAC secret and the address patients open.
+    mail: { linkSecret: '', publicUrl: 'http://127.0.0.1:3000' },
+    // The outbox dispatcher loop (server/plugins/outbox-dispatcher.ts).
+    outbox: {
+      dispatcher: true,
+      lane: '',
+      pollMs: 2000,
+      batchSize: 20,
+      leaseSeconds: 120,
+      maxAttempts: 8,
+      retryBaseSeconds: 30,
+      retryMaxSeconds: 3600,
+    },
     public: { appName: 'Cuspline' },
   },
   nitro: {

@@ -2,8 +2,11 @@
 import { canOpenPath, homePathFor } from '#shared/utils/access'
 
 const PUBLIC_PATHS = ['/sign-in']
+// Patients open these from e-mail links: no sign-in, signed-in staff are not redirected.
+const PUBLIC_PREFIXES = ['/visit/']
 
 export default defineNuxtRouteMiddleware(async (to) => {
+  if (PUBLIC_PREFIXES.some((prefix) => to.path.startsWith(prefix))) return
   const session = useSessionStore()
   if (!session.loaded) await session.load()
   const user = session.user

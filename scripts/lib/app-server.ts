@@ -41,7 +41,7 @@ export async function startAppServer(extraEnv: Record<string, string> = {}, node
   const url = `http://127.0.0.1:${port}`
   let log = ''
   const child = spawn(process.execPath, [...nodeArgs, resolve('.output/server/index.mjs')], {
-    env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), NITRO_PORT: String(port), ...extraEnv },
+    env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), NITRO_PORT: String(port), NUXT_MAIL_PUBLIC_URL: url, ...extraEnv },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   child.stdout?.on('data', (chunk) => { log += chunk })

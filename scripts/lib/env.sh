@@ -30,6 +30,9 @@ DB_PASSWORD="${DB_PASSWORD:-$(secret_file db-password)}"
 export DB_PASSWORD
 NUXT_SESSION_PASSWORD="${NUXT_SESSION_PASSWORD:-$(secret_file session-password)}"
 export NUXT_SESSION_PASSWORD
+NUXT_MAIL_LINK_SECRET="${NUXT_MAIL_LINK_SECRET:-$(secret_file mail-link-secret)}"
+export NUXT_MAIL_LINK_SECRET
+export NUXT_MAIL_PUBLIC_URL="${NUXT_MAIL_PUBLIC_URL:-http://$HOST:$PORT}"
 
 # What the app reads (runtimeConfig is overridden by NUXT_* variables).
 export NUXT_DB_HOST="$DB_HOST" NUXT_DB_PORT="$DB_PORT" NUXT_DB_USER="$DB_USER"

@@ -18,6 +18,7 @@ export interface AppointmentRow {
   plan: string
   note: string
   cancel_reason: string | null
+  cancel_requested_at?: Date | null
   ical_uid: string
   ical_sequence: number
   row_version: number
@@ -95,7 +96,7 @@ export function toAppointmentDto(row: AppointmentRow, segments: SegmentRow[]): A
   return {
     id: row.id, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id, patientId: row.patient_id,
     startUtc: row.start_utc.toISOString(), endUtc: row.end_utc.toISOString(), state: row.state, note: row.note,
-    cancelReason: row.cancel_reason, rowVersion: row.row_version, icalUid: row.ical_uid, icalSequence: row.ical_sequence,
+    cancelReason: row.cancel_reason, cancelRequestedAt: row.cancel_requested_at ? row.cancel_requested_at.toISOString() : null, rowVersion: row.row_version, icalUid: row.ical_uid, icalSequence: row.ical_sequence,
     plan: parseJson<VisitPlan>(row.plan, {} as VisitPlan), segments: segments.map(toSegmentDto),
   }
 }

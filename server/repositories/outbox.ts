@@ -1,11 +1,163 @@
-// Patient e-mails waiting to be sent. Rows are written inside the booking transaction.
+// Patient e-mails waiting to be sent. Rows are written inside the booking transaction and claimed by
+// dispatchers with SELECT … FOR UPDATE SKIP LOCKED, so several processes never take the same row.
+import type { Knex } from 'knex'
 import type { Db } from '../utils/db'
+import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
+import { parseJson } from './json'
 
-export type OutboxKind = 'invitation' | 'update' | 'cancellation' | 'reminder'
+export type { OutboxKind } from '#shared/types/outbox'
 
-export async function enqueueMessage(db: Db, message: { kind: OutboxKind; appointmentId: number; siteId: number; dueAt: Date; payload: Record<string, unknown> }): Promise<void> {
-  await db('outbox').insert({
+export interface OutboxRow {
+  id: number
+  kind: OutboxKind
+  appointment_id: number | null
+  site_id: number | null
+  payload: string
+  due_at: Date
+  state: OutboxState
+  attempts: number
+  last_error: string | null
+  lease_until: Date | null
+  message_id: string | null
+  sent_at: Date | null
+  rendered: string | null
+}
+
+export interface OutboxPayload {
+  appointmentId?: number
+  /** Reminders: the visit start they were planned for; a moved visit makes them stale. */
+  startUtc?: string
+  offsetHours?: number
+  resendOf?: number
+}
+
+export async function enqueueMessage(db: Db, message: { kind: OutboxKind; appointmentId: number; siteId: number; dueAt: Date; payload: OutboxPayload }): Promise<number> {
+  const [id] = await db('outbox').insert({
     kind: message.kind, appointment_id: message.appointmentId, site_id: message.siteId,
     due_at: message.dueAt, payload: JSON.stringify(message.payload),
   })
+  return id as number
+}
+
+/** Reminders not yet sent are dropped when a visit moves or is cancelled (they are planned again). */
+export async function skipQueuedReminders(db: Db, appointmentId: number, reason: string): Promise<number> {
+  return db('outbox').where({ appointment_id: appointmentId, kind: 'reminder', state: 'queued' })
+    .update({ state: 'skipped', last_error: reason })
+}
+
+export function payloadOf(row: OutboxRow): OutboxPayload {
+  return parseJson<OutboxPayload>(row.payload, {})
+}
+
+export interface ClaimOptions {
+  limit: number
+  leaseSeconds: number
+  /** Sites in this dispatcher's mail lane ('' = every site without a lane of its own). */
+  lane: string
+}
+
+/** Site ids whose settings name a mail lane (a small table; read without locks). */
+async function sitesWithLanes(db: Db): Promise<Array<{ id: number; lane: string }>> {
+  const rows = await db('sites').select('id', db.raw("COALESCE(JSON_UNQUOTE(JSON_EXTRACT(settings, '$.mailLane')), '') as lane"))
+  return (rows as Array<{ id: number; lane: string }>).filter((row) => row.lane !== '' && row.lane !== 'null')
+}
+
+/**
+ * Claims up to `limit` due rows (queued and due, or sending with an expired lease) in one short
+ * transaction: locked with FOR UPDATE SKIP LOCKED, marked 'sending' with a fresh lease. The lease
+ * value is the claim: later updates only apply while it is still ours.
+ */
+export async function claimDueMessages(db: Knex, options: ClaimOptions): Promise<OutboxRow[]> {
+  const laneSites = await sitesWithLanes(db)
+  return db.transaction(async (trx) => {
+    const now = new Date()
+    const query = trx<OutboxRow>('outbox')
+      .where((due) => due.where((queued) => queued.where('state', 'queued').where('due_at', '<=', now))
+        .orWhere((stale) => stale.where('state', 'sending').where('lease_until', '<', now)))
+      .orderBy('due_at').orderBy('id').limit(options.limit).forUpdate().skipLocked()
+    if (options.lane) {
+      query.whereIn('site_id', laneSites.filter((site) => site.lane === options.lane).map((site) => site.id))
+    } else if (laneSites.length) {
+      query.where((own) => own.whereNull('site_id').orWhereNotIn('site_id', laneSites.map((site) => site.id)))
+    }
+    const rows = await query.select('*')
+    if (!rows.length) return []
+    const leaseUntil = new Date(now.getTime() + options.leaseSeconds * 1000)
+    await trx('outbox').whereIn('id', rows.map((row) => row.id)).update({ state: 'sending', lease_until: leaseUntil, attempts: trx.raw('attempts + 1') })
+    return rows.map((row) => ({ ...row, state: 'sending' as const, lease_until: leaseUntil, attempts: row.attempts + 1 }))
+  }, { isolationLevel: 'read committed' })
+}
+
+function ours(db: Db, row: OutboxRow) {
+  return db('outbox').where({ id: row.id, state: 'sending', lease_until: row.lease_until })
+}
+
+export async function markSent(db: Db, row: OutboxRow, messageId: string, rendered: RenderedMessage): Promise<boolean> {
+  const changed = await ours(db, row).update({ state: 'sent', message_id: messageId.slice(0, 300), sent_at: new Date(), lease_until: null, last_error: null, rendered: JSON.stringify(rendered) })
+  return changed === 1
+}
+
+export async function markSkipped(db: Db, row: OutboxRow, reason: string): Promise<void> {
+  await ours(db, row).update({ state: 'skipped', lease_until: null, last_error: reason.slice(0, 1000) })
+}
+
+export async function markRetry(db: Db, row: OutboxRow, error: string, retryAt: Date): Promise<void> {
+  await ours(db, row).update({ state: 'queued', lease_until: null, due_at: retryAt, last_error: error.slice(0, 1000) })
+}
+
+export async function markFailed(db: Db, row: OutboxRow, error: string): Promise<void> {
+  await ours(db, row).update({ state: 'failed', lease_until: null, last_error: error.slice(0, 1000) })
+}
+
+export async function findOutboxRow(db: Db, id: number): Promise<OutboxRow | undefined> {
+  return db<OutboxRow>('outbox').where({ id }).first()
+}
+
+interface ListedRow extends OutboxRow {
+  first_name: string | null
+  last_name: string | null
+  email: string | null
+  start_utc: Date | null
+}
+
+export interface OutboxFilter {
+  siteIds: number[] | 'all'
+  siteId?: number
+  appointmentId?: number
+  state?: OutboxState
+  limit: number
+}
+
+function listQuery(db: Db) {
+  return db('outbox')
+    .leftJoin('appointments', 'appointments.id', 'outbox.appointment_id')
+    .leftJoin('patients', 'patients.id', 'appointments.patient_id')
+    .select('outbox.*', 'patients.first_name', 'patients.last_name', 'patients.email', 'appointments.start_utc')
+}
+
+export function toOutboxDto(row: ListedRow): OutboxMessageDto {
+  return {
+    id: row.id, kind: row.kind, state: row.state, appointmentId: row.appointment_id, siteId: row.site_id,
+    patientName: row.first_name === null ? null : `${row.first_name} ${row.last_name}`, recipient: row.email,
+    visitStartUtc: row.start_utc ? row.start_utc.toISOString() : null, dueAt: row.due_at.toISOString(),
+    sentAt: row.sent_at ? row.sent_at.toISOString() : null, attempts: row.attempts, lastError: row.last_error, messageId: row.message_id,
+  }
+}
+
+export async function listOutbox(db: Db, filter: OutboxFilter): Promise<OutboxMessageDto[]> {
+  const query = listQuery(db).orderBy('outbox.id', 'desc').limit(filter.limit)
+  if (filter.siteIds !== 'all') query.whereIn('outbox.site_id', filter.siteIds)
+  if (filter.siteId !== undefined) query.where('outbox.site_id', filter.siteId)
+  if (filter.appointmentId !== undefined) query.where('outbox.appointment_id', filter.appointmentId)
+  if (filter.state !== undefined) query.where('outbox.state', filter.state)
+  return ((await query) as ListedRow[]).map(toOutboxDto)
+}
+
+export async function findOutboxListed(db: Db, id: number): Promise<{ dto: OutboxMessageDto; row: OutboxRow } | undefined> {
+  const row = (await listQuery(db).where('outbox.id', id).first()) as ListedRow | undefined
+  return row ? { dto: toOutboxDto(row), row } : undefined
+}
+
+export function renderedOf(row: OutboxRow): RenderedMessage | null {
+  return row.rendered ? parseJson<RenderedMessage | null>(row.rendered, null) : null
 }

@@ -16,6 +16,7 @@ import { findAppointment, findAppointmentRow, insertAppointment, replaceSegments
 import { lockForBooking } from '../repositories/booking-locks'
 import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
 import { enqueueMessage, type OutboxKind } from '../repositories/outbox'
+import { dropQueuedReminders, queueReminders } from './mail/reminders'
 import { findPatient } from '../repositories/patients'
 import { writeAudit } from '../repositories/audit-log'
 import { findTemplateById } from '../repositories/templates'
@@ -36,10 +37,13 @@ function startOf(startUtc: string): number {
 }
 
 async function queueMessage(db: Db, kind: OutboxKind, appointmentId: number, siteId: number, patientId: number): Promise<void> {
+  // Reminders not yet sent belong to the old time (or to a cancelled visit): planned again below.
+  if (kind !== 'invitation') await dropQueuedReminders(db, appointmentId)
   const patient = await findPatient(db, patientId)
   // No consent, no e-mail (the dispatcher checks again at send time).
   if (!patient?.email || !patient.emailConsent) return
   await enqueueMessage(db, { kind, appointmentId, siteId, dueAt: new Date(), payload: { appointmentId } })
+  if (kind !== 'cancellation') await queueReminders(db, appointmentId)
 }
 
 async function loaded(db: Db, id: number): Promise<AppointmentDto> {

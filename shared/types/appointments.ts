@@ -22,6 +22,8 @@ export interface AppointmentDto {
   state: VisitState
   note: string
   cancelReason: string | null
+  /** When the patient asked to cancel through the e-mail link (the front desk decides), or null. */
+  cancelRequestedAt: string | null
   rowVersion: number
   icalUid: string
   icalSequence: number

@@ -1,0 +1,94 @@
+// Everything one patient e-mail needs about its visit, read in one go.
+import type { Db } from '../utils/db'
+import type { CancelRequestDto } from '#shared/types/outbox'
+import type { VisitPlan } from '#shared/types/chair-time'
+import type { VisitState } from '#shared/domain/visit-states'
+import { parseJson } from './json'
+
+export interface MailVisit {
+  id: number
+  state: VisitState
+  startUtc: Date
+  endUtc: Date
+  icalUid: string
+  icalSequence: number
+  plan: VisitPlan
+  cancelRequestedAt: Date | null
+  rowVersion: number
+}
+
+export interface MailSite {
+  id: number
+  name: string
+  address: string
+  phone: string
+  email: string
+  timeZone: string
+  settings: Record<string, unknown>
+}
+
+export interface MailPatient {
+  id: number
+  firstName: string
+  lastName: string
+  email: string | null
+  emailConsent: boolean
+}
+
+export interface MailContext {
+  visit: MailVisit
+  site: MailSite
+  patient: MailPatient
+}
+
+export async function loadMailContext(db: Db, appointmentId: number): Promise<MailContext | undefined> {
+  const row = await db('appointments')
+    .join('sites', 'sites.id', 'appointments.site_id')
+    .join('patients', 'patients.id', 'appointments.patient_id')
+    .where('appointments.id', appointmentId)
+    .first(
+      'appointments.id', 'appointments.state', 'appointments.start_utc', 'appointments.end_utc', 'appointments.ical_uid',
+      'appointments.ical_sequence', 'appointments.plan', 'appointments.cancel_requested_at', 'appointments.row_version',
+      'sites.id as site_id', 'sites.name as site_name', 'sites.address as site_address', 'sites.phone as site_phone',
+      'sites.email as site_email', 'sites.time_zone as site_time_zone', 'sites.settings as site_settings',
+      'patients.id as patient_id', 'patients.first_name', 'patients.last_name', 'patients.email as patient_email', 'patients.email_consent',
+    )
+  if (!row) return undefined
+  return {
+    visit: {
+      id: row.id, state: row.state, startUtc: row.start_utc, endUtc: row.end_utc, icalUid: row.ical_uid, icalSequence: row.ical_sequence,
+      plan: parseJson<VisitPlan>(row.plan, {} as VisitPlan), cancelRequestedAt: row.cancel_requested_at, rowVersion: row.row_version,
+    },
+    site: {
+      id: row.site_id, name: row.site_name, address: row.site_address, phone: row.site_phone, email: row.site_email,
+      timeZone: row.site_time_zone, settings: parseJson<Record<string, unknown>>(row.site_settings, {}),
+    },
+    patient: { id: row.patient_id, firstName: row.first_name, lastName: row.last_name, email: row.patient_email, emailConsent: Boolean(row.email_consent) },
+  }
+}
+
+/** The patient confirmed through the signed link. */
+export async function confirmVisit(db: Db, id: number, rowVersion: number): Promise<boolean> {
+  const changed = await db('appointments').where({ id, row_version: rowVersion, state: 'booked' })
+    .update({ state: 'confirmed', confirmed_at: new Date(), row_version: rowVersion + 1, updated_at: db.fn.now(3) })
+  return changed === 1
+}
+
+/** The patient asked to cancel; the front desk decides (or the site cancels at once, see the service). */
+export async function recordCancelRequest(db: Db, id: number): Promise<void> {
+  await db('appointments').where({ id }).whereNull('cancel_requested_at').update({ cancel_requested_at: new Date(), updated_at: db.fn.now(3) })
+}
+
+/** Upcoming live visits whose patient asked to cancel, soonest first. */
+export async function listCancelRequests(db: Db, filter: { siteIds: number[] | 'all'; siteId?: number; nowMs: number }): Promise<CancelRequestDto[]> {
+  const query = db('appointments').join('patients', 'patients.id', 'appointments.patient_id')
+    .whereNotNull('appointments.cancel_requested_at').whereIn('appointments.state', ['booked', 'confirmed'])
+    .where('appointments.end_utc', '>', new Date(filter.nowMs)).orderBy('appointments.start_utc').limit(200)
+    .select('appointments.id', 'appointments.site_id', 'appointments.start_utc', 'appointments.state', 'appointments.cancel_requested_at', 'appointments.row_version', 'patients.first_name', 'patients.last_name')
+  if (filter.siteIds !== 'all') query.whereIn('appointments.site_id', filter.siteIds)
+  if (filter.siteId !== undefined) query.where('appointments.site_id', filter.siteId)
+  return (await query).map((row) => ({
+    appointmentId: row.id, siteId: row.site_id, patientName: `${row.first_name} ${row.last_name}`, startUtc: row.start_utc.toISOString(),
+    state: row.state, requestedAt: row.cancel_requested_at.toISOString(), rowVersion: row.row_version,
+  }))
+}

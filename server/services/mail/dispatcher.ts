@@ -1,0 +1,101 @@
+// One round of the outbox dispatcher: claim due rows (FOR UPDATE SKIP LOCKED, leased), check each
+// again (consent, visit state, a reminder still for this start), send over SMTP, record the result.
+// Failures wait with exponential backoff and jitter; after maxAttempts a row is 'failed'.
+import type { Knex } from 'knex'
+import type { Transporter } from 'nodemailer'
+import { retryDelaySeconds, givesUp, type RetryPolicy } from '#shared/domain/outbox-retry'
+import { holdsTime } from '#shared/domain/visit-states'
+import { claimDueMessages, markFailed, markRetry, markSent, markSkipped, payloadOf, type OutboxRow } from '../../repositories/outbox'
+import { loadMailContext, type MailContext } from '../../repositories/mail-context'
+import { composeMessage, type ComposedMessage } from './compose'
+import { patientLinks, visitToken } from './links'
+
+export interface DispatchSettings {
+  batchSize: number
+  leaseSeconds: number
+  lane: string
+  retry: RetryPolicy
+  from: string
+  publicUrl: string
+  linkSecret: string
+}
+
+export interface DispatchRound {
+  claimed: number
+  sent: number
+  skipped: number
+  retried: number
+  failed: number
+}
+
+/** Why a claimed message is not sent any more, or null to send it. */
+export function reasonToSkip(row: OutboxRow, context: MailContext | undefined, nowMs: number): string | null {
+  if (!context) return 'the visit no longer exists'
+  if (!context.patient.email) return 'the patient has no e-mail address'
+  if (!context.patient.emailConsent) return 'the patient has not agreed to e-mail'
+  const live = holdsTime(context.visit.state) && context.visit.state !== 'finished'
+  if (row.kind === 'cancellation') return context.visit.state === 'cancelled' ? null : 'the visit is no longer cancelled'
+  if (!live) return `the visit is ${context.visit.state}`
+  if (row.kind === 'reminder') {
+    const payload = payloadOf(row)
+    if (payload.startUtc && new Date(payload.startUtc).getTime() !== context.visit.startUtc.getTime()) return 'the visit moved; a new reminder was planned'
+    if (context.visit.startUtc.getTime() <= nowMs) return 'the visit has started'
+  }
+  return null
+}
+
+export function renderFor(row: OutboxRow, context: MailContext, settings: Pick<DispatchSettings, 'from' | 'publicUrl' | 'linkSecret'>) {
+  const links = patientLinks(settings.publicUrl, visitToken(settings.linkSecret, context), context.visit.id)
+  return composeMessage(row.kind, context, links, settings.from, row.id)
+}
+
+function describe(error: unknown): string {
+  if (error instanceof Error) {
+    const code = (error as { code?: unknown }).code
+    return code ? `${String(code)}: ${error.message}` : error.message
+  }
+  return String(error)
+}
+
+async function retryOrGiveUp(db: Knex, row: OutboxRow, error: unknown, settings: DispatchSettings, round: DispatchRound): Promise<void> {
+  const message = describe(error)
+  if (givesUp(row.attempts, settings.retry)) {
+    await markFailed(db, row, message)
+    round.failed += 1
+  } else {
+    const waitMs = retryDelaySeconds(row.attempts, settings.retry, Math.random()) * 1000
+    await markRetry(db, row, message, new Date(Date.now() + waitMs))
+    round.retried += 1
+  }
+}
+
+async function sendOne(db: Knex, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
+  let sent: { messageId: string; rendered: ComposedMessage['rendered'] }
+  try {
+    const context = row.appointment_id === null ? undefined : await loadMailContext(db, row.appointment_id)
+    const skip = reasonToSkip(row, context, Date.now())
+    if (skip) {
+      await markSkipped(db, row, skip)
+      round.skipped += 1
+      return
+    }
+    const composed = renderFor(row, context!, settings)
+    const info = await transporter.sendMail(composed.mail)
+    sent = { messageId: String(info.messageId ?? ''), rendered: composed.rendered }
+  } catch (error) {
+    await retryOrGiveUp(db, row, error, settings, round)
+    return
+  }
+  // Sent: never scheduled again from here. If this update fails, the row stays 'sending' and is
+  // claimed again only after its lease (the one window where a message can go out twice).
+  if (await markSent(db, row, sent.messageId, sent.rendered)) round.sent += 1
+  else console.warn(`outbox: row ${row.id} was sent but its lease had passed to another process`)
+}
+
+export async function dispatchOnce(db: Knex, transporter: Transporter, settings: DispatchSettings): Promise<DispatchRound> {
+  const rows = await claimDueMessages(db, { limit: settings.batchSize, leaseSeconds: settings.leaseSeconds, lane: settings.lane })
+  const round: DispatchRound = { claimed: rows.length, sent: 0, skipped: 0, retried: 0, failed: 0 }
+  // One at a time over the pooled connection; a round ends well inside the lease.
+  for (const row of rows) await sendOne(db, transporter, row, settings, round)
+  return round
+}

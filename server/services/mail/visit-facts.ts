@@ -1,0 +1,52 @@
+// The plain facts a patient message states about a visit, in the site's zone (luxon at the edge).
+import { DateTime } from 'luxon'
+import type { MailContext } from '../../repositories/mail-context'
+import { mailSettingsOf, type MailSettings } from './mail-settings'
+
+export interface VisitFacts {
+  settings: MailSettings
+  /** "Monday, 11 January 2027 at 9:00 AM" */
+  whenLocal: string
+  /** "Mon 11 Jan, 9:00 AM" for subjects */
+  shortWhen: string
+  /** "Pacific Standard Time" */
+  zoneName: string
+  /** Minutes the patient should plan for: the visit without the room's turnover afterwards. */
+  minutes: number
+  /** "about 1 hour 10 minutes" */
+  howLong: string
+  /** "Dental visit", or the procedure names when the site allows it. */
+  what: string
+}
+
+export function durationWords(minutes: number): string {
+  const hours = Math.floor(minutes / 60)
+  const rest = minutes % 60
+  const parts = [hours ? `${hours} hour${hours === 1 ? '' : 's'}` : '', rest ? `${rest} minute${rest === 1 ? '' : 's'}` : ''].filter(Boolean)
+  return `about ${parts.join(' ') || '0 minutes'}`
+}
+
+/** The patient's own minutes: from the start until the last segment that is not room turnover. */
+export function patientMinutes(context: MailContext): number {
+  const chairMinutes = Math.round((context.visit.endUtc.getTime() - context.visit.startUtc.getTime()) / 60_000)
+  const segments = context.visit.plan.segments ?? []
+  let end = chairMinutes
+  for (let index = segments.length - 1; index >= 0 && segments[index]!.kind === 'reset'; index -= 1) end = segments[index]!.startMinute
+  return end > 0 ? end : chairMinutes
+}
+
+export function visitFacts(context: MailContext): VisitFacts {
+  const settings = mailSettingsOf(context.site.settings)
+  const start = DateTime.fromJSDate(context.visit.startUtc, { zone: context.site.timeZone }).setLocale('en-US')
+  const minutes = patientMinutes(context)
+  const names = [...new Set((context.visit.plan.items ?? []).map((item) => item.templateName).filter(Boolean))]
+  return {
+    settings,
+    whenLocal: start.toFormat("cccc, d LLLL yyyy 'at' h:mm a"),
+    shortWhen: start.toFormat('ccc d LLL, h:mm a'),
+    zoneName: start.toFormat('ZZZZZ'),
+    minutes,
+    howLong: durationWords(minutes),
+    what: settings.includeProcedureNames && names.length ? `Dental visit: ${names.join(', ')}` : 'Dental visit',
+  }
+}

@@ -1,0 +1,72 @@
+// Patient e-mails as the Outbox screen and the public visit page see them.
+import type { VisitState } from '../domain/visit-states'
+
+export const OUTBOX_KINDS = ['invitation', 'update', 'cancellation', 'reminder'] as const
+export type OutboxKind = (typeof OUTBOX_KINDS)[number]
+export const OUTBOX_STATES = ['queued', 'sending', 'sent', 'failed', 'skipped'] as const
+export type OutboxState = (typeof OUTBOX_STATES)[number]
+
+export interface OutboxMessageDto {
+  id: number
+  kind: OutboxKind
+  state: OutboxState
+  appointmentId: number | null
+  siteId: number | null
+  patientName: string | null
+  recipient: string | null
+  visitStartUtc: string | null
+  dueAt: string
+  sentAt: string | null
+  attempts: number
+  lastError: string | null
+  messageId: string | null
+}
+
+/** The message as sent (or, while queued, as it would be sent now). */
+export interface RenderedMessage {
+  to: string
+  subject: string
+  text: string
+  html: string
+  /** The iCalendar part (RFC 5545), METHOD REQUEST or CANCEL. */
+  ics: string
+  method: 'REQUEST' | 'CANCEL'
+}
+
+export interface OutboxDetailDto extends OutboxMessageDto {
+  rendered: RenderedMessage | null
+  /** True when `rendered` is a preview of an unsent message, built from the visit as it is now. */
+  preview: boolean
+}
+
+export type PatientCancelPolicy = 'request' | 'cancel'
+
+/** What a patient sees behind the signed link: no sign-in, only this one visit. */
+export interface PublicVisitDto {
+  siteName: string
+  siteAddress: string
+  sitePhone: string
+  timeZone: string
+  zoneName: string
+  startUtc: string
+  endUtc: string
+  whenLocal: string
+  minutes: number
+  state: VisitState
+  cancelRequested: boolean
+  cancelPolicy: PatientCancelPolicy
+  canConfirm: boolean
+  canCancel: boolean
+  icsUrl: string
+}
+
+/** A patient's request to cancel, waiting for the front desk. */
+export interface CancelRequestDto {
+  appointmentId: number
+  siteId: number
+  patientName: string
+  startUtc: string
+  state: VisitState
+  requestedAt: string
+  rowVersion: number
+}
