@@ -30,7 +30,7 @@ if (Number(existing?.count ?? 0) > 0) {
   process.exit(0)
 }
 const sites = await db('sites').whereIn('slug', ['quarry-street', 'aspen-gulch', 'saguaro-flats']).select('id', 'time_zone', 'name')
-const roomCounts = new Map((await db('operatories').whereIn('site_id', sites.map((site) => site.id)).groupBy('site_id').select('site_id').count({ count: '*' })).map((row) => [row.site_id as number, Number(row.count)]))
+const roomCounts = new Map((await db('operatories').whereIn('site_id', sites.map((site) => site.id)).groupBy('site_id').select('site_id').count({ count: '*' })).map((row) => [Number((row as { site_id: number }).site_id), Number(row.count)]))
 const patientIds: number[] = await db('patients').orderBy('id').pluck('id')
 await db.destroy()
 

@@ -14,5 +14,7 @@ mariadb --no-defaults --protocol=socket --socket="$DB_SOCKET" -uroot \
 bash scripts/with-env.sh tsx scripts/db-migrate.ts latest
 bash scripts/with-env.sh tsx scripts/db-seed.ts
 bash scripts/build-if-stale.sh
+log "type-checking (nuxt typecheck)"
+node_modules/.bin/nuxt typecheck
 mkdir -p tests/artifacts
 exec bash scripts/with-env.sh vitest run "$@"

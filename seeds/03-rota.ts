@@ -25,7 +25,8 @@ export async function seedRota(ctx: SeedContext): Promise<void> {
     valid_from: VALID_FROM, valid_until: null, local_start: shift.start, local_end: shift.end,
   })))
 
-  const blocks = Object.entries(ctx.sites).flatMap(([slug, siteId]) => [
+  type BlockRow = { site_id: number; operatory_id: number | null; provider_id: number | null; start_date: string; local_start: string; local_end: string; rrule: string | null; until_date: string | null; reason: string }
+  const blocks: BlockRow[] = Object.entries(ctx.sites).flatMap(([slug, siteId]): BlockRow[] => [
     { site_id: siteId, operatory_id: null, provider_id: null, start_date: VALID_FROM, local_start: '12:00', local_end: '12:45', rrule: 'FREQ=WEEKLY;BYDAY=MO,TU,WE,TH,FR', until_date: null, reason: 'Lunch' },
     ...(slug === 'quarry-street'
       ? [{ site_id: siteId, operatory_id: null, provider_id: null, start_date: VALID_FROM, local_start: '07:30', local_end: '08:00', rrule: 'FREQ=MONTHLY;BYDAY=1TU', until_date: null, reason: 'Staff meeting' }]

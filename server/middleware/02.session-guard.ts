@@ -29,6 +29,7 @@ export default defineEventHandler(async (event) => {
 
   event.context.currentUser = toSessionUser(row, found.siteIds)
   if (now - session.lastSeenAt > Math.min(REFRESH_EVERY_MS, idleMs / 2)) {
-    await setUserSession(event, { lastSeenAt: now })
+    const { id: _sessionId, ...data } = session
+    await setUserSession(event, { ...data, lastSeenAt: now })
   }
 })

@@ -55,8 +55,8 @@ function toRow(template: ChairTimeTemplate) {
 }
 
 export async function listCurrentTemplates(db: Db, options: { includeInactive?: boolean } = {}): Promise<StoredTemplate[]> {
-  const query = db<TemplateRow>('procedure_templates').where({ is_current: true }).orderBy(['category', 'name'])
-  if (!options.includeInactive) query.where({ active: true })
+  const query = db<TemplateRow>('procedure_templates').where('is_current', true).orderBy(['category', 'name'])
+  if (!options.includeInactive) query.where('active', true)
   return (await query).map(toTemplate)
 }
 
@@ -66,7 +66,7 @@ export async function findTemplateById(db: Db, id: number): Promise<StoredTempla
 }
 
 export async function findCurrentTemplateByCode(db: Db, code: string): Promise<StoredTemplate | undefined> {
-  const row = await db<TemplateRow>('procedure_templates').where({ code, is_current: true }).first()
+  const row = await db<TemplateRow>('procedure_templates').where('code', code).where('is_current', true).first()
   return row ? toTemplate(row) : undefined
 }
 

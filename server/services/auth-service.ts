@@ -37,7 +37,7 @@ async function refuseWhenLimited(event: H3Event, email: string, ip: string): Pro
     : byIp.count >= Number(auth.ipFailureLimit) ? byIp : null
   if (!limited) return
   const error = tooManyAttempts(limited, windowMs)
-  setResponseHeader(event, 'Retry-After', String((error.data as { retryAfterSeconds: number }).retryAfterSeconds))
+  setResponseHeader(event, 'Retry-After', (error.data as { retryAfterSeconds: number }).retryAfterSeconds)
   throw error
 }
 

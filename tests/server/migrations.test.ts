@@ -83,7 +83,7 @@ describe('demo seed', () => {
       { email: 'manager@fernhollow.test', role: 'manager' },
     ])
     const providers = await db('providers').groupBy('kind').orderBy('kind').select('kind').count({ count: '*' })
-    expect(providers.map((row) => [row.kind, Number(row.count)])).toEqual([['dentist', 4], ['hygienist', 3]])
+    expect(providers.map((row) => [(row as { kind: string }).kind, Number(row.count)])).toEqual([['dentist', 4], ['hygienist', 3]])
     const patients = await db('patients').count({ count: '*' }).first()
     expect(Number(patients!.count)).toBe(300)
     const foreignEmails = await db('patients').whereNotNull('email').whereNot('email', 'like', '%@fernhollow.test')
