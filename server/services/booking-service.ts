@@ -7,8 +7,9 @@ import type { AppointmentDto } from '#shared/types/appointments'
 import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
 import type { BookAppointmentInput, MoveAppointmentInput } from '#shared/schemas/appointments'
 import { canMoveToState, holdsTime, type VisitState } from '#shared/domain/visit-states'
+import { withChairMinutes } from '#shared/domain/length-override'
 import { useDb, type Db } from '../utils/db'
-import { badRequest, conflict, notFound } from '../utils/errors'
+import { badRequest, conflict, notFound, rethrowDomainError } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { isDuplicateKey, withTransactionRetry } from '../utils/db-retry'
 import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
@@ -130,7 +131,16 @@ export async function moveAppointment(id: number, input: MoveAppointmentInput, u
   if (row.row_version !== input.rowVersion) throw staleVersion()
   if (!holdsTime(row.state) || row.state === 'finished') throw conflict(`A ${row.state} visit cannot be moved.`, { field: 'state' })
   const calendar = await siteCalendar(db, row.site_id)
-  const { plan, templates } = await planForMove(db, row, input, calendar)
+  const planned = await planForMove(db, row, input, calendar)
+  const { templates } = planned
+  let plan = planned.plan
+  if (input.lengthOverride) {
+    try {
+      plan = withChairMinutes(plan, input.lengthOverride.chairMinutes, input.lengthOverride.reason)
+    } catch (error) {
+      rethrowDomainError(error)
+    }
+  }
   const startMs = input.startUtc ? startOf(input.startUtc) : row.start_utc.getTime()
   if (input.startUtc) assertStartAllowed(startMs, calendar)
   const operatoryId = input.operatoryId ?? row.operatory_id

@@ -24,6 +24,11 @@ export const MoveAppointmentSchema = z.object({
   providerId: id('provider').optional(),
   items: planItems.optional(),
   note: z.string().max(1000, 'is too long').optional(),
+  /** The length set by hand; the plan decides it otherwise. */
+  lengthOverride: z.object({
+    chairMinutes: z.number({ error: 'must be a number of minutes' }).int('must be whole minutes').min(5, 'must be at least 5').max(480, 'must be at most 480'),
+    reason: z.string({ error: 'is required' }).trim().min(3, 'say why the length changes').max(200, 'is too long'),
+  }).optional(),
 })
 export type MoveAppointmentInput = z.infer<typeof MoveAppointmentSchema>
 

@@ -169,6 +169,8 @@ export interface VisitPlan {
   anaesthesia: PlannedAnaesthesia[]
   explanation: string
   items: PlanItemSummary[]
+  /** Set when the front desk changed the length by hand (with the reason they gave). */
+  lengthOverride?: { chairMinutes: number; reason: string }
 }
 
 export interface TemplateIssue {

@@ -73,6 +73,19 @@ describe('Chairboard', () => {
     expect(await block.locator('[data-kind="numbing"]').count()).toBeGreaterThan(0)
     expect(await block.textContent()).toContain('19 MO')
     await screenshot(page, 'chairboard-booked-from-slot')
+
+    // The length comes from the plan; changing it takes a reason.
+    const visit = await testDb()('appointments').where({ patient_id: patient.id }).orderBy('id', 'desc').first()
+    const minutes = (visit.end_utc.getTime() - visit.start_utc.getTime()) / 60_000
+    const panel = page.getByTestId('visit-panel')
+    await panel.getByLabel('Minutes').fill(String(minutes + 15))
+    expect(await panel.getByRole('button', { name: 'Change length' }).isDisabled()).toBe(true)
+    await panel.getByLabel('Reason', { exact: true }).fill('Patient needs extra time')
+    await panel.getByRole('button', { name: 'Change length' }).click()
+    await expect.poll(async () => {
+      const after = await testDb()('appointments').where({ id: visit.id }).first()
+      return (after.end_utc.getTime() - after.start_utc.getTime()) / 60_000
+    }).toBe(minutes + 15)
   })
 
   it('refuses a drag onto a busy chair and puts the visit back; a drag to a free chair sticks after reload', async () => {

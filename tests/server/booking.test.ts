@@ -133,6 +133,23 @@ describe('moving, states and cancelling', () => {
     expect(unchanged.body).toMatchObject({ operatoryId: quarry.chair1, rowVersion: 2 })
   })
 
+  it('changes a visit\'s length by hand only with a reason, and never below the work itself', async () => {
+    const visit = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-11T08:00', QUARRY_ZONE), patientId: quarry.patients[11] }))
+    expect(visit.status).toBe(201)
+    const minutes = (Date.parse(visit.body.endUtc) - Date.parse(visit.body.startUtc)) / 60_000
+    const noReason = await manager.patch(`/api/appointments/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: minutes + 15, reason: '' } })
+    expect(noReason.status).toBe(400)
+    expect(noReason.body.data.field).toBe('lengthOverride.reason')
+    const tooShort = await manager.patch(`/api/appointments/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: 10, reason: 'in a hurry' } })
+    expect(tooShort.status).toBe(400)
+    expect(tooShort.body.data.field).toBe('lengthOverride.chairMinutes')
+    const longer = await manager.patch(`/api/appointments/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: minutes + 15, reason: 'anxious patient' } })
+    expect(longer.status).toBe(200)
+    expect((Date.parse(longer.body.endUtc) - Date.parse(longer.body.startUtc)) / 60_000).toBe(minutes + 15)
+    expect(longer.body.plan.lengthOverride).toEqual({ chairMinutes: minutes + 15, reason: 'anxious patient' })
+    expect(longer.body.segments.at(-1).endUtc).toBe(longer.body.endUtc)
+  })
+
   it('allows only the glossary\'s state transitions and frees the time on cancel', async () => {
     const startUtc = utcAt('2027-02-04T10:00', QUARRY_ZONE) // a Thursday
     const visit = await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[8] }))
