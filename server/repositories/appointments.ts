@@ -158,6 +158,7 @@ export interface VisitListFilter {
   siteIds: number[] | 'all'
   siteId?: number
   providerId?: number
+  patientId?: number
   fromMs: number
   toMs: number
   includeCancelled: boolean
@@ -180,6 +181,7 @@ export async function listVisits(db: Db, filter: VisitListFilter): Promise<{ row
     .select('appointments.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'users.name as provider_name')
   if (filter.siteId !== undefined) query.where('appointments.site_id', filter.siteId)
   if (filter.providerId !== undefined) query.where('appointments.provider_id', filter.providerId)
+  if (filter.patientId !== undefined) query.where('appointments.patient_id', filter.patientId)
   if (filter.siteIds !== 'all') query.whereIn('appointments.site_id', filter.siteIds)
   if (!filter.includeCancelled) query.whereNot('appointments.state', 'cancelled')
   const rows = (await query) as BoardRow[]

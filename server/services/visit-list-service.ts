@@ -9,6 +9,7 @@ import { groupSegments, listVisits, toAppointmentDto, type BoardRow } from '../r
 export interface VisitListRequest {
   siteId?: number
   providerId?: number
+  patientId?: number
   fromMs: number
   toMs: number
   includeCancelled: boolean

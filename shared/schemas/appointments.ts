@@ -77,10 +77,11 @@ export type OpeningsRequest = z.infer<typeof OpeningsRequestSchema>
 export const VisitListQuerySchema = z.object({
   siteId: z.coerce.number({ error: 'must be a site id' }).int().positive().optional(),
   providerId: z.coerce.number({ error: 'must be a provider id' }).int().positive().optional(),
+  patientId: z.coerce.number({ error: 'must be a patient id' }).int().positive().optional(),
   from: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }),
   to: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }),
   includeCancelled: z.enum(['true', 'false']).default('false'),
 })
-  .refine((query) => query.siteId !== undefined || query.providerId !== undefined, { message: 'give siteId or providerId', path: ['siteId'] })
+  .refine((query) => query.siteId !== undefined || query.providerId !== undefined || query.patientId !== undefined, { message: 'give siteId, providerId or patientId', path: ['siteId'] })
   .refine((query) => Date.parse(query.to) > Date.parse(query.from), { message: 'must be after from', path: ['to'] })
   .refine((query) => Date.parse(query.to) - Date.parse(query.from) <= 43 * 86_400_000, { message: 'at most 6 weeks at once', path: ['to'] })

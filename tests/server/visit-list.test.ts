@@ -30,6 +30,10 @@ describe('GET /api/appointments', () => {
     expect(visit).toMatchObject({ patientName: `${patient.first_name} ${patient.last_name}`, procedures: ['Posterior composite 19 MO'] })
     expect(visit.providerInitials).toMatch(/^[A-Z]{2,3}$/)
     expect(visit.segments.some((segment: { kind: string }) => segment.kind === 'numbing')).toBe(true)
+
+    // The Patients screen asks by patient.
+    const byPatient = await desk.get(`/api/appointments?patientId=${patient.id}&from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`)
+    expect(byPatient.body.map((entry: { id: number }) => entry.id)).toEqual([booked.body.id])
   })
 
   it('answers 400 naming the field and 403 for another site', async () => {
