@@ -1,18 +1,9 @@
 // Default chair-time templates: starting points the practice changes (sources in data/procedure-templates.ts).
+// Stored through the same repository the Templates screen uses.
 import { DEFAULT_TEMPLATES } from './data/procedure-templates'
+import { insertFirstVersion } from '../server/repositories/templates'
 import type { SeedContext } from './context'
 
 export async function seedTemplates(ctx: SeedContext): Promise<void> {
-  await ctx.db('procedure_templates').insert(DEFAULT_TEMPLATES.map((template) => ({
-    code: template.code,
-    version: 1,
-    name: template.name,
-    category: template.category,
-    capability: template.capability,
-    needs_tooth: template.needsTooth ?? null,
-    needs_surfaces: template.needsSurfaces ?? null,
-    region: template.region ?? null,
-    steps: JSON.stringify(template.steps),
-    anaesthesia: JSON.stringify(template.anaesthesia),
-  })))
+  for (const template of DEFAULT_TEMPLATES) await insertFirstVersion(ctx.db, template, null)
 }
