@@ -86,6 +86,10 @@ describe('Chairboard', () => {
       const after = await testDb()('appointments').where({ id: visit.id }).first()
       return (after.end_utc.getTime() - after.start_utc.getTime()) / 60_000
     }).toBe(minutes + 15)
+
+    await panel.getByRole('link', { name: 'Open patient' }).click()
+    await page.waitForURL(/\/patients\?patientId=/)
+    await expect.poll(() => page.getByTestId('patient-details').textContent()).toContain(patient.last_name)
   })
 
   it('refuses a drag onto a busy chair and puts the visit back; a drag to a free chair sticks after reload', async () => {
