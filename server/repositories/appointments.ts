@@ -101,6 +101,19 @@ export function toAppointmentDto(row: AppointmentRow, segments: SegmentRow[]): A
   }
 }
 
+/** The DTO of a visit just inserted, from what was written (saves reading it back). */
+export function newAppointmentDto(id: number, visit: NewAppointment, segments: NewSegment[]): AppointmentDto {
+  return {
+    id, siteId: visit.siteId, operatoryId: visit.operatoryId, providerId: visit.providerId, patientId: visit.patientId,
+    startUtc: new Date(visit.startMs).toISOString(), endUtc: new Date(visit.endMs).toISOString(), state: 'booked', note: visit.note,
+    cancelReason: null, cancelRequestedAt: null, rowVersion: 1, icalUid: visit.icalUid, icalSequence: 0, plan: visit.plan,
+    segments: segments.map((segment) => ({
+      kind: segment.kind, label: segment.label, operatoryId: segment.operatoryId, providerId: segment.providerId,
+      startUtc: new Date(segment.startMs).toISOString(), endUtc: new Date(segment.endMs).toISOString(),
+    })),
+  }
+}
+
 export async function findAppointment(db: Db, id: number): Promise<AppointmentDto | undefined> {
   const row = await findAppointmentRow(db, id)
   if (!row) return undefined

@@ -1,7 +1,7 @@
 // The checks every booking, move and re-plan passes inside its transaction, after the locks.
 import { DateTime } from 'luxon'
 import type { VisitPlan } from '#shared/types/chair-time'
-import type { BookingConflict } from '#shared/types/appointments'
+import type { BookingConflict, PatientDto } from '#shared/types/appointments'
 import type { EpochInterval } from '#shared/types/rota'
 import type { StoredTemplate } from '#shared/types/templates'
 import { expandAvailabilityMs } from '#shared/domain/rota'
@@ -82,13 +82,14 @@ async function assertPeopleAndRoom(db: Db, request: BookingRequest) {
   if (!provider || !provider.active) throw badRequest('providerId', 'is not an active provider')
   const unskilled = request.templates.find((template) => !provider.capabilities.includes(template.category))
   if (unskilled) throw badRequest('providerId', `${provider.name} does not do ${unskilled.category} procedures (${unskilled.name})`)
-  if (!await findPatient(db, request.patientId)) throw badRequest('patientId', 'no such patient')
-  return { room, provider }
+  const patient = await findPatient(db, request.patientId)
+  if (!patient) throw badRequest('patientId', 'no such patient')
+  return { room, provider, patient }
 }
 
 /** Throws 400/409 unless the visit fits: room and provider exist and fit, time is open and free. */
-export async function assertBookable(db: Db, request: BookingRequest): Promise<void> {
-  const { room, provider } = await assertPeopleAndRoom(db, request)
+export async function assertBookable(db: Db, request: BookingRequest): Promise<{ patient: PatientDto }> {
+  const { room, provider, patient } = await assertPeopleAndRoom(db, request)
   const { plan, startMs, calendar } = request
   const endMs = visitEnd(plan, startMs)
   const zone = calendar.site.timeZone
@@ -113,4 +114,5 @@ export async function assertBookable(db: Db, request: BookingRequest): Promise<v
   if (providerBusy) throw clashError('provider', provider.id, provider.name, providerBusy, zone, 'is already working with another patient')
   const patientBusy = await patientClash(db, request.patientId, startMs, endMs, request.exceptAppointmentId)
   if (patientBusy) throw clashError('patient', request.patientId, 'This patient', patientBusy, zone, 'already has a visit')
+  return { patient }
 }

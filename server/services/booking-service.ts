@@ -3,7 +3,7 @@
 // visit, its segments, an audit row and the patient's outbox e-mail, then commits.
 import { createHash, randomUUID } from 'node:crypto'
 import type { SessionUser } from '#shared/types/auth'
-import type { AppointmentDto } from '#shared/types/appointments'
+import type { AppointmentDto, PatientDto } from '#shared/types/appointments'
 import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
 import type { BookAppointmentInput, MoveAppointmentInput } from '#shared/schemas/appointments'
 import { canMoveToState, holdsTime, type VisitState } from '#shared/domain/visit-states'
@@ -13,7 +13,7 @@ import { badRequest, conflict, notFound, rethrowDomainError } from '../utils/err
 import { requireSiteAccess } from '../utils/auth'
 import { isDuplicateKey, withTransactionRetry } from '../utils/db-retry'
 import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
-import { findAppointment, findAppointmentRow, insertAppointment, replaceSegments, updateAppointmentIfVersion, type AppointmentRow } from '../repositories/appointments'
+import { findAppointment, findAppointmentRow, insertAppointment, newAppointmentDto, replaceSegments, updateAppointmentIfVersion, type AppointmentRow } from '../repositories/appointments'
 import { lockForBooking } from '../repositories/booking-locks'
 import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
 import { enqueueMessage, type OutboxKind } from '../repositories/outbox'
@@ -37,10 +37,10 @@ function startOf(startUtc: string): number {
   return new Date(startUtc).getTime()
 }
 
-async function queueMessage(db: Db, kind: OutboxKind, appointmentId: number, siteId: number, patientId: number): Promise<void> {
+async function queueMessage(db: Db, kind: OutboxKind, appointmentId: number, siteId: number, patientId: number, known?: PatientDto): Promise<void> {
   // Reminders not yet sent belong to the old time (or to a cancelled visit): planned again below.
   if (kind !== 'invitation') await dropQueuedReminders(db, appointmentId)
-  const patient = await findPatient(db, patientId)
+  const patient = known ?? await findPatient(db, patientId)
   // No consent, no e-mail (the dispatcher checks again at send time).
   if (!patient?.email || !patient.emailConsent) return
   await enqueueMessage(db, { kind, appointmentId, siteId, dueAt: new Date(), payload: { appointmentId } })
@@ -71,15 +71,17 @@ export async function bookAppointment(input: BookAppointmentInput, user: Session
       // Claimed first: a concurrent request with the same key waits here, then replays our answer.
       if (idempotencyKey) await claimKey(trx, user.id, idempotencyKey, requestHash)
       await lockForBooking(trx, [input.operatoryId], [input.providerId], input.patientId)
-      await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptAppointmentId: null })
-      const id = await insertAppointment(trx, {
+      const { patient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptAppointmentId: null })
+      const newVisit = {
         siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
         startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId: user.id,
-      })
-      await replaceSegments(trx, id, placeSegments(plan, startMs, input.operatoryId, input.providerId), { isNew: true })
+      }
+      const id = await insertAppointment(trx, newVisit)
+      const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
+      await replaceSegments(trx, id, segments, { isNew: true })
       await writeAudit(trx, { userId: user.id, action: 'visit_booked', entity: 'appointment', entityId: id, after: input })
-      await queueMessage(trx, 'invitation', id, input.siteId, input.patientId)
-      const visit = await loaded(trx, id)
+      await queueMessage(trx, 'invitation', id, input.siteId, input.patientId, patient)
+      const visit = newAppointmentDto(id, newVisit, segments)
       if (idempotencyKey) await storeAnswer(trx, user.id, idempotencyKey, 201, visit, id)
       return visit
     }, READ_COMMITTED))
