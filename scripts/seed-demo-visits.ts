@@ -36,7 +36,8 @@ await db.destroy()
 
 const faker = new Faker({ locale: [en] })
 faker.seed(20261202)
-const server = await startAppServer()
+// Its dispatcher stays off: the real server sends the invitations, with links to its own address.
+const server = await startAppServer({ NUXT_OUTBOX_DISPATCHER: 'false' })
 let booked = 0
 try {
   const login = await fetch(`${server.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@fernhollow.test', password: 'cuspline-demo' }) })
