@@ -73,6 +73,16 @@ export async function createShiftException(trx: Db, user: SessionUser, exception
   } else {
     for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
   }
+  if (exception.kind === 'extra' && exception.siteId !== null) {
+    // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
+    // day, which refuses rather than risks a clash.
+    await lockProvider(trx, exception.providerId)
+    await refuseCrossSiteClash(trx, {
+      providerId: exception.providerId, siteId: exception.siteId, rrule: 'FREQ=DAILY',
+      validFrom: exception.startDate, validUntil: exception.endDate,
+      localStart: exception.localStart ?? '00:00', localEnd: exception.localEnd ?? '24:00', note: '',
+    }, 0)
+  }
   const id = await insertShiftException(trx, exception)
   await writeAudit(trx, { userId: user.id, action: 'shift_exception_created', entity: 'shift_exception', entityId: id, after: exception })
   return (await findShiftException(trx, id))!

@@ -119,6 +119,17 @@ describe('shifts: one provider, one site at a time', () => {
     expect(response.body.data).toMatchObject({ date: '2026-03-09', otherSiteId: quarry })
   })
 
+  it('refuses an extra day at another site while the provider works elsewhere, and allows one on a free day', async () => {
+    const dentist = await providerIdByEmail('dentist@fernhollow.test')
+    // Monday 2026-03-09: the demo dentist is at Quarry Street 07:30–16:30 Los Angeles time.
+    const clash = await manager.post('/api/shift-exceptions', { providerId: dentist, kind: 'extra', siteId: aspen, startDate: '2026-03-09', endDate: '2026-03-09', localStart: '09:00', localEnd: '12:00' })
+    expect(clash.status).toBe(409)
+    expect(clash.body.data).toMatchObject({ date: '2026-03-09', otherSiteId: quarry })
+    // Saturday 2026-03-14: no shift anywhere.
+    const free = await manager.post('/api/shift-exceptions', { providerId: dentist, kind: 'extra', siteId: aspen, startDate: '2026-03-14', endDate: '2026-03-14', localStart: '09:00', localEnd: '12:00' })
+    expect(free.status).toBe(201)
+  })
+
   it('finds a clash on the first matching date of an every-other-week rule across zones', async () => {
     const provider = await createTestProvider(['aspen-gulch', 'saguaro-flats'])
     const saguaroShift = await manager.post('/api/shifts', shiftBody(provider.providerId, { siteId: saguaro, rrule: 'FREQ=MONTHLY;BYDAY=1MO', validFrom: '2026-01-01', validUntil: '2026-02-28', localStart: '09:00', localEnd: '13:00' }))
