@@ -42,5 +42,20 @@ export function useFormErrors() {
     banner.value = body?.message ?? 'Saving failed. Try again.'
   }
 
-  return { fields, banner, clear, check, fromResponse }
+  const busy = ref(false)
+
+  /** Runs a save or delete: busy while it runs, its 400/409 shown on the form. Undefined when refused. */
+  async function submit<T>(request: () => Promise<T>): Promise<T | undefined> {
+    busy.value = true
+    try {
+      return await request()
+    } catch (caught) {
+      fromResponse(caught)
+      return undefined
+    } finally {
+      busy.value = false
+    }
+  }
+
+  return { fields, banner, busy, clear, check, fromResponse, submit }
 }
