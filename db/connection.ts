@@ -28,9 +28,11 @@ export function createDb(settings: DbSettings): Knex {
     pool: {
       min: 0,
       max: settings.poolMax ?? 10,
-      // NOW() and friends must also be UTC, whatever the server's own zone is.
+      // NOW() and friends must also be UTC, whatever the server's own zone is. Transactions run at
+      // READ COMMITTED (bookings rely on it: no gap locks, each statement sees the latest commits);
+      // set once per connection, it saves each transaction the extra SET TRANSACTION round trip.
       afterCreate(connection: { query: (sql: string, cb: (err: Error | null) => void) => void }, done: (err: Error | null, conn: unknown) => void) {
-        connection.query("SET time_zone = '+00:00'", (err) => done(err, connection))
+        connection.query("SET time_zone = '+00:00', SESSION tx_isolation = 'READ-COMMITTED'", (err) => done(err, connection))
       },
     },
   })

@@ -1,16 +1,21 @@
 // Booking throughput over HTTP (16 concurrent clients, non-conflicting slots) against the raw
 // ceiling of the same database work done by a plain mysql2 loop with no app around it.
 // Uses its own database (cuspline_bench) and the built app. Figures only, no assertions.
+import { execFileSync } from 'node:child_process'
+import { readFileSync } from 'node:fs'
+import { Agent, request } from 'node:http'
 import { performance } from 'node:perf_hooks'
 import { DateTime } from 'luxon'
 import type { Knex } from 'knex'
+import mysql from 'mysql2/promise'
 import { createDb, dbSettingsFromEnv } from '../../db/connection'
 import { migratorConfig } from '../../db/migration-source'
 import { seedDemo } from '../../seeds/index'
 
 const DATABASE = 'cuspline_bench'
 const CLIENTS = 16
-const BOOKINGS_PER_CLIENT = 25
+const BOOKINGS_PER_CLIENT = 40
+const WARM_UP_PER_CLIENT = 5
 const ZONE = 'America/Chicago'
 const ALL_DAY = [{ start: '00:00', end: '24:00' }]
 
@@ -47,7 +52,8 @@ async function benchSite(db: Knex) {
     const [userId] = await db('users').insert({ email: `bench-${lane}@fernhollow.test`, name: `Bench ${lane}`, role: 'dentist', password_hash: 'x' })
     const [providerId] = await db('providers').insert({ user_id: userId, kind: 'dentist', capabilities: '["restorative"]' })
     await db('shifts').insert({ provider_id: providerId, site_id: siteId, rrule: 'FREQ=DAILY', valid_from: '2026-01-01', local_start: '00:00', local_end: '24:00' })
-    const [patientId] = await db('patients').insert({ first_name: 'Bench', last_name: `Lane ${lane}`, date_of_birth: '1980-01-01' })
+    // With an e-mail address and consent, so each booking also queues its invitation and reminders.
+    const [patientId] = await db('patients').insert({ first_name: 'Bench', last_name: `Lane ${lane}`, date_of_birth: '1980-01-01', email: `lane-${lane}@bench.test`, email_consent: true })
     lanes.push({ operatoryId: operatoryId as number, providerId: providerId as number, patientId: patientId as number })
   }
   return { siteId: siteId as number, lanes, adminId: admin.id as number }
@@ -57,21 +63,61 @@ function slot(lane: number, index: number): string {
   return DateTime.fromISO('2027-06-01T00:00', { zone: ZONE }).plus({ days: lane, hours: index * 2 }).toUTC().toISO()!
 }
 
-async function httpRun(baseURL: string, site: Awaited<ReturnType<typeof benchSite>>) {
+/** CPU seconds (user + system) a process has used so far, from /proc (Linux). */
+function cpuSeconds(pid: number): number {
+  const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
+  return (Number(fields[11]) + Number(fields[12])) / 100
+}
+
+function mariadbPid(): number {
+  return Number(execFileSync('pidof', ['mariadbd'], { encoding: 'utf8' }).trim().split(/\s+/)[0])
+}
+
+/** Runs `work` and says how many CPU milliseconds per booking each process spent on it. */
+async function withCpu<T extends object>(pids: Record<string, number>, bookings: number, work: () => Promise<T>) {
+  const before = Object.fromEntries(Object.entries(pids).map(([name, pid]) => [name, cpuSeconds(pid)]))
+  const result = await work()
+  const cpuMsPerBooking = Object.fromEntries(Object.entries(pids).map(([name, pid]) => [name, ((cpuSeconds(pid) - before[name]!) * 1000) / bookings]))
+  return { ...result, cpuMsPerBooking }
+}
+
+function cpuLine(cpu: Record<string, number>): string {
+  return Object.entries(cpu).map(([name, ms]) => `${name} ${ms.toFixed(2)}`).join(', ')
+}
+
+type BenchSite = Awaited<ReturnType<typeof benchSite>>
+
+async function signIn(baseURL: string): Promise<string> {
+  const login = await fetch(`${baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@fernhollow.test', password: 'cuspline-demo' }) })
+  return login.headers.getSetCookie()[0]!.split(';')[0]!
+}
+
+// node:http on kept-alive sockets: a lighter load generator than fetch, so more of the two cores
+// go to the app and the database (the ceiling's client, plain mysql2, is light too).
+const agent = new Agent({ keepAlive: true, maxSockets: CLIENTS })
+
+function post(url: string, cookie: string, body: string): Promise<number> {
+  return new Promise((done, fail) => {
+    const sent = request(url, { method: 'POST', agent, headers: { cookie, 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) } }, (response) => {
+      response.resume()
+      response.on('end', () => done(response.statusCode ?? 0))
+    })
+    sent.on('error', fail)
+    sent.end(body)
+  })
+}
+
+/** Each client books its own lane; slot numbers from `first` on, so warm-up and run never meet. */
+async function httpRun(baseURL: string, site: BenchSite, cookies: string[], first: number, count: number) {
   const latencies: number[] = []
   const started = performance.now()
   let failures = 0
   await Promise.all(site.lanes.map(async (lane, laneIndex) => {
-    const login = await fetch(`${baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@fernhollow.test', password: 'cuspline-demo' }) })
-    const cookie = login.headers.getSetCookie()[0]!.split(';')[0]!
-    for (let index = 0; index < BOOKINGS_PER_CLIENT; index += 1) {
+    for (let index = first; index < first + count; index += 1) {
       const begin = performance.now()
-      const response = await fetch(`${baseURL}/api/appointments`, {
-        method: 'POST', headers: { cookie, 'content-type': 'application/json' },
-        body: JSON.stringify({ siteId: site.siteId, ...lane, startUtc: slot(laneIndex, index), items: [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MO' }] }),
-      })
-      await response.arrayBuffer()
-      if (response.status !== 201) failures += 1
+      const status = await post(`${baseURL}/api/appointments`, cookies[laneIndex]!,
+        JSON.stringify({ siteId: site.siteId, ...lane, startUtc: slot(laneIndex, index), items: [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MO' }] }))
+      if (status !== 201) failures += 1
       latencies.push(performance.now() - begin)
     }
   }))
@@ -79,48 +125,74 @@ async function httpRun(baseURL: string, site: Awaited<ReturnType<typeof benchSit
   return { perSecond: latencies.length / seconds, p50: percentile(latencies, 0.5), p95: percentile(latencies, 0.95), failures }
 }
 
-/** The same locks, overlap checks and inserts in a plain loop: what the database alone can do. */
-async function rawCeiling(db: Knex, site: Awaited<ReturnType<typeof benchSite>>) {
+/**
+ * What the database alone can do: a plain mysql2 loop on one connection per client, each booking
+ * locking the room and provider by writing, checking both for overlaps, inserting the visit and its
+ * segments, and committing. No app, no pool, no query builder.
+ */
+async function rawCeiling(site: BenchSite, first: number, count: number) {
+  const settings = dbSettingsFromEnv()
+  const connections = await Promise.all(site.lanes.map(async () => {
+    const connection = await mysql.createConnection({ host: settings.host, port: settings.port, user: settings.user, password: settings.password, database: DATABASE, timezone: 'Z' })
+    await connection.query("SET time_zone = '+00:00'")
+    await connection.query('SET SESSION TRANSACTION ISOLATION LEVEL READ COMMITTED')
+    return connection
+  }))
   const latencies: number[] = []
   const started = performance.now()
   await Promise.all(site.lanes.map(async (lane, laneIndex) => {
-    for (let index = 0; index < BOOKINGS_PER_CLIENT; index += 1) {
+    const connection = connections[laneIndex]!
+    for (let index = first; index < first + count; index += 1) {
       const begin = performance.now()
       const start = new Date(DateTime.fromISO(slot(laneIndex, index)).plus({ days: 40 }).toMillis())
+      const handsOn = new Date(start.getTime() + 15 * 60_000)
       const end = new Date(start.getTime() + 65 * 60_000)
-      await db.transaction(async (trx) => {
-        await trx('operatories').where({ id: lane.operatoryId }).increment('booking_seq', 1)
-        await trx('providers').where({ id: lane.providerId }).increment('booking_seq', 1)
-        await trx('appointment_segments').where({ operatory_id: lane.operatoryId }).where('start_utc', '<', end).where('end_utc', '>', start).first('id')
-        await trx('appointment_segments').where({ provider_id: lane.providerId, kind: 'hands_on' }).where('start_utc', '<', end).where('end_utc', '>', start).first('id')
-        const [id] = await trx('appointments').insert({
-          site_id: site.siteId, operatory_id: lane.operatoryId, provider_id: lane.providerId, patient_id: lane.patientId,
-          start_utc: start, end_utc: end, plan: '{}', ical_uid: `raw-${laneIndex}-${index}@bench`,
-        })
-        await trx('appointment_segments').insert([
-          { appointment_id: id, kind: 'assist', label: 'a', operatory_id: lane.operatoryId, provider_id: lane.providerId, start_utc: start, end_utc: new Date(start.getTime() + 5 * 60_000) },
-          { appointment_id: id, kind: 'hands_on', label: 'b', operatory_id: lane.operatoryId, provider_id: lane.providerId, start_utc: new Date(start.getTime() + 5 * 60_000), end_utc: end },
-        ])
-      }, { isolationLevel: 'read committed' })
+      await connection.query('BEGIN')
+      await connection.query('UPDATE operatories SET booking_seq = booking_seq + 1 WHERE id = ?', [lane.operatoryId])
+      await connection.query('UPDATE providers SET booking_seq = booking_seq + 1 WHERE id = ?', [lane.providerId])
+      await connection.query('SELECT id FROM appointment_segments WHERE operatory_id = ? AND start_utc < ? AND end_utc > ? LIMIT 1', [lane.operatoryId, end, start])
+      await connection.query("SELECT id FROM appointment_segments WHERE provider_id = ? AND kind = 'hands_on' AND start_utc < ? AND end_utc > ? LIMIT 1", [lane.providerId, end, handsOn])
+      const [inserted] = await connection.query<mysql.ResultSetHeader>(
+        'INSERT INTO appointments (site_id, operatory_id, provider_id, patient_id, start_utc, end_utc, plan, ical_uid) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
+        [site.siteId, lane.operatoryId, lane.providerId, lane.patientId, start, end, '{}', `raw-${laneIndex}-${index}@bench`],
+      )
+      await connection.query(
+        'INSERT INTO appointment_segments (appointment_id, kind, label, operatory_id, provider_id, start_utc, end_utc) VALUES ?',
+        [[
+          [inserted.insertId, 'numbing', 'a', lane.operatoryId, lane.providerId, start, handsOn],
+          [inserted.insertId, 'hands_on', 'b', lane.operatoryId, lane.providerId, handsOn, end],
+        ]],
+      )
+      await connection.query('COMMIT')
       latencies.push(performance.now() - begin)
     }
   }))
   const seconds = (performance.now() - started) / 1000
+  await Promise.all(connections.map((connection) => connection.end()))
   return { perSecond: latencies.length / seconds, p50: percentile(latencies, 0.5), p95: percentile(latencies, 0.95) }
 }
 
 const db = await freshDatabase()
 const site = await benchSite(db)
 // BENCH_CPU_PROFILE=dir writes a V8 CPU profile of the app server there.
-const server = await startAppServer({ NUXT_DB_DATABASE: DATABASE }, process.env.BENCH_CPU_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROFILE}`] : [])
+// The mail dispatcher is off: sending is background work, not part of booking (the ceiling sends none).
+const server = await startAppServer({ NUXT_DB_DATABASE: DATABASE, NUXT_OUTBOX_DISPATCHER: 'false' }, process.env.BENCH_CPU_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROFILE}`] : [])
 try {
-  const ceiling = await rawCeiling(db, site)
-  const http = await httpRun(server.url, site)
+  const cookies = await Promise.all(site.lanes.map(() => signIn(server.url)))
+  // A few bookings first so both sides run warm (JIT, pools, buffer pool); these are not counted.
+  await rawCeiling(site, 0, WARM_UP_PER_CLIENT)
+  await httpRun(server.url, site, cookies, 0, WARM_UP_PER_CLIENT)
+  const total = CLIENTS * BOOKINGS_PER_CLIENT
+  const database = mariadbPid()
+  const ceiling = await withCpu({ client: process.pid, database }, total, () => rawCeiling(site, WARM_UP_PER_CLIENT, BOOKINGS_PER_CLIENT))
+  const http = await withCpu({ client: process.pid, app: server.pid, database }, total, () => httpRun(server.url, site, cookies, WARM_UP_PER_CLIENT, BOOKINGS_PER_CLIENT))
   const fmt = (value: number) => value.toFixed(1)
-  console.log(`booking throughput, ${CLIENTS} concurrent clients × ${BOOKINGS_PER_CLIENT} non-conflicting bookings`)
+  console.log(`booking throughput, ${CLIENTS} concurrent clients × ${BOOKINGS_PER_CLIENT} non-conflicting bookings (after ${WARM_UP_PER_CLIENT} warm-up each)`)
   console.log(`  raw mysql2 ceiling : ${fmt(ceiling.perSecond)} bookings/s  (p50 ${fmt(ceiling.p50)} ms, p95 ${fmt(ceiling.p95)} ms)`)
   console.log(`  HTTP through the app: ${fmt(http.perSecond)} bookings/s  (p50 ${fmt(http.p50)} ms, p95 ${fmt(http.p95)} ms, ${http.failures} not 201)`)
   console.log(`  app / ceiling       : ${fmt((http.perSecond / ceiling.perSecond) * 100)} %`)
+  console.log(`  CPU ms per booking, ceiling: ${cpuLine(ceiling.cpuMsPerBooking)}`)
+  console.log(`  CPU ms per booking, HTTP   : ${cpuLine(http.cpuMsPerBooking)}`)
 } finally {
   await server.stop()
   await db.destroy()

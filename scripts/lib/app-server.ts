@@ -5,6 +5,7 @@ import { resolve } from 'node:path'
 
 export interface RunningServer {
   url: string
+  pid: number
   stop: () => Promise<void>
 }
 
@@ -49,6 +50,7 @@ export async function startAppServer(extraEnv: Record<string, string> = {}, node
   await waitUntilAnswering(url, child, () => log)
   return {
     url,
+    pid: child.pid!,
     stop: () => new Promise((done) => {
       if (child.exitCode !== null) return done()
       child.once('exit', () => done())

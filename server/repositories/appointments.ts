@@ -127,39 +127,62 @@ export interface SegmentClash {
   endUtc: Date
 }
 
-/** Any live segment of another visit in this chair overlapping [start, end). */
-export async function operatoryClash(db: Db, operatoryId: number, startMs: number, endMs: number, exceptAppointmentId: number | null): Promise<SegmentClash | undefined> {
-  // The whole visit's times, not the one segment, so the message names the visit in the way.
-  const query = db('appointment_segments').join('appointments', 'appointments.id', 'appointment_segments.appointment_id')
-    .where('appointment_segments.operatory_id', operatoryId)
-    .where('appointment_segments.start_utc', '<', new Date(endMs)).where('appointment_segments.end_utc', '>', new Date(startMs))
-    .orderBy('appointment_segments.start_utc')
-    .first({ appointmentId: 'appointment_segments.appointment_id', startUtc: 'appointments.start_utc', endUtc: 'appointments.end_utc' })
-  if (exceptAppointmentId !== null) query.whereNot('appointment_segments.appointment_id', exceptAppointmentId)
-  return query
+export interface ClashQuery {
+  operatoryId: number
+  startMs: number
+  endMs: number
+  providerId: number
+  /** The new visit's hands_on intervals: the provider may not be hands_on elsewhere then. */
+  handsOn: Array<{ startMs: number; endMs: number }>
+  patientId: number
+  /** The visit being moved, so it does not collide with itself. */
+  exceptAppointmentId: number | null
 }
 
-/** The provider's hands_on time elsewhere overlapping any of these hands_on intervals. */
-export async function providerClash(db: Db, providerId: number, intervals: Array<{ startMs: number; endMs: number }>, exceptAppointmentId: number | null): Promise<SegmentClash | undefined> {
-  if (!intervals.length) return undefined
-  const query = db('appointment_segments').where({ provider_id: providerId, kind: 'hands_on' })
-    .where((overlaps) => {
-      for (const interval of intervals) {
-        overlaps.orWhere((one) => one.where('start_utc', '<', new Date(interval.endMs)).where('end_utc', '>', new Date(interval.startMs)))
-      }
-    })
-    .orderBy('start_utc').first({ appointmentId: 'appointment_id', startUtc: 'start_utc', endUtc: 'end_utc' })
-  if (exceptAppointmentId !== null) query.whereNot({ appointment_id: exceptAppointmentId })
-  return query
+export interface Clashes {
+  operatory?: SegmentClash
+  provider?: SegmentClash
+  patient?: SegmentClash
 }
 
-/** Another live visit of the same patient overlapping [start, end). */
-export async function patientClash(db: Db, patientId: number, startMs: number, endMs: number, exceptAppointmentId: number | null): Promise<SegmentClash | undefined> {
-  const query = db('appointments').where({ patient_id: patientId }).whereNotIn('state', ['cancelled', 'missed'])
-    .where('start_utc', '<', new Date(endMs)).where('end_utc', '>', new Date(startMs))
-    .orderBy('start_utc').first({ appointmentId: 'id', startUtc: 'start_utc', endUtc: 'end_utc' })
-  if (exceptAppointmentId !== null) query.whereNot({ id: exceptAppointmentId })
-  return query
+/**
+ * The first clash of each kind, in one round trip: any live segment of another visit in the chair
+ * overlapping [start, end); the provider hands_on elsewhere during the new hands_on time; another
+ * live visit of the same patient overlapping [start, end). Overlap is start < :end AND end > :start.
+ */
+export async function findClashes(db: Db, clash: ClashQuery): Promise<Clashes> {
+  const start = new Date(clash.startMs)
+  const end = new Date(clash.endMs)
+  const except = clash.exceptAppointmentId
+  // The whole visit's times for the chair, not the one segment, so the message names the visit in the way.
+  const room = db('appointment_segments').join('appointments', 'appointments.id', 'appointment_segments.appointment_id')
+    .where('appointment_segments.operatory_id', clash.operatoryId)
+    .where('appointment_segments.start_utc', '<', end).where('appointment_segments.end_utc', '>', start)
+    .orderBy('appointment_segments.start_utc').limit(1)
+    .select(db.raw("'operatory' AS resource"), { appointmentId: 'appointment_segments.appointment_id', startUtc: 'appointments.start_utc', endUtc: 'appointments.end_utc' })
+  if (except !== null) room.whereNot('appointment_segments.appointment_id', except)
+  const patient = db('appointments').where({ patient_id: clash.patientId }).whereNotIn('state', ['cancelled', 'missed'])
+    .where('start_utc', '<', end).where('end_utc', '>', start)
+    .orderBy('start_utc').limit(1)
+    .select(db.raw("'patient' AS resource"), { appointmentId: 'id', startUtc: 'start_utc', endUtc: 'end_utc' })
+  if (except !== null) patient.whereNot({ id: except })
+  const parts = [room, patient]
+  if (clash.handsOn.length) {
+    const provider = db('appointment_segments').where({ provider_id: clash.providerId, kind: 'hands_on' })
+      .where((overlaps) => {
+        for (const interval of clash.handsOn) {
+          overlaps.orWhere((one) => one.where('start_utc', '<', new Date(interval.endMs)).where('end_utc', '>', new Date(interval.startMs)))
+        }
+      })
+      .orderBy('start_utc').limit(1)
+      .select(db.raw("'provider' AS resource"), { appointmentId: 'appointment_id', startUtc: 'start_utc', endUtc: 'end_utc' })
+    if (except !== null) provider.whereNot({ appointment_id: except })
+    parts.push(provider)
+  }
+  const rows = await db.unionAll(parts, true) as Array<SegmentClash & { resource: keyof Clashes }>
+  const found: Clashes = {}
+  for (const { resource, ...row } of rows) found[resource] = row
+  return found
 }
 
 export async function countAppointments(db: Db, where: Record<string, unknown>): Promise<number> {

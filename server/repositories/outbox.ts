@@ -31,7 +31,24 @@ export interface OutboxPayload {
   resendOf?: number
 }
 
-export async function enqueueMessage(db: Db, message: { kind: OutboxKind; appointmentId: number; siteId: number; dueAt: Date; payload: OutboxPayload }): Promise<number> {
+export interface NewOutboxMessage {
+  kind: OutboxKind
+  appointmentId: number
+  siteId: number
+  dueAt: Date
+  payload: OutboxPayload
+}
+
+/** Several messages in one insert (a visit's invitation and its reminders). */
+export async function enqueueMessages(db: Db, messages: NewOutboxMessage[]): Promise<void> {
+  if (!messages.length) return
+  await db('outbox').insert(messages.map((message) => ({
+    kind: message.kind, appointment_id: message.appointmentId, site_id: message.siteId,
+    due_at: message.dueAt, payload: JSON.stringify(message.payload),
+  })))
+}
+
+export async function enqueueMessage(db: Db, message: NewOutboxMessage): Promise<number> {
   const [id] = await db('outbox').insert({
     kind: message.kind, appointment_id: message.appointmentId, site_id: message.siteId,
     due_at: message.dueAt, payload: JSON.stringify(message.payload),

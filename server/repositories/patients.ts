@@ -2,7 +2,7 @@
 import type { Db } from '../utils/db'
 import type { PatientDto } from '#shared/types/appointments'
 
-interface PatientRow {
+export interface PatientRow {
   id: number
   first_name: string
   last_name: string

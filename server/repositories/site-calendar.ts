@@ -6,6 +6,8 @@ import { parseJson } from './json'
 export type SiteCalendarInputs = Omit<ExpandAvailabilityInput, 'fromUtc' | 'toUtc'> & {
   bookingUnitMinutes: number
   minimumNoticeMinutes: number
+  /** sites.settings as stored (mail settings and the like; see services/mail/mail-settings.ts). */
+  settings: Record<string, unknown>
   operatoryDetails: Array<{ id: number; name: string; capabilities: string[]; active: boolean }>
 }
 
@@ -15,24 +17,23 @@ export function localDateOf(value: Date | string | null): string | null {
   return typeof value === 'string' ? value.slice(0, 10) : value.toISOString().slice(0, 10)
 }
 
-export async function loadSiteCalendar(db: Db, siteId: number): Promise<SiteCalendarInputs | undefined> {
-  const site = await db('sites').where({ id: siteId }).first()
-  if (!site) return undefined
+type SiteRow = Record<string, unknown> & { id: number; time_zone: string; opening_hours: unknown; closed_dates: unknown; settings: unknown; booking_unit_minutes: number; calendar_version: number }
+type CalendarTables = Pick<SiteCalendarInputs, 'operatories' | 'operatoryDetails' | 'shifts' | 'exceptions' | 'blocks'>
+
+/**
+ * Rooms, shifts, exceptions and blocks per site, kept per process and reloaded when the site's
+ * calendar_version (counted by triggers, see the migration) moves. Shared between callers: read-only.
+ */
+const tablesCache = new Map<string, { version: number; tables: CalendarTables }>()
+
+async function loadCalendarTables(db: Db, siteId: number): Promise<CalendarTables> {
   const [operatories, shifts, exceptions, blocks] = await Promise.all([
     db('operatories').where({ site_id: siteId }).orderBy(['sort_order', 'id']),
     db('shifts').where({ site_id: siteId }),
     db('shift_exceptions').where((where) => where.where({ site_id: siteId }).orWhereNull('site_id')),
     db('blocks').where({ site_id: siteId }),
   ])
-  const settings = parseJson<{ minimumNoticeMinutes?: number }>(site.settings, {})
   return {
-    site: {
-      id: site.id, timeZone: site.time_zone,
-      openingHours: parseJson<OpeningHours>(site.opening_hours, {} as OpeningHours),
-      closedDates: parseJson<string[]>(site.closed_dates, []),
-    },
-    bookingUnitMinutes: site.booking_unit_minutes,
-    minimumNoticeMinutes: settings.minimumNoticeMinutes ?? 60,
     operatories: operatories.map((row) => ({ id: row.id, siteId: row.site_id, active: Boolean(row.active) })),
     operatoryDetails: operatories.map((row) => ({ id: row.id, name: row.name, capabilities: parseJson<string[]>(row.capabilities, []), active: Boolean(row.active) })),
     shifts: shifts.map((row) => ({
@@ -50,16 +51,50 @@ export async function loadSiteCalendar(db: Db, siteId: number): Promise<SiteCale
   }
 }
 
-export interface ProviderDetails {
-  id: number
-  name: string
-  kind: 'dentist' | 'hygienist'
-  capabilities: string[]
-  active: boolean
+function databaseOf(db: Db): string {
+  return String((db.client.config.connection as { database?: string } | undefined)?.database ?? '')
 }
 
-export async function findProviderDetails(db: Db, providerId: number): Promise<ProviderDetails | undefined> {
-  const row = await db('providers').join('users', 'users.id', 'providers.user_id').where('providers.id', providerId)
-    .first('providers.id', 'users.name', 'providers.kind', 'providers.capabilities', 'providers.active')
-  return row ? { id: row.id, name: row.name, kind: row.kind, capabilities: parseJson<string[]>(row.capabilities, []), active: Boolean(row.active) } : undefined
+async function calendarTables(db: Db, site: SiteRow, cacheable: boolean): Promise<CalendarTables> {
+  if (!cacheable) return loadCalendarTables(db, site.id)
+  const key = `${databaseOf(db)}/${site.id}`
+  const cached = tablesCache.get(key)
+  if (cached && cached.version === site.calendar_version) return cached.tables
+  // Read after the version, so the tables are at least as new as the number they are filed under.
+  const tables = await loadCalendarTables(db, site.id)
+  tablesCache.set(key, { version: site.calendar_version, tables })
+  return tables
+}
+
+export interface CalendarReadOptions {
+  /**
+   * For a booking transaction: the site row is read LOCK IN SHARE MODE, so a rota change (whose
+   * trigger writes that row) waits for bookings in flight, and a booking after it sees it. Such a
+   * transaction writes no calendar rows, so what it reads is committed and may be cached.
+   */
+  forBooking?: boolean
+}
+
+/**
+ * The site row is read fresh every time; the rest comes from the per-process cache when current.
+ * Inside any other transaction the rows may be its own uncommitted writes: those are never cached.
+ */
+export async function loadSiteCalendar(db: Db, siteId: number, options: CalendarReadOptions = {}): Promise<SiteCalendarInputs | undefined> {
+  const query = db('sites').where({ id: siteId }).first()
+  if (options.forBooking) query.forShare()
+  const site = await query as SiteRow | undefined
+  if (!site) return undefined
+  const tables = await calendarTables(db, site, !db.isTransaction || Boolean(options.forBooking))
+  const settings = parseJson<Record<string, unknown> & { minimumNoticeMinutes?: number }>(site.settings, {})
+  return {
+    site: {
+      id: site.id, timeZone: site.time_zone,
+      openingHours: parseJson<OpeningHours>(site.opening_hours, {} as OpeningHours),
+      closedDates: parseJson<string[]>(site.closed_dates, []),
+    },
+    bookingUnitMinutes: site.booking_unit_minutes,
+    minimumNoticeMinutes: settings.minimumNoticeMinutes ?? 60,
+    settings,
+    ...tables,
+  }
 }

@@ -8,9 +8,8 @@ import { expandAvailabilityMs } from '#shared/domain/rota'
 import type { Db } from '../utils/db'
 import { badRequest, conflict } from '../utils/errors'
 import type { SiteCalendarInputs } from '../repositories/site-calendar'
-import { findProviderDetails } from '../repositories/site-calendar'
-import { operatoryClash, patientClash, providerClash, type NewSegment, type SegmentClash } from '../repositories/appointments'
-import { findPatient } from '../repositories/patients'
+import { findBookingParties } from '../repositories/booking-parties'
+import { findClashes, type NewSegment, type SegmentClash } from '../repositories/appointments'
 
 const MINUTE = 60_000
 const DAY = 86_400_000
@@ -78,11 +77,10 @@ async function assertPeopleAndRoom(db: Db, request: BookingRequest) {
   if (!room.active) throw badRequest('operatoryId', `${room.name} is not in use`)
   const missing = request.templates.find((template) => !room.capabilities.includes(template.capability))
   if (missing) throw badRequest('operatoryId', `${room.name} is not equipped for ${missing.capability} (${missing.name})`)
-  const provider = await findProviderDetails(db, request.providerId)
+  const { provider, patient } = await findBookingParties(db, request.providerId, request.patientId)
   if (!provider || !provider.active) throw badRequest('providerId', 'is not an active provider')
   const unskilled = request.templates.find((template) => !provider.capabilities.includes(template.category))
   if (unskilled) throw badRequest('providerId', `${provider.name} does not do ${unskilled.category} procedures (${unskilled.name})`)
-  const patient = await findPatient(db, request.patientId)
   if (!patient) throw badRequest('patientId', 'no such patient')
   return { room, provider, patient }
 }
@@ -95,8 +93,14 @@ export async function assertBookable(db: Db, request: BookingRequest): Promise<{
   const zone = calendar.site.timeZone
   const handsOn = placeSegments(plan, startMs, request.operatoryId, request.providerId).filter((segment) => segment.kind === 'hands_on')
 
+  // Only this room's and this provider's rows: the rest of the site cannot change the answer.
   const availability = expandAvailabilityMs({
-    ...calendar, fromUtc: new Date(startMs - DAY).toISOString(), toUtc: new Date(endMs + DAY).toISOString(),
+    site: calendar.site,
+    operatories: calendar.operatories.filter((operatory) => operatory.id === room.id),
+    shifts: calendar.shifts.filter((shift) => shift.providerId === provider.id),
+    exceptions: calendar.exceptions.filter((exception) => exception.providerId === provider.id),
+    blocks: calendar.blocks.filter((block) => block.operatoryId === null || block.operatoryId === room.id || block.providerId === provider.id),
+    fromUtc: new Date(startMs - DAY).toISOString(), toUtc: new Date(endMs + DAY).toISOString(),
   })
   const roomTime = availability.operatories.find((entry) => entry.operatoryId === room.id)?.intervals ?? []
   if (!covered(roomTime, startMs, endMs)) {
@@ -108,11 +112,11 @@ export async function assertBookable(db: Db, request: BookingRequest): Promise<{
     throw unavailableError('provider', provider.id, provider.name, offShift.startMs, offShift.endMs, `${provider.name} is not on shift here (or is blocked) at ${localTime(offShift.startMs, zone)}.`)
   }
 
-  const roomClash = await operatoryClash(db, room.id, startMs, endMs, request.exceptAppointmentId)
-  if (roomClash) throw clashError('operatory', room.id, room.name, roomClash, zone, 'is already taken')
-  const providerBusy = await providerClash(db, provider.id, handsOn, request.exceptAppointmentId)
-  if (providerBusy) throw clashError('provider', provider.id, provider.name, providerBusy, zone, 'is already working with another patient')
-  const patientBusy = await patientClash(db, request.patientId, startMs, endMs, request.exceptAppointmentId)
-  if (patientBusy) throw clashError('patient', request.patientId, 'This patient', patientBusy, zone, 'already has a visit')
+  const clashes = await findClashes(db, {
+    operatoryId: room.id, startMs, endMs, providerId: provider.id, handsOn, patientId: request.patientId, exceptAppointmentId: request.exceptAppointmentId,
+  })
+  if (clashes.operatory) throw clashError('operatory', room.id, room.name, clashes.operatory, zone, 'is already taken')
+  if (clashes.provider) throw clashError('provider', provider.id, provider.name, clashes.provider, zone, 'is already working with another patient')
+  if (clashes.patient) throw clashError('patient', request.patientId, 'This patient', clashes.patient, zone, 'already has a visit')
   return { patient }
 }

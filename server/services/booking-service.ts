@@ -16,8 +16,8 @@ import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-
 import { findAppointment, findAppointmentRow, insertAppointment, newAppointmentDto, replaceSegments, updateAppointmentIfVersion, type AppointmentRow } from '../repositories/appointments'
 import { lockForBooking } from '../repositories/booking-locks'
 import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
-import { enqueueMessage, type OutboxKind } from '../repositories/outbox'
-import { dropQueuedReminders, queueReminders } from './mail/reminders'
+import { enqueueMessages } from '../repositories/outbox'
+import { dropQueuedReminders, reminderMessages } from './mail/reminders'
 import { findPatient } from '../repositories/patients'
 import { writeAudit } from '../repositories/audit-log'
 import { findTemplateById } from '../repositories/templates'
@@ -25,10 +25,11 @@ import { parseJson } from '../repositories/json'
 import { planItems } from './plan-service'
 import { assertBookable, assertStartAllowed, placeSegments, visitEnd } from './booking-rules'
 
-const READ_COMMITTED = { isolationLevel: 'read committed' as const }
+// Every transaction here runs at READ COMMITTED: db/connection.ts makes that each connection's default.
 
-async function siteCalendar(db: Db, siteId: number): Promise<SiteCalendarInputs> {
-  const calendar = await loadSiteCalendar(db, siteId)
+/** The site's calendar read inside a booking transaction (see loadSiteCalendar's forBooking). */
+async function bookingCalendar(trx: Db, siteId: number): Promise<SiteCalendarInputs> {
+  const calendar = await loadSiteCalendar(trx, siteId, { forBooking: true })
   if (!calendar) throw badRequest('siteId', 'no such site')
   return calendar
 }
@@ -37,14 +38,34 @@ function startOf(startUtc: string): number {
   return new Date(startUtc).getTime()
 }
 
-async function queueMessage(db: Db, kind: OutboxKind, appointmentId: number, siteId: number, patientId: number, known?: PatientDto): Promise<void> {
-  // Reminders not yet sent belong to the old time (or to a cancelled visit): planned again below.
-  if (kind !== 'invitation') await dropQueuedReminders(db, appointmentId)
-  const patient = known ?? await findPatient(db, patientId)
-  // No consent, no e-mail (the dispatcher checks again at send time).
-  if (!patient?.email || !patient.emailConsent) return
-  await enqueueMessage(db, { kind, appointmentId, siteId, dueAt: new Date(), payload: { appointmentId } })
-  if (kind !== 'cancellation') await queueReminders(db, appointmentId)
+interface VisitMail {
+  appointmentId: number
+  startMs: number
+  calendar: SiteCalendarInputs
+  patient: PatientDto | undefined
+}
+
+/** No consent, no e-mail (the dispatcher checks again at send time). */
+function mayMail(patient: PatientDto | undefined): boolean {
+  return Boolean(patient?.email && patient.emailConsent)
+}
+
+/** The patient's invitation or update and the visit's reminders, in one insert. */
+async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: VisitMail): Promise<void> {
+  // Reminders not yet sent belong to the old time: planned again below.
+  if (kind === 'update') await dropQueuedReminders(db, visit.appointmentId)
+  if (!mayMail(visit.patient)) return
+  const site = { id: visit.calendar.site.id, timeZone: visit.calendar.site.timeZone, settings: visit.calendar.settings }
+  await enqueueMessages(db, [
+    { kind, appointmentId: visit.appointmentId, siteId: site.id, dueAt: new Date(), payload: { appointmentId: visit.appointmentId } },
+    ...reminderMessages({ appointmentId: visit.appointmentId, startMs: visit.startMs, site }),
+  ])
+}
+
+async function queueCancellationMail(db: Db, row: AppointmentRow): Promise<void> {
+  await dropQueuedReminders(db, row.id)
+  if (!mayMail(await findPatient(db, row.patient_id))) return
+  await enqueueMessages(db, [{ kind: 'cancellation', appointmentId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { appointmentId: row.id } }])
 }
 
 async function loaded(db: Db, id: number): Promise<AppointmentDto> {
@@ -61,16 +82,16 @@ export async function bookAppointment(input: BookAppointmentInput, user: Session
     const prior = await findAnswer<AppointmentDto>(db, user.id, idempotencyKey)
     if (prior?.response) return replayed(prior.requestHash, requestHash, prior.response)
   }
-  const calendar = await siteCalendar(db, input.siteId)
-  const { plan, templates } = await planItems(db, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
   const startMs = startOf(input.startUtc)
-  assertStartAllowed(startMs, calendar)
 
   try {
     return await withTransactionRetry(() => db.transaction(async (trx) => {
       // Claimed first: a concurrent request with the same key waits here, then replays our answer.
       if (idempotencyKey) await claimKey(trx, user.id, idempotencyKey, requestHash)
       await lockForBooking(trx, [input.operatoryId], [input.providerId], input.patientId)
+      const calendar = await bookingCalendar(trx, input.siteId)
+      const { plan, templates } = await planItems(trx, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
+      assertStartAllowed(startMs, calendar)
       const { patient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptAppointmentId: null })
       const newVisit = {
         siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
@@ -80,11 +101,11 @@ export async function bookAppointment(input: BookAppointmentInput, user: Session
       const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
       await replaceSegments(trx, id, segments, { isNew: true })
       await writeAudit(trx, { userId: user.id, action: 'visit_booked', entity: 'appointment', entityId: id, after: input })
-      await queueMessage(trx, 'invitation', id, input.siteId, input.patientId, patient)
+      await queueVisitMail(trx, 'invitation', { appointmentId: id, startMs, calendar, patient })
       const visit = newAppointmentDto(id, newVisit, segments)
       if (idempotencyKey) await storeAnswer(trx, user.id, idempotencyKey, 201, visit, id)
       return visit
-    }, READ_COMMITTED))
+    }))
   } catch (error) {
     // Another request with the same key committed first: answer what it answered.
     if (idempotencyKey && isDuplicateKey(error)) {
@@ -132,25 +153,17 @@ export async function moveAppointment(id: number, input: MoveAppointmentInput, u
   const row = await liveVisit(db, id, user)
   if (row.row_version !== input.rowVersion) throw staleVersion()
   if (!holdsTime(row.state) || row.state === 'finished') throw conflict(`A ${row.state} visit cannot be moved.`, { field: 'state' })
-  const calendar = await siteCalendar(db, row.site_id)
-  const planned = await planForMove(db, row, input, calendar)
-  const { templates } = planned
-  let plan = planned.plan
-  if (input.lengthOverride) {
-    try {
-      plan = withChairMinutes(plan, input.lengthOverride.chairMinutes, input.lengthOverride.reason)
-    } catch (error) {
-      rethrowDomainError(error)
-    }
-  }
   const startMs = input.startUtc ? startOf(input.startUtc) : row.start_utc.getTime()
-  if (input.startUtc) assertStartAllowed(startMs, calendar)
   const operatoryId = input.operatoryId ?? row.operatory_id
   const providerId = input.providerId ?? row.provider_id
 
   return withTransactionRetry(() => db.transaction(async (trx) => {
     await lockForBooking(trx, [operatoryId], [providerId], row.patient_id)
-    await assertBookable(trx, { calendar, plan, templates, operatoryId, providerId, patientId: row.patient_id, startMs, exceptAppointmentId: id })
+    const calendar = await bookingCalendar(trx, row.site_id)
+    const planned = await planForMove(trx, row, input, calendar)
+    const plan = input.lengthOverride ? withLength(planned.plan, input.lengthOverride) : planned.plan
+    if (input.startUtc) assertStartAllowed(startMs, calendar)
+    const { patient } = await assertBookable(trx, { calendar, plan, templates: planned.templates, operatoryId, providerId, patientId: row.patient_id, startMs, exceptAppointmentId: id })
     const changed = await updateAppointmentIfVersion(trx, id, input.rowVersion, {
       operatory_id: operatoryId, provider_id: providerId, start_utc: new Date(startMs), end_utc: new Date(visitEnd(plan, startMs)),
       plan: JSON.stringify(plan), ical_sequence: row.ical_sequence + 1, updated_by: user.id, ...(input.note === undefined ? {} : { note: input.note }),
@@ -158,9 +171,17 @@ export async function moveAppointment(id: number, input: MoveAppointmentInput, u
     if (!changed) throw staleVersion()
     await replaceSegments(trx, id, placeSegments(plan, startMs, operatoryId, providerId))
     await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'appointment', entityId: id, before: { start: row.start_utc, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
-    await queueMessage(trx, 'update', id, row.site_id, row.patient_id)
+    await queueVisitMail(trx, 'update', { appointmentId: id, startMs, calendar, patient })
     return loaded(trx, id)
-  }, READ_COMMITTED))
+  }))
+}
+
+function withLength(plan: VisitPlan, override: NonNullable<MoveAppointmentInput['lengthOverride']>): VisitPlan {
+  try {
+    return withChairMinutes(plan, override.chairMinutes, override.reason)
+  } catch (error) {
+    rethrowDomainError(error)
+  }
 }
 
 export async function changeVisitState(id: number, to: VisitState, user: SessionUser, reason?: string, seenVersion?: number): Promise<AppointmentDto> {
@@ -178,7 +199,7 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
     // A cancelled or missed visit gives its chair and provider back.
     if (releases) await replaceSegments(trx, id, [])
     await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'appointment', entityId: id, before: { state: row.state }, after: { state: to, reason } })
-    if (to === 'cancelled') await queueMessage(trx, 'cancellation', id, row.site_id, row.patient_id)
+    if (to === 'cancelled') await queueCancellationMail(trx, row)
     return loaded(trx, id)
-  }, READ_COMMITTED))
+  }))
 }

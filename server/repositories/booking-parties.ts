@@ -1,0 +1,49 @@
+// The provider and the patient of a booking, read together in one round trip.
+import type { Db } from '../utils/db'
+import type { PatientDto } from '#shared/types/appointments'
+import { parseJson } from './json'
+import { toPatientDto, type PatientRow } from './patients'
+
+export interface ProviderDetails {
+  id: number
+  name: string
+  kind: 'dentist' | 'hygienist'
+  capabilities: string[]
+  active: boolean
+}
+
+interface PartyColumns {
+  provider_id: number | null
+  provider_name: string
+  provider_kind: ProviderDetails['kind']
+  provider_capabilities: unknown
+  provider_active: number
+}
+
+/** Either is undefined when no such row exists. */
+export async function findBookingParties(db: Db, providerId: number, patientId: number): Promise<{ provider?: ProviderDetails; patient?: PatientDto }> {
+  const [rows] = await db.raw(`
+    SELECT patients.*, provider.* FROM patients
+    LEFT JOIN (
+      SELECT providers.id AS provider_id, users.name AS provider_name, providers.kind AS provider_kind,
+        providers.capabilities AS provider_capabilities, providers.active AS provider_active
+      FROM providers JOIN users ON users.id = providers.user_id WHERE providers.id = ?
+    ) AS provider ON TRUE
+    WHERE patients.id = ?`, [providerId, patientId])
+  const row = (rows as Array<PatientRow & PartyColumns>)[0]
+  if (!row) {
+    const provider = await findProviderDetails(db, providerId)
+    return { provider }
+  }
+  const { provider_id: id, provider_name: name, provider_kind: kind, provider_capabilities: capabilities, provider_active: active, ...patient } = row
+  return {
+    provider: id === null ? undefined : { id, name, kind, capabilities: parseJson<string[]>(capabilities, []), active: Boolean(active) },
+    patient: toPatientDto(patient as PatientRow),
+  }
+}
+
+export async function findProviderDetails(db: Db, providerId: number): Promise<ProviderDetails | undefined> {
+  const row = await db('providers').join('users', 'users.id', 'providers.user_id').where('providers.id', providerId)
+    .first('providers.id', 'users.name', 'providers.kind', 'providers.capabilities', 'providers.active')
+  return row ? { id: row.id, name: row.name, kind: row.kind, capabilities: parseJson<string[]>(row.capabilities, []), active: Boolean(row.active) } : undefined
+}
