@@ -56,6 +56,8 @@ export default defineNuxtConfig({
       retryBaseSeconds: 30,
       retryMaxSeconds: 3600,
     },
+    // Demo seeding only (server/utils/clock.ts): minutes the booking clock is moved by.
+    scheduleClockOffsetMinutes: 0,
     public: { appName: 'Cuspline' },
   },
   nitro: {

@@ -1,13 +1,19 @@
-// Books the demo's visits from now to two weeks ahead at every site, through the real booking
+// Books the demo's visits from a week back to a week ahead at every site, through the real booking
 // service (the built app over HTTP), so a newcomer's first Chairboard is full and correct.
-// Runs only when the demo sites have no visits yet. Visits cannot be booked in the past, so the
-// demo starts now rather than a week back.
+// Runs only when the demo sites have no visits yet. The booking service refuses past starts, so
+// this private server runs with its booking clock a week and a day back (server/utils/clock.ts):
+// every rule (grid, notice, shifts, blocks, clashes) still applies. Last week's visits are then
+// moved along their states as a real week would leave them: most finished, a few missed or
+// cancelled, today's under way, some of the next days confirmed.
 import { DateTime } from 'luxon'
 import { Faker, en } from '@faker-js/faker'
 import { createDb, dbSettingsFromEnv } from '../db/connection'
 import { startAppServer } from './lib/app-server'
 
-const DAYS_AHEAD = 14
+const DAYS_BACK = 7
+const DAYS_AHEAD = 7
+const HOUR = 3_600_000
+const CANCEL_REASONS = ['Patient unwell', 'Work conflict', 'Asked to rebook next month', 'Transport fell through']
 const VISITS_PER_ROOM_PER_DAY = 4
 const MIX = [
   { weight: 5, items: (f: Faker) => [{ templateCode: 'COMP-POST', tooth: f.helpers.arrayElement(['3', '14', '19', '30', '4', '13', '20', '29']), surfaces: f.helpers.arrayElement(['O', 'MO', 'DO', 'MOD', 'MODB']) }] },
@@ -36,8 +42,12 @@ await db.destroy()
 
 const faker = new Faker({ locale: [en] })
 faker.seed(20261202)
-// Its dispatcher stays off: the real server sends the invitations, with links to its own address.
-const server = await startAppServer({ NUXT_OUTBOX_DISPATCHER: 'false' })
+// Its dispatcher stays off: the real server sends the invitations, with links to its own address
+// (and skips those whose visit has begun, see the dispatcher).
+const server = await startAppServer({
+  NUXT_OUTBOX_DISPATCHER: 'false',
+  NUXT_SCHEDULE_CLOCK_OFFSET_MINUTES: String(-(DAYS_BACK + 1) * 24 * 60),
+})
 let booked = 0
 try {
   const login = await fetch(`${server.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@fernhollow.test', password: 'cuspline-demo' }) })
@@ -47,7 +57,7 @@ try {
     return { status: response.status, body: await response.json() as T }
   }
   for (const site of sites) {
-    for (let day = 0; day < DAYS_AHEAD; day += 1) {
+    for (let day = -DAYS_BACK; day <= DAYS_AHEAD; day += 1) {
       const date = DateTime.now().setZone(site.time_zone).plus({ days: day }).toISODate()!
       const target = (roomCounts.get(site.id) ?? 1) * VISITS_PER_ROOM_PER_DAY
       let bookedToday = 0
@@ -63,6 +73,59 @@ try {
     }
   }
   console.log(`booked ${booked} demo visits through the booking service`)
+  const settled = await settleVisits(post)
+  console.log(`moved ${settled} of them along their states (finished, missed, cancelled, under way, confirmed)`)
+  console.log(`${await skipHistoricMail()} outbox messages left unsent: due or about visits before the demo began`)
 } finally {
   await server.stop()
+}
+
+type Post = <T>(path: string, body: unknown) => Promise<{ status: number; body: T }>
+
+/** The state moves a visit at this time would have had by now, through the state API. */
+function movesFor(visit: { start_utc: Date; end_utc: Date }, nowMs: number): Array<{ path: 'state' | 'cancel'; body: Record<string, string> }> {
+  const walkIn = [{ path: 'state' as const, body: { state: 'arrived' } }, { path: 'state' as const, body: { state: 'treating' } }]
+  if (visit.end_utc.getTime() <= nowMs) {
+    const roll = faker.number.float()
+    if (roll < 0.08) return [{ path: 'state', body: { state: 'missed' } }]
+    if (roll < 0.15) return [{ path: 'cancel', body: { reason: faker.helpers.arrayElement(CANCEL_REASONS) } }]
+    return [...walkIn, { path: 'state', body: { state: 'finished' } }]
+  }
+  if (visit.start_utc.getTime() <= nowMs) return walkIn
+  if (visit.start_utc.getTime() <= nowMs + 48 * HOUR && faker.number.float() < 0.5) return [{ path: 'state', body: { state: 'confirmed' } }]
+  return []
+}
+
+async function settleVisits(post: Post): Promise<number> {
+  const reader = createDb(dbSettingsFromEnv())
+  const nowMs = Date.now()
+  const visits = await reader('appointments').where('start_utc', '<', new Date(nowMs + 48 * HOUR)).orderBy('id').select('id', 'start_utc', 'end_utc')
+  await reader.destroy()
+  let settled = 0
+  for (const visit of visits) {
+    const moves = movesFor(visit, nowMs)
+    for (const move of moves) {
+      const result = await post(`/api/appointments/${visit.id}/${move.path}`, move.body)
+      if (result.status !== 200) throw new Error(`demo visit ${visit.id}: ${move.path} ${JSON.stringify(move.body)} answered ${result.status}`)
+    }
+    if (moves.length) settled += 1
+  }
+  return settled
+}
+
+/**
+ * Mail the shifted clock queued for times already gone (last week's invitations, reminders due
+ * before today) would reach nobody in a real week: marked skipped, so the real server sends only
+ * what a patient booked today would get.
+ */
+async function skipHistoricMail(): Promise<number> {
+  const writer = createDb(dbSettingsFromEnv())
+  const reason = 'demo history: due before the demo began'
+  const now = new Date()
+  const overdue = await writer('outbox').where({ state: 'queued', kind: 'reminder' }).where('due_at', '<', now).update({ state: 'skipped', last_error: reason })
+  const past = await writer('outbox').where({ state: 'queued' })
+    .whereIn('appointment_id', writer('appointments').where('start_utc', '<', now).select('id'))
+    .update({ state: 'skipped', last_error: reason })
+  await writer.destroy()
+  return overdue + past
 }

@@ -7,6 +7,7 @@ import type { StoredTemplate } from '#shared/types/templates'
 import { expandAvailabilityMs } from '#shared/domain/rota'
 import type { Db } from '../utils/db'
 import { badRequest, conflict } from '../utils/errors'
+import { scheduleNowMs } from '../utils/clock'
 import type { SiteCalendarInputs } from '../repositories/site-calendar'
 import { findBookingParties } from '../repositories/booking-parties'
 import { findClashes, type NewSegment, type SegmentClash } from '../repositories/appointments'
@@ -43,7 +44,7 @@ function localTime(ms: number, zone: string): string {
 }
 
 /** On the site's booking grid in local time, and not sooner than the minimum notice. */
-export function assertStartAllowed(startMs: number, calendar: SiteCalendarInputs, nowMs = Date.now()): void {
+export function assertStartAllowed(startMs: number, calendar: SiteCalendarInputs, nowMs = scheduleNowMs()): void {
   const local = DateTime.fromMillis(startMs, { zone: calendar.site.timeZone })
   if ((local.hour * 60 + local.minute) % calendar.bookingUnitMinutes !== 0 || local.second !== 0 || local.millisecond !== 0) {
     throw badRequest('startUtc', `must be on the site's ${calendar.bookingUnitMinutes}-minute grid (local time ${local.toFormat('HH:mm:ss')})`)

@@ -8,6 +8,7 @@ import type { OpeningsRequest } from '#shared/schemas/appointments'
 import { expandAvailabilityMs } from '#shared/domain/rota'
 import { findOpenings, formatOpening } from '#shared/domain/openings'
 import { useDb, type Db } from '../utils/db'
+import { scheduleNowMs } from '../utils/clock'
 import { badRequest, rethrowDomainError } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { listSites } from '../repositories/sites'
@@ -70,7 +71,7 @@ async function searchOneSite(db: Db, search: SiteSearch, request: OpeningsReques
   try {
     const result = findOpenings({
       plan: resolved.plan, capability: first.capability, category: first.category, sites: [site], busy,
-      fromMs: search.fromMs, toMs: search.toMs, nowMs: Date.now(), minimumNoticeMinutes: search.calendar.minimumNoticeMinutes,
+      fromMs: search.fromMs, toMs: search.toMs, nowMs: scheduleNowMs(), minimumNoticeMinutes: search.calendar.minimumNoticeMinutes,
       providerId: request.providerId, operatoryId: request.operatoryId, partOfDay: request.partOfDay, limit: request.limit, fewestGaps: request.fewestGaps,
     })
     return { resolved, openings: result.openings.map((opening) => toDto(opening, search)), reasons: result.reasons ?? [] }

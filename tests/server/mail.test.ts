@@ -162,6 +162,26 @@ describe('consent', () => {
   })
 })
 
+describe('mail held up past the visit', () => {
+  it('skips an invitation once the visit has begun, and a cancellation once its time has passed', async () => {
+    const held = await createMailAnnex({ patients: 2, mailLane: `late-${annex.siteId}` })
+    const kept = await manager.post('/api/appointments', bookingFor(held, 0, utcAt('2027-03-23T09:00', ZONE)))
+    const dropped = await manager.post('/api/appointments', bookingFor(held, 1, utcAt('2027-03-23T11:00', ZONE)))
+    expect([kept.status, dropped.status]).toEqual([201, 201])
+    expect((await manager.post(`/api/appointments/${dropped.body.id}/cancel`, { reason: 'Patient moved away' })).status).toBe(200)
+    // As if the mail had waited through a long outage: both visits now lie in the past.
+    const lastWeek = DateTime.now().minus({ days: 7 })
+    for (const id of [kept.body.id, dropped.body.id]) {
+      await testDb()('appointments').where({ id }).update({ start_utc: lastWeek.toJSDate(), end_utc: lastWeek.plus({ hours: 1 }).toJSDate() })
+    }
+    await testDb()('sites').where({ id: held.siteId }).update({ settings: JSON.stringify({ minimumNoticeMinutes: 0 }) })
+    await expect.poll(async () => (await outboxRow(kept.body.id, 'invitation')).state, { timeout: 15_000 }).toBe('skipped')
+    expect((await outboxRow(kept.body.id, 'invitation')).last_error).toBe('the visit has started')
+    await expect.poll(async () => (await outboxRow(dropped.body.id, 'cancellation')).state, { timeout: 15_000 }).toBe('skipped')
+    expect((await outboxRow(dropped.body.id, 'cancellation')).last_error).toBe('the visit time has passed')
+  })
+})
+
 describe('the signed visit link', () => {
   let visitId: number
   let link: string

@@ -34,13 +34,18 @@ export function reasonToSkip(row: OutboxRow, context: MailContext | undefined, n
   if (!context.patient.email) return 'the patient has no e-mail address'
   if (!context.patient.emailConsent) return 'the patient has not agreed to e-mail'
   const live = holdsTime(context.visit.state) && context.visit.state !== 'finished'
-  if (row.kind === 'cancellation') return context.visit.state === 'cancelled' ? null : 'the visit is no longer cancelled'
+  if (row.kind === 'cancellation') {
+    if (context.visit.state !== 'cancelled') return 'the visit is no longer cancelled'
+    // A calendar entry for a time gone by needs no removing (mail held up by a long outage, say).
+    return context.visit.endUtc.getTime() <= nowMs ? 'the visit time has passed' : null
+  }
   if (!live) return `the visit is ${context.visit.state}`
   if (row.kind === 'reminder') {
     const payload = payloadOf(row)
     if (payload.startUtc && new Date(payload.startUtc).getTime() !== context.visit.startUtc.getTime()) return 'the visit moved; a new reminder was planned'
-    if (context.visit.startUtc.getTime() <= nowMs) return 'the visit has started'
   }
+  // An invitation, update or reminder that would arrive after the visit began only confuses.
+  if (context.visit.startUtc.getTime() <= nowMs) return 'the visit has started'
   return null
 }
 

@@ -4,6 +4,7 @@ import type { Db } from '../../utils/db'
 import { planReminders } from '#shared/domain/reminders'
 import { skipQueuedReminders, type NewOutboxMessage } from '../../repositories/outbox'
 import { mailSettingsOf } from './mail-settings'
+import { scheduleNowMs } from '../../utils/clock'
 
 export async function dropQueuedReminders(db: Db, appointmentId: number): Promise<void> {
   await skipQueuedReminders(db, appointmentId, 'visit moved or cancelled: reminders planned again')
@@ -16,7 +17,7 @@ export interface ReminderVisit {
 }
 
 /** The outbox rows of a visit's reminders under the site's offsets and quiet hours. */
-export function reminderMessages(visit: ReminderVisit, nowMs = Date.now()): NewOutboxMessage[] {
+export function reminderMessages(visit: ReminderVisit, nowMs = scheduleNowMs()): NewOutboxMessage[] {
   const settings = mailSettingsOf(visit.site.settings)
   const planned = planReminders({
     startMs: visit.startMs, offsetsHours: settings.reminderOffsetsHours,
