@@ -27,6 +27,15 @@ async function requireSite(db: Db, siteId: number) {
   return site
 }
 
+/** A shift at a site the provider's account does not cover would never show on their own screens. */
+async function requireWorksAt(db: Db, providerId: number, siteId: number) {
+  const provider = await requireProvider(db, providerId)
+  const site = await requireSite(db, siteId)
+  if (!provider.siteIds.includes(siteId)) {
+    throw badRequest('providerId', `${provider.name}'s account does not include ${site.name}: add the site to their account under People first`)
+  }
+}
+
 /** 409 when the provider already works at another site at an overlapping time on some date. */
 async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number): Promise<void> {
   const provider = await requireProvider(db, shift.providerId)
@@ -44,8 +53,7 @@ async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number): 
 }
 
 export async function createShift(trx: Db, user: SessionUser, shift: ShiftBody): Promise<ShiftDto> {
-  await requireSite(trx, shift.siteId)
-  await requireProvider(trx, shift.providerId)
+  await requireWorksAt(trx, shift.providerId, shift.siteId)
   await lockProvider(trx, shift.providerId)
   await refuseCrossSiteClash(trx, shift, 0)
   const id = await insertShift(trx, shift)
@@ -55,8 +63,7 @@ export async function createShift(trx: Db, user: SessionUser, shift: ShiftBody):
 
 export async function replaceShift(trx: Db, user: SessionUser, before: ShiftDto, shift: ShiftBody): Promise<ShiftDto> {
   requireSiteAccess(user, shift.siteId)
-  await requireSite(trx, shift.siteId)
-  await requireProvider(trx, shift.providerId)
+  await requireWorksAt(trx, shift.providerId, shift.siteId)
   await lockProvider(trx, shift.providerId)
   await refuseCrossSiteClash(trx, shift, before.id)
   await updateShift(trx, before.id, shift)
@@ -74,6 +81,7 @@ export async function createShiftException(trx: Db, user: SessionUser, exception
     for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
   }
   if (exception.kind === 'extra' && exception.siteId !== null) {
+    await requireWorksAt(trx, exception.providerId, exception.siteId)
     // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
     // day, which refuses rather than risks a clash.
     await lockProvider(trx, exception.providerId)

@@ -7,10 +7,6 @@ export function isRetryable(error: unknown): boolean {
   return RETRYABLE.has((error as { errno?: number }).errno ?? 0)
 }
 
-export function isDuplicateKey(error: unknown): boolean {
-  return (error as { errno?: number }).errno === 1062
-}
-
 export async function withTransactionRetry<T>(work: () => Promise<T>): Promise<T> {
   for (let attempt = 1; ; attempt += 1) {
     try {

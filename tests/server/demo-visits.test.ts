@@ -52,8 +52,8 @@ describe('demo visits', () => {
   })
 
   it('leave past visits settled as a real week would: mostly finished, some missed or cancelled', async () => {
-    const past = await scratch('appointments').where('end_utc', '<=', new Date()).groupBy('state').select('state').count({ count: '*' })
-    const byState = Object.fromEntries(past.map((row) => [row.state, Number(row.count)]))
+    const past = await scratch('appointments').where('end_utc', '<=', new Date()).groupBy('state').select('state').count({ count: '*' }) as Array<{ state: string; count: number }>
+    const byState: Record<string, number> = Object.fromEntries(past.map((row) => [row.state, Number(row.count)]))
     expect(byState.booked ?? 0).toBe(0)
     expect(byState.confirmed ?? 0).toBe(0)
     expect(byState.finished).toBeGreaterThan((byState.missed ?? 0) + (byState.cancelled ?? 0))

@@ -1,7 +1,7 @@
 // Shifts, exceptions, blocks and availability over HTTP against the built server and real MariaDB.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, signedInAs } from '../helpers/api-client'
-import { closeTestDb, createTestUser, siteIdBySlug } from '../helpers/db'
+import { closeTestDb, createTestUser, siteIdBySlug, testDb } from '../helpers/db'
 import { createTestProvider, providerIdByEmail } from '../helpers/rota'
 
 let quarry: number
@@ -99,6 +99,16 @@ describe('shifts: validation', () => {
     expect(response.body.data).toMatchObject({ field: 'providerId', reason: 'is not a provider' })
   })
 
+  it('refuses a shift or extra day at a site the provider\'s account does not include, saying what to do', async () => {
+    const response = await manager.post('/api/shifts', shiftBody(providerId, { siteId: saguaro }))
+    expect(response.status).toBe(400)
+    expect(response.body.data.field).toBe('providerId')
+    expect(response.body.data.reason).toMatch(/does not include Fernhollow Saguaro Flats: add the site to their account under People first/)
+    const extra = await manager.post('/api/shift-exceptions', { providerId, siteId: saguaro, kind: 'extra', startDate: '2026-03-07', endDate: '2026-03-07', localStart: '08:00', localEnd: '12:00' })
+    expect(extra.status).toBe(400)
+    expect(extra.body.data.field).toBe('providerId')
+  })
+
   it('checks a PATCH merged with the stored shift (end before the stored start)', async () => {
     const created = await manager.post('/api/shifts', shiftBody(providerId, { rrule: 'FREQ=WEEKLY;BYDAY=MO', validUntil: '2026-03-31' }))
     const response = await manager.patch(`/api/shifts/${created.body.id}`, { localEnd: '07:00' })
@@ -108,9 +118,20 @@ describe('shifts: validation', () => {
 })
 
 describe('shifts: one provider, one site at a time', () => {
+  // A twin of the demo dentist (Quarry Street Mon, Tue, Thu 07:30–16:30; Saguaro Flats Wed, Fri
+  // 07:00–15:00) whose account also covers Aspen Gulch, so shifts there may be tried.
+  let twin: number
+  beforeAll(async () => {
+    twin = (await createTestProvider(['quarry-street', 'aspen-gulch', 'saguaro-flats'], 'Dr. Twin Provider')).providerId
+    await testDb()('shifts').insert([
+      { provider_id: twin, site_id: quarry, rrule: 'FREQ=WEEKLY;BYDAY=MO,TU,TH', valid_from: '2026-01-05', local_start: '07:30', local_end: '16:30' },
+      { provider_id: twin, site_id: saguaro, rrule: 'FREQ=WEEKLY;BYDAY=WE,FR', valid_from: '2026-01-05', local_start: '07:00', local_end: '15:00' },
+    ])
+  })
+
   it('answers an overlap with another site\'s shift with 409 naming the first clashing date', async () => {
-    const dentist = await providerIdByEmail('dentist@fernhollow.test')
-    // The demo dentist works Quarry Street (Los Angeles) Mon, Tue, Thu 07:30–16:30. Aspen Gulch
+    const dentist = twin
+    // The dentist works Quarry Street (Los Angeles) Mon, Tue, Thu 07:30–16:30. Aspen Gulch
     // (Denver) 08:00–12:00 is 07:00–11:00 in Los Angeles: both zones change on 8 March 2026
     // (IANA tz database), so the first Monday from Wednesday 4 March, 9 March, clashes.
     const response = await manager.post('/api/shifts', shiftBody(dentist, { rrule: 'FREQ=WEEKLY;BYDAY=MO', validFrom: '2026-03-04', localStart: '08:00', localEnd: '12:00' }))
@@ -120,8 +141,8 @@ describe('shifts: one provider, one site at a time', () => {
   })
 
   it('refuses an extra day at another site while the provider works elsewhere, and allows one on a free day', async () => {
-    const dentist = await providerIdByEmail('dentist@fernhollow.test')
-    // Monday 2026-03-09: the demo dentist is at Quarry Street 07:30–16:30 Los Angeles time.
+    const dentist = twin
+    // Monday 2026-03-09: the dentist is at Quarry Street 07:30–16:30 Los Angeles time.
     const clash = await manager.post('/api/shift-exceptions', { providerId: dentist, kind: 'extra', siteId: aspen, startDate: '2026-03-09', endDate: '2026-03-09', localStart: '09:00', localEnd: '12:00' })
     expect(clash.status).toBe(409)
     expect(clash.body.data).toMatchObject({ date: '2026-03-09', otherSiteId: quarry })
@@ -141,7 +162,7 @@ describe('shifts: one provider, one site at a time', () => {
   })
 
   it('accepts a shift that only touches another site\'s shift (half-open intervals)', async () => {
-    const dentist = await providerIdByEmail('dentist@fernhollow.test')
+    const dentist = twin
     // Dates far from today: the browser tests draw this week's rota from the same database.
     // Saguaro Flats Wednesdays 07:00–15:00 Phoenix (UTC−07:00 all year). In winter Aspen Gulch is
     // MST, also UTC−07:00 (IANA tz database), so Aspen 15:00–18:00 starts exactly when Saguaro ends.
