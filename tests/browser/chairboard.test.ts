@@ -128,6 +128,42 @@ describe('Chairboard', () => {
     expect(moved!.x).toBeLessThan(third!.x + third!.width)
   })
 
+  it('moves a visit from the keyboard through the visit panel, and says why a taken chair is refused', async () => {
+    const { page } = browser
+    const api = new ApiClient(inject('baseURL'))
+    await api.signIn('manager@fernhollow.test')
+    const quarry = await siteIdBySlug('quarry-street')
+    const rooms = await testDb()('operatories').where({ site_id: quarry }).orderBy('sort_order').select('id', 'name')
+    const dentist3 = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist.three@fernhollow.test').first('providers.id')
+    const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist@fernhollow.test').first('providers.id')
+    const [mover, blocker] = await testDb()('patients').orderBy('id').offset(150).limit(2)
+    const moving = await api.post('/api/appointments', { patientId: mover.id, siteId: quarry, operatoryId: rooms[0].id, providerId: dentist3.id, startUtc: utcAt(`${DAY}T14:00`, ZONE), items: [{ templateCode: 'EXAM-EMER' }] })
+    const busy = await api.post('/api/appointments', { patientId: blocker.id, siteId: quarry, operatoryId: rooms[1].id, providerId: dentist.id, startUtc: utcAt(`${DAY}T10:30`, ZONE), items: FILLING })
+    expect([moving.status, busy.status], JSON.stringify([moving.body, busy.body])).toEqual([201, 201])
+
+    await openBoardOn(page)
+    const block = await visitBlock(page, mover.first_name)
+    await block.waitFor()
+    // No mouse: the visit takes the focus like a button, Enter opens it, the panel's form moves it.
+    await page.getByRole('button', { name: `Open the visit of ${mover.first_name}` }).focus()
+    await page.keyboard.press('Enter')
+    const panel = page.getByTestId('visit-panel')
+    await panel.waitFor()
+    await panel.getByLabel('Start').fill('10:30')
+    await panel.getByLabel('Chair').selectOption({ label: rooms[1].name })
+    await panel.getByRole('button', { name: 'Move visit' }).press('Enter')
+    await expect.poll(() => page.getByTestId('board-notice').textContent()).toMatch(/already taken/)
+    expect((await testDb()('appointments').where({ id: moving.body.id }).first()).operatory_id).toBe(rooms[0].id)
+
+    await panel.getByLabel('Chair').selectOption({ label: rooms[2].name })
+    await panel.getByRole('button', { name: 'Move visit' }).press('Enter')
+    await expect.poll(() => page.getByTestId('board-notice').textContent()).toMatch(new RegExp(`moved to 10:30 in ${rooms[2].name}`))
+    const saved = await testDb()('appointments').where({ id: moving.body.id }).first()
+    expect(saved.operatory_id).toBe(rooms[2].id)
+    expect(saved.start_utc.toISOString()).toBe(new Date(utcAt(`${DAY}T10:30`, ZONE)).toISOString())
+    await screenshot(page, 'chairboard-moved-from-panel')
+  })
+
   it('shows a booking made by someone else within 5 seconds, without reloading', async () => {
     const { page } = browser
     await openBoardOn(page)

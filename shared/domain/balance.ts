@@ -1,0 +1,98 @@
+// Balance: how much of each chair's open time and each provider's shift time visits take, over a
+// range. Pure; times are epoch milliseconds. A chair is "held" by any segment of a live visit (the
+// chair is taken while numbing and during reset too); a provider is "working" only in hands_on
+// segments, the time nobody else can use. Shares are of the time open (chairs) or on shift
+// (providers) inside the range.
+import type { EpochInterval } from '../types/rota'
+import type { StepKind } from '../types/chair-time'
+import { clipIntervals, intersectIntervals, mergeIntervals, totalDurationMs } from './intervals'
+
+export interface BalanceSegment {
+  operatoryId: number
+  /** Null for time that needs no provider (a reset, say). */
+  providerId: number | null
+  kind: StepKind
+  startMs: number
+  endMs: number
+}
+
+export interface BalanceInput {
+  fromMs: number
+  toMs: number
+  /** Open, unblocked time per chair (from the rota expansion). */
+  operatories: Array<{ operatoryId: number; intervals: readonly EpochInterval[] }>
+  /** On-shift, unblocked time per provider at this site. */
+  providers: Array<{ providerId: number; intervals: readonly EpochInterval[] }>
+  /** Live visits' segments in this site's chairs. */
+  segments: readonly BalanceSegment[]
+}
+
+/** Where a share sits against the manager's two thresholds. Our own words. */
+export type BalanceBand = 'quiet' | 'steady' | 'tight'
+
+export interface BalanceThresholds {
+  /** Below this share a chair or provider is 'quiet' (time going unused). */
+  quietBelow: number
+  /** At or above this share it is 'tight' (no room left for an emergency). */
+  tightFrom: number
+}
+
+/** Defaults a practice can change (query parameters of GET /api/balance); common practice, no source. */
+export const DEFAULT_BALANCE_THRESHOLDS: BalanceThresholds = { quietBelow: 0.5, tightFrom: 0.9 }
+
+export interface UseFigures {
+  availableMinutes: number
+  usedMinutes: number
+  /** usedMinutes / availableMinutes, or null when there was no time to use. */
+  share: number | null
+  band: BalanceBand | null
+}
+
+export interface ChairUse extends UseFigures { operatoryId: number }
+export interface ProviderUse extends UseFigures { providerId: number }
+
+export interface SiteBalance {
+  operatories: ChairUse[]
+  providers: ProviderUse[]
+  /** All chairs of the site together. */
+  chairs: UseFigures
+}
+
+export function bandOf(share: number | null, thresholds: BalanceThresholds = DEFAULT_BALANCE_THRESHOLDS): BalanceBand | null {
+  if (share === null) return null
+  if (share < thresholds.quietBelow) return 'quiet'
+  if (share >= thresholds.tightFrom) return 'tight'
+  return 'steady'
+}
+
+function figures(availableMs: number, usedMs: number, thresholds: BalanceThresholds): UseFigures {
+  const share = availableMs > 0 ? usedMs / availableMs : null
+  return { availableMinutes: Math.round(availableMs / 60_000), usedMinutes: Math.round(usedMs / 60_000), share, band: bandOf(share, thresholds) }
+}
+
+/** Used time counts only inside the available time, so a share never passes 100 %. */
+function usedWithin(available: readonly EpochInterval[], used: EpochInterval[]): number {
+  return totalDurationMs(intersectIntervals(available, mergeIntervals(used)))
+}
+
+export function siteBalance(input: BalanceInput, thresholds: BalanceThresholds = DEFAULT_BALANCE_THRESHOLDS): SiteBalance {
+  const range = { startMs: input.fromMs, endMs: input.toMs }
+  const clip = (intervals: readonly EpochInterval[]) => clipIntervals(mergeIntervals(intervals), range.startMs, range.endMs)
+  let chairsAvailable = 0
+  let chairsUsed = 0
+  const operatories = input.operatories.map(({ operatoryId, intervals }) => {
+    const open = clip(intervals)
+    const held = input.segments.filter((segment) => segment.operatoryId === operatoryId)
+    const availableMs = totalDurationMs(open)
+    const usedMs = usedWithin(open, held)
+    chairsAvailable += availableMs
+    chairsUsed += usedMs
+    return { operatoryId, ...figures(availableMs, usedMs, thresholds) }
+  })
+  const providers = input.providers.map(({ providerId, intervals }) => {
+    const onShift = clip(intervals)
+    const working = input.segments.filter((segment) => segment.providerId === providerId && segment.kind === 'hands_on')
+    return { providerId, ...figures(totalDurationMs(onShift), usedWithin(onShift, working), thresholds) }
+  })
+  return { operatories, providers, chairs: figures(chairsAvailable, chairsUsed, thresholds) }
+}

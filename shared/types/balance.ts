@@ -1,0 +1,23 @@
+// What the Balance screen shows: per site, its chairs together, each chair and each provider.
+import type { BalanceThresholds, UseFigures } from '../domain/balance'
+
+export interface NamedUse extends UseFigures {
+  id: number
+  name: string
+}
+
+export interface SiteBalanceDto {
+  siteId: number
+  siteName: string
+  timeZone: string
+  chairs: UseFigures
+  operatories: NamedUse[]
+  providers: NamedUse[]
+}
+
+export interface BalanceResponse {
+  from: string
+  to: string
+  thresholds: BalanceThresholds
+  sites: SiteBalanceDto[]
+}
