@@ -1,12 +1,13 @@
 // Everything the pure availability expansion needs for one site, read in one go.
 import type { Db } from '../utils/db'
 import type { ExpandAvailabilityInput, OpeningHours } from '#shared/types/rota'
+import { siteSettingsOf } from '#shared/domain/site-settings'
 import { parseJson } from './json'
 
 export type SiteCalendarInputs = Omit<ExpandAvailabilityInput, 'fromUtc' | 'toUtc'> & {
   bookingUnitMinutes: number
   minimumNoticeMinutes: number
-  /** sites.settings as stored (mail settings and the like; see services/mail/mail-settings.ts). */
+  /** sites.settings as stored (mail settings and the like; see shared/domain/site-settings.ts). */
   settings: Record<string, unknown>
   operatoryDetails: Array<{ id: number; name: string; capabilities: string[]; active: boolean }>
 }
@@ -85,7 +86,7 @@ export async function loadSiteCalendar(db: Db, siteId: number, options: Calendar
   const site = await query as SiteRow | undefined
   if (!site) return undefined
   const tables = await calendarTables(db, site, !db.isTransaction || Boolean(options.forBooking))
-  const settings = parseJson<Record<string, unknown> & { minimumNoticeMinutes?: number }>(site.settings, {})
+  const settings = parseJson<Record<string, unknown>>(site.settings, {})
   return {
     site: {
       id: site.id, timeZone: site.time_zone,
@@ -93,7 +94,7 @@ export async function loadSiteCalendar(db: Db, siteId: number, options: Calendar
       closedDates: parseJson<string[]>(site.closed_dates, []),
     },
     bookingUnitMinutes: site.booking_unit_minutes,
-    minimumNoticeMinutes: settings.minimumNoticeMinutes ?? 60,
+    minimumNoticeMinutes: siteSettingsOf(settings).minimumNoticeMinutes,
     settings,
     ...tables,
   }

@@ -110,3 +110,15 @@ export async function updateSite(db: Db, id: number, patch: SitePatch): Promise<
   if (Object.keys(columns).length === 0) return
   await db('sites').where({ id }).update({ ...columns, updated_at: db.fn.now(3) })
 }
+
+/** sites.settings as stored; `forUpdate` locks the row for a change that follows in the same transaction. */
+export async function findStoredSettings(db: Db, id: number, options: { forUpdate?: boolean } = {}): Promise<Record<string, unknown> | undefined> {
+  const query = db('sites').where({ id }).first('settings')
+  if (options.forUpdate) query.forUpdate()
+  const row = await query
+  return row ? parseJson<Record<string, unknown>>(row.settings, {}) : undefined
+}
+
+export async function writeStoredSettings(db: Db, id: number, settings: Record<string, unknown>): Promise<void> {
+  await db('sites').where({ id }).update({ settings: JSON.stringify(settings), updated_at: db.fn.now(3) })
+}

@@ -4,7 +4,9 @@ import type { SiteDetail } from '#shared/types/sites'
 import type { SiteBody, SitePatch } from '#shared/schemas/sites'
 import type { Db } from '../utils/db'
 import { conflict, isDuplicateKey, notFound } from '../utils/errors'
-import { findSiteDetail, insertSite, updateSite } from '../repositories/sites'
+import type { SiteSettingsBody } from '#shared/schemas/site-settings'
+import { siteSettingsOf, type SiteSettings } from '#shared/domain/site-settings'
+import { findSiteDetail, findStoredSettings, insertSite, updateSite, writeStoredSettings } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
 
 export function slugOf(name: string): string {
@@ -29,4 +31,20 @@ export async function changeSite(trx: Db, actor: SessionUser, id: number, patch:
   await updateSite(trx, id, patch).catch((error: unknown) => duplicateSlug(error, patch.slug))
   await writeAudit(trx, { userId: actor.id, action: 'site_changed', entity: 'site', entityId: id, before, after: patch })
   return (await findSiteDetail(trx, id))!
+}
+
+export async function siteSettings(db: Db, id: number): Promise<SiteSettings> {
+  const stored = await findStoredSettings(db, id)
+  if (!stored) throw notFound('No such site.')
+  return siteSettingsOf(stored)
+}
+
+/** Replaces the settings this form owns and keeps any other keys stored alongside them. */
+export async function changeSiteSettings(trx: Db, actor: SessionUser, id: number, body: SiteSettingsBody): Promise<SiteSettings> {
+  const stored = await findStoredSettings(trx, id, { forUpdate: true })
+  if (!stored) throw notFound('No such site.')
+  const before = siteSettingsOf(stored)
+  await writeStoredSettings(trx, id, { ...stored, ...body })
+  await writeAudit(trx, { userId: actor.id, action: 'site_settings_changed', entity: 'site', entityId: id, before, after: body })
+  return siteSettingsOf({ ...stored, ...body })
 }

@@ -14,7 +14,7 @@ import { writeAudit } from '../repositories/audit-log'
 import { enqueueMessage } from '../repositories/outbox'
 import { visitFacts } from './mail/visit-facts'
 import { methodFor, visitCalendar } from './mail/calendar'
-import { mailSettingsOf } from './mail/mail-settings'
+import { mailSettingsOf } from '#shared/domain/site-settings'
 import { dropQueuedReminders } from './mail/reminders'
 
 const LINK_NOT_FOUND = 'This link is not valid. Please call the practice.'

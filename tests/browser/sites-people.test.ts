@@ -52,6 +52,37 @@ describe('Sites & rooms', () => {
   })
 })
 
+describe('Patient e-mail and booking settings', () => {
+  it('shows the defaults, names a wrong reminder list before sending, and keeps what was saved', async () => {
+    const { page } = browser
+    const name = `Larkspur annex ${randomUUID().slice(0, 6)}`
+    await testDb()('sites').insert({ name, slug: `larkspur-${randomUUID().slice(0, 6)}`, time_zone: 'America/Chicago', opening_hours: '{}', closed_dates: '[]', settings: '{}' })
+    await page.goto('/sites')
+    await page.getByTestId('site-rows').getByRole('button', { name }).click()
+    const form = page.getByTestId('site-settings')
+    const reminders = form.getByLabel('Reminders, hours before the visit')
+    await expect.poll(() => reminders.inputValue()).toBe('48, 3')
+    expect(await form.getByLabel('Earliest start, minutes from now').inputValue()).toBe('60')
+
+    await reminders.fill('24, 24')
+    await form.getByRole('button', { name: 'Save settings' }).click()
+    await expect.poll(() => form.locator('.field-error').first().textContent()).toBe('lists the same hour twice')
+
+    await reminders.fill('72, 24')
+    await form.getByLabel('What to bring').fill('your insurance card and a mask')
+    await form.getByLabel('The patient\'s cancel link').selectOption('cancel')
+    await form.getByRole('button', { name: 'Save settings' }).click()
+    await expect.poll(() => form.getByRole('status').textContent()).toMatch(/^Saved for Larkspur annex/)
+    await screenshot(page, 'site-settings-saved')
+
+    await page.reload()
+    await page.getByTestId('site-rows').getByRole('button', { name }).click()
+    await expect.poll(() => page.getByTestId('site-settings').getByLabel('Reminders, hours before the visit').inputValue()).toBe('72, 24')
+    expect(await page.getByTestId('site-settings').getByLabel('What to bring').inputValue()).toBe('your insurance card and a mask')
+    expect(await page.getByTestId('site-settings').getByLabel('The patient\'s cancel link').inputValue()).toBe('cancel')
+  })
+})
+
 describe('People', () => {
   it('lists staff accounts, filtered by role, and the providers', async () => {
     const { page } = browser

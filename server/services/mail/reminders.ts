@@ -3,7 +3,7 @@
 import type { Db } from '../../utils/db'
 import { planReminders } from '#shared/domain/reminders'
 import { skipQueuedReminders, type NewOutboxMessage } from '../../repositories/outbox'
-import { mailSettingsOf } from './mail-settings'
+import { mailSettingsOf } from '#shared/domain/site-settings'
 import { scheduleNowMs } from '../../utils/clock'
 
 export async function dropQueuedReminders(db: Db, appointmentId: number): Promise<void> {

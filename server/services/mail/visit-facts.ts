@@ -1,7 +1,7 @@
 // The plain facts a patient message states about a visit, in the site's zone (luxon at the edge).
 import { DateTime } from 'luxon'
 import type { MailContext } from '../../repositories/mail-context'
-import { mailSettingsOf, type MailSettings } from './mail-settings'
+import { mailSettingsOf, type MailSettings } from '#shared/domain/site-settings'
 
 export interface VisitFacts {
   settings: MailSettings

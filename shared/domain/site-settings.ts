@@ -1,6 +1,7 @@
-// A site's patient-mail settings (sites.settings JSON) with the group's defaults.
-import type { QuietHours } from '#shared/domain/reminders'
-import type { PatientCancelPolicy } from '#shared/types/outbox'
+// A site's settings (sites.settings JSON) with the group's defaults: patient e-mail and the
+// booking notice. Pure: the server reads them, the Sites screen shows and edits them.
+import type { QuietHours } from './reminders'
+import type { PatientCancelPolicy } from '../types/outbox'
 
 export interface MailSettings {
   reminderOffsetsHours: number[]
@@ -37,5 +38,20 @@ export function mailSettingsOf(settings: Record<string, unknown>): MailSettings 
     patientCancel: settings.patientCancel === 'cancel' ? 'cancel' : 'request',
     whatToBring: typeof settings.whatToBring === 'string' && settings.whatToBring.trim() ? settings.whatToBring.trim() : DEFAULT_WHAT_TO_BRING,
     alarmMinutes: typeof settings.alarmMinutes === 'number' && settings.alarmMinutes > 0 ? settings.alarmMinutes : 60,
+  }
+}
+
+export interface SiteSettings extends MailSettings {
+  /** How soon a visit may start, counted from now. */
+  minimumNoticeMinutes: number
+}
+
+export const DEFAULT_MINIMUM_NOTICE_MINUTES = 60
+
+export function siteSettingsOf(settings: Record<string, unknown>): SiteSettings {
+  const notice = settings.minimumNoticeMinutes
+  return {
+    ...mailSettingsOf(settings),
+    minimumNoticeMinutes: typeof notice === 'number' && Number.isInteger(notice) && notice >= 0 ? notice : DEFAULT_MINIMUM_NOTICE_MINUTES,
   }
 }
