@@ -27,6 +27,8 @@ export default defineNuxtConfig({
       user: 'cuspline',
       password: '',
       database: 'cuspline',
+      // A booking waits at most this long for another booking's row lock, then is retried (503 after three tries).
+      lockWaitSeconds: 5,
     },
     auth: {
       idleMinutes: 30,

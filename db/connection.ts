@@ -8,6 +8,8 @@ export interface DbSettings {
   password: string
   database: string
   poolMax?: number
+  /** How long a statement waits for a row lock before MariaDB gives up (error 1205); its default is 50 s. */
+  lockWaitSeconds?: number
 }
 
 export function createDb(settings: DbSettings): Knex {
@@ -32,7 +34,8 @@ export function createDb(settings: DbSettings): Knex {
       // READ COMMITTED (bookings rely on it: no gap locks, each statement sees the latest commits);
       // set once per connection, it saves each transaction the extra SET TRANSACTION round trip.
       afterCreate(connection: { query: (sql: string, cb: (err: Error | null) => void) => void }, done: (err: Error | null, conn: unknown) => void) {
-        connection.query("SET time_zone = '+00:00', SESSION tx_isolation = 'READ-COMMITTED'", (err) => done(err, connection))
+        const lockWait = settings.lockWaitSeconds ? `, SESSION innodb_lock_wait_timeout = ${Math.max(1, Math.round(settings.lockWaitSeconds))}` : ''
+        connection.query(`SET time_zone = '+00:00', SESSION tx_isolation = 'READ-COMMITTED'${lockWait}`, (err) => done(err, connection))
       },
     },
   })

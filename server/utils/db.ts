@@ -12,7 +12,7 @@ export function useDb(): Knex {
     if (!db.password) {
       throw new Error('Database password missing: set NUXT_DB_PASSWORD (scripts/lib/env.sh does this).')
     }
-    instance = createDb({ ...db, port: Number(db.port), poolMax: 20 })
+    instance = createDb({ ...db, port: Number(db.port), lockWaitSeconds: Number(db.lockWaitSeconds), poolMax: 20 })
   }
   return instance
 }

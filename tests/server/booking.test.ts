@@ -234,6 +234,51 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
     const reused = await manager.post('/api/appointments', { ...body, operatoryId: annex.operatoryIds[3] }, { headers })
     expect(reused.status).toBe(409)
   })
+
+  describe('a chair locked by someone else for too long', () => {
+    let impatient: RunningServer
+    let onImpatient: ApiClient
+    beforeAll(async () => {
+      // This server waits one second for a row lock (MariaDB error 1205 after that), then retries.
+      impatient = await startAppServer({ NUXT_DB_LOCK_WAIT_SECONDS: '1' })
+      onImpatient = new ApiClient(impatient.url)
+      await onImpatient.signIn('manager@fernhollow.test')
+    })
+    afterAll(async () => { await impatient?.stop() })
+
+    /** Holds the chair's row lock the way a booking does, until the returned release is called. */
+    async function holdChair(operatoryId: number) {
+      const trx = await testDb().transaction()
+      await trx('operatories').where({ id: operatoryId }).increment('booking_seq', 1)
+      return () => trx.rollback()
+    }
+
+    it('is retried, and answers 503 in words after the third lock wait timeout, booking nothing', async () => {
+      const startUtc = utcAt('2027-03-05T09:00', annex.timeZone)
+      const release = await holdChair(annex.operatoryIds[4]!)
+      try {
+        const started = Date.now()
+        const response = await onImpatient.post('/api/appointments', annexBooking(1, { startUtc, operatoryId: annex.operatoryIds[4] }))
+        expect(response.status).toBe(503)
+        expect(response.body.message).toBe('The schedule is very busy right now. Please try again.')
+        // Three attempts of about one second each: it did wait and retry, not fail at once.
+        expect(Date.now() - started).toBeGreaterThanOrEqual(2_900)
+      } finally {
+        await release()
+      }
+      expect(await visitsAt(annex.operatoryIds[4]!, startUtc)).toBe(0)
+    })
+
+    it('books once the lock is let go during a retry', async () => {
+      const startUtc = utcAt('2027-03-05T11:00', annex.timeZone)
+      const release = await holdChair(annex.operatoryIds[5]!)
+      const pending = onImpatient.post('/api/appointments', annexBooking(2, { startUtc, operatoryId: annex.operatoryIds[5] }))
+      await new Promise((wait) => setTimeout(wait, 1_500))
+      await release()
+      expect((await pending).status).toBe(201)
+      expect(await visitsAt(annex.operatoryIds[5]!, startUtc)).toBe(1)
+    })
+  })
 })
 
 describe('patients for booking', () => {
