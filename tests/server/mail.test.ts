@@ -274,6 +274,8 @@ describe('Outbox API', () => {
     const invitation = list.body.find((message: { kind: string }) => message.kind === 'invitation')
     expect(invitation).toMatchObject({ state: 'sent', recipient: annex.emails[4] })
     expect(invitation.messageId).toBe(first.parsed.messageId)
+    // One Message-ID per outbox row (RFC 5322 §3.6.4), so a copy sent twice after a crash is one message.
+    expect(first.parsed.messageId).toMatch(new RegExp(`^<outbox-${invitation.id}@[A-Za-z0-9.-]+>$`))
     const detail = await manager.get(`/api/outbox/${invitation.id}`)
     expect(detail.body).toMatchObject({ preview: false, rendered: { method: 'REQUEST', to: annex.emails[4], subject: first.parsed.subject } })
     expect(detail.body.rendered.ics).toContain(`UID:${booked.body.icalUid}`)
@@ -284,6 +286,7 @@ describe('Outbox API', () => {
     expect(again.status).toBe(201)
     const copy = await waitForOutboxMail(annex.emails[4]!, again.body.id)
     expect(veventOf(calendarOf(copy)).getFirstPropertyValue('uid')).toBe(booked.body.icalUid)
+    expect(copy.parsed.messageId).not.toBe(first.parsed.messageId)
     expect((await manager.post(`/api/outbox/${reminder.id}/resend`)).status).toBe(409)
   })
 
