@@ -1,7 +1,6 @@
 // Booking throughput over HTTP (16 concurrent clients, non-conflicting slots) against the raw
 // ceiling of the same database work done by a plain mysql2 loop with no app around it.
 // Uses its own database (cuspline_bench) and the built app. Figures only, no assertions.
-import { execFileSync } from 'node:child_process'
 import { readFileSync } from 'node:fs'
 import { Agent, request } from 'node:http'
 import { performance } from 'node:perf_hooks'
@@ -69,8 +68,9 @@ function cpuSeconds(pid: number): number {
   return (Number(fields[11]) + Number(fields[12])) / 100
 }
 
+/** This checkout's own MariaDB (scripts/db-start.sh writes its pid file), not any other on the machine. */
 function mariadbPid(): number {
-  return Number(execFileSync('pidof', ['mariadbd'], { encoding: 'utf8' }).trim().split(/\s+/)[0])
+  return Number(readFileSync(`${process.env.DATA_DIR ?? '.data'}/mariadb.pid`, 'utf8').trim())
 }
 
 /** Runs `work` and says how many CPU milliseconds per booking each process spent on it. */
