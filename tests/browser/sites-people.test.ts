@@ -56,7 +56,8 @@ describe('Patient e-mail and booking settings', () => {
   it('shows the defaults, names a wrong reminder list before sending, and keeps what was saved', async () => {
     const { page } = browser
     const name = `Larkspur annex ${randomUUID().slice(0, 6)}`
-    await testDb()('sites').insert({ name, slug: `larkspur-${randomUUID().slice(0, 6)}`, time_zone: 'America/Chicago', opening_hours: '{}', closed_dates: '[]', settings: '{}' })
+    // Closed (inactive): admins still see it here, and no other screen picks it as a default site.
+    await testDb()('sites').insert({ name, slug: `larkspur-${randomUUID().slice(0, 6)}`, time_zone: 'America/Chicago', opening_hours: '{}', closed_dates: '[]', settings: '{}', active: false })
     await page.goto('/sites')
     await page.getByTestId('site-rows').getByRole('button', { name }).click()
     const form = page.getByTestId('site-settings')

@@ -33,7 +33,8 @@ afterAll(closeTestDb)
 
 describe('site settings', () => {
   it('reads the group defaults for a site that never set any', async () => {
-    const [siteId] = await testDb()('sites').insert({ name: `Defaults annex ${Date.now()}`, slug: `defaults-${Date.now()}`, time_zone: 'America/Chicago', opening_hours: '{}', closed_dates: '[]', settings: '{}' })
+    // Closed (inactive), so it never becomes anyone's default site on the browser tests' screens.
+    const [siteId] = await testDb()('sites').insert({ name: `Defaults annex ${Date.now()}`, slug: `defaults-${Date.now()}`, time_zone: 'America/Chicago', opening_hours: '{}', closed_dates: '[]', settings: '{}', active: false })
     const response = await manager.get(`/api/sites/${siteId}/settings`)
     expect(response.status).toBe(200)
     expect(response.body).toMatchObject({ minimumNoticeMinutes: 60, reminderOffsetsHours: [48, 3], quietHours: { start: '20:00', end: '08:00' }, includeProcedureNames: false, patientCancel: 'request', alarmMinutes: 60 })
