@@ -107,6 +107,27 @@ function post(url: string, cookie: string, body: string): Promise<number> {
   })
 }
 
+function get(url: string, cookie: string): Promise<number> {
+  return new Promise((done, fail) => {
+    const sent = request(url, { agent, headers: { cookie } }, (response) => {
+      response.resume()
+      response.on('end', () => done(response.statusCode ?? 0))
+    })
+    sent.on('error', fail)
+    sent.end()
+  })
+}
+
+/** The floor under any API call: a signed-in GET /api/me (session unsealed, account checked, no booking work). */
+async function signedInGets(baseURL: string, cookies: string[], perClient: number) {
+  await Promise.all(cookies.map(async (cookie) => {
+    for (let index = 0; index < perClient; index += 1) {
+      if ((await get(`${baseURL}/api/me`, cookie)) !== 200) throw new Error('GET /api/me did not answer 200')
+    }
+  }))
+  return {}
+}
+
 /** Each client books its own lane; slot numbers from `first` on, so warm-up and run never meet. */
 async function httpRun(baseURL: string, site: BenchSite, cookies: string[], first: number, count: number) {
   const latencies: number[] = []
@@ -186,6 +207,8 @@ try {
   const database = mariadbPid()
   const ceiling = await withCpu({ client: process.pid, database }, total, () => rawCeiling(site, WARM_UP_PER_CLIENT, BOOKINGS_PER_CLIENT))
   const http = await withCpu({ client: process.pid, app: server.pid, database }, total, () => httpRun(server.url, site, cookies, WARM_UP_PER_CLIENT, BOOKINGS_PER_CLIENT))
+  await signedInGets(server.url, cookies, WARM_UP_PER_CLIENT)
+  const floor = await withCpu({ app: server.pid }, total, () => signedInGets(server.url, cookies, BOOKINGS_PER_CLIENT))
   const fmt = (value: number) => value.toFixed(1)
   console.log(`booking throughput, ${CLIENTS} concurrent clients × ${BOOKINGS_PER_CLIENT} non-conflicting bookings (after ${WARM_UP_PER_CLIENT} warm-up each)`)
   console.log(`  raw mysql2 ceiling : ${fmt(ceiling.perSecond)} bookings/s  (p50 ${fmt(ceiling.p50)} ms, p95 ${fmt(ceiling.p95)} ms)`)
@@ -193,6 +216,7 @@ try {
   console.log(`  app / ceiling       : ${fmt((http.perSecond / ceiling.perSecond) * 100)} %`)
   console.log(`  CPU ms per booking, ceiling: ${cpuLine(ceiling.cpuMsPerBooking)}`)
   console.log(`  CPU ms per booking, HTTP   : ${cpuLine(http.cpuMsPerBooking)}`)
+  console.log(`  CPU ms per signed-in GET /api/me (the floor under any API call): ${cpuLine(floor.cpuMsPerBooking)}`)
 } finally {
   await server.stop()
   await db.destroy()
