@@ -14,7 +14,8 @@ const DAYS_BACK = 7
 const DAYS_AHEAD = 7
 const HOUR = 3_600_000
 const CANCEL_REASONS = ['Patient unwell', 'Work conflict', 'Asked to rebook next month', 'Transport fell through']
-const VISITS_PER_ROOM_PER_DAY = 4
+// Busy in the city, quieter out of town: the Balance screen has an imbalance to show.
+const VISITS_PER_ROOM_PER_DAY: Record<string, number> = { 'quarry-street': 7, 'aspen-gulch': 5, 'saguaro-flats': 3 }
 const MIX = [
   { weight: 5, items: (f: Faker) => [{ templateCode: 'COMP-POST', tooth: f.helpers.arrayElement(['3', '14', '19', '30', '4', '13', '20', '29']), surfaces: f.helpers.arrayElement(['O', 'MO', 'DO', 'MOD', 'MODB']) }] },
   { weight: 2, items: (f: Faker) => [{ templateCode: 'COMP-ANT', tooth: f.helpers.arrayElement(['7', '8', '9', '10', '23', '26']), surfaces: f.helpers.arrayElement(['M', 'D', 'MI', 'DF']) }] },
@@ -35,7 +36,7 @@ if (Number(existing?.count ?? 0) > 0) {
   await db.destroy()
   process.exit(0)
 }
-const sites = await db('sites').whereIn('slug', ['quarry-street', 'aspen-gulch', 'saguaro-flats']).select('id', 'time_zone', 'name')
+const sites = await db('sites').whereIn('slug', ['quarry-street', 'aspen-gulch', 'saguaro-flats']).select('id', 'time_zone', 'name', 'slug')
 const roomCounts = new Map((await db('operatories').whereIn('site_id', sites.map((site) => site.id)).groupBy('site_id').select('site_id').count({ count: '*' })).map((row) => [Number((row as { site_id: number }).site_id), Number(row.count)]))
 const patientIds: number[] = await db('patients').orderBy('id').pluck('id')
 await db.destroy()
@@ -59,7 +60,7 @@ try {
   for (const site of sites) {
     for (let day = -DAYS_BACK; day <= DAYS_AHEAD; day += 1) {
       const date = DateTime.now().setZone(site.time_zone).plus({ days: day }).toISODate()!
-      const target = (roomCounts.get(site.id) ?? 1) * VISITS_PER_ROOM_PER_DAY
+      const target = (roomCounts.get(site.id) ?? 1) * (VISITS_PER_ROOM_PER_DAY[site.slug] ?? 4)
       let bookedToday = 0
       for (let attempt = 0; attempt < target * 2 && bookedToday < target; attempt += 1) {
         const choice = faker.helpers.weightedArrayElement(MIX.map((entry) => ({ weight: entry.weight, value: entry })))
