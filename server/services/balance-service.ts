@@ -13,6 +13,15 @@ import { listSites } from '../repositories/sites'
 import { loadSiteCalendar } from '../repositories/site-calendar'
 import { busySegments, providersByIds } from '../repositories/openings-inputs'
 
+/** Each local date from..to with its own start and end instants (23 or 25 hours across a DST change). */
+function localDays(from: string, to: string, zone: string) {
+  const days = []
+  for (let day = DateTime.fromISO(from, { zone }).startOf('day'); day.toISODate()! <= to; day = day.plus({ days: 1 })) {
+    days.push({ date: day.toISODate()!, startMs: day.toMillis(), endMs: day.plus({ days: 1 }).toMillis() })
+  }
+  return days
+}
+
 async function oneSite(db: Db, site: { id: number; name: string }, query: BalanceQuery, thresholds: BalanceThresholds): Promise<SiteBalanceDto> {
   const calendar = (await loadSiteCalendar(db, site.id))!
   const zone = calendar.site.timeZone
@@ -23,12 +32,12 @@ async function oneSite(db: Db, site: { id: number; name: string }, query: Balanc
   const segments = await busySegments(db, rooms.map((room) => room.id), [], fromMs, toMs)
   const names = new Map((await providersByIds(db, availability.providers.map((entry) => entry.providerId))).map((provider) => [provider.id, provider.name]))
   const figures = siteBalance({
-    fromMs, toMs, segments,
+    fromMs, toMs, segments, days: localDays(query.from, query.to, zone),
     operatories: rooms.map((room) => ({ operatoryId: room.id, intervals: availability.operatories.find((entry) => entry.operatoryId === room.id)?.intervals ?? [] })),
     providers: availability.providers.filter((entry) => names.has(entry.providerId)),
   }, thresholds)
   return {
-    siteId: site.id, siteName: site.name, timeZone: zone, chairs: figures.chairs,
+    siteId: site.id, siteName: site.name, timeZone: zone, chairs: figures.chairs, days: figures.days,
     operatories: figures.operatories.map(({ operatoryId, ...use }) => ({ id: operatoryId, name: rooms.find((room) => room.id === operatoryId)!.name, ...use })),
     providers: figures.providers.map(({ providerId, ...use }) => ({ id: providerId, name: names.get(providerId)!, ...use }))
       .sort((a, b) => a.name.localeCompare(b.name)),

@@ -25,6 +25,8 @@ export interface BalanceInput {
   providers: Array<{ providerId: number; intervals: readonly EpochInterval[] }>
   /** Live visits' segments in this site's chairs. */
   segments: readonly BalanceSegment[]
+  /** The site's local days inside the range (the caller finds their edges in the site's zone). */
+  days?: ReadonlyArray<{ date: string; startMs: number; endMs: number }>
 }
 
 /** Where a share sits against the manager's two thresholds. Our own words. */
@@ -51,11 +53,15 @@ export interface UseFigures {
 export interface ChairUse extends UseFigures { operatoryId: number }
 export interface ProviderUse extends UseFigures { providerId: number }
 
+export interface DayUse extends UseFigures { date: string }
+
 export interface SiteBalance {
   operatories: ChairUse[]
   providers: ProviderUse[]
   /** All chairs of the site together. */
   chairs: UseFigures
+  /** All chairs together, day by day: which days are quiet and which are tight. */
+  days: DayUse[]
 }
 
 export function bandOf(share: number | null, thresholds: BalanceThresholds = DEFAULT_BALANCE_THRESHOLDS): BalanceBand | null {
@@ -94,5 +100,15 @@ export function siteBalance(input: BalanceInput, thresholds: BalanceThresholds =
     const working = input.segments.filter((segment) => segment.providerId === providerId && segment.kind === 'hands_on')
     return { providerId, ...figures(totalDurationMs(onShift), usedWithin(onShift, working), thresholds) }
   })
-  return { operatories, providers, chairs: figures(chairsAvailable, chairsUsed, thresholds) }
+  const days = (input.days ?? []).map((day) => {
+    let availableMs = 0
+    let usedMs = 0
+    for (const { operatoryId, intervals } of input.operatories) {
+      const open = clipIntervals(mergeIntervals(intervals), Math.max(day.startMs, range.startMs), Math.min(day.endMs, range.endMs))
+      availableMs += totalDurationMs(open)
+      usedMs += usedWithin(open, input.segments.filter((segment) => segment.operatoryId === operatoryId))
+    }
+    return { date: day.date, ...figures(availableMs, usedMs, thresholds) }
+  })
+  return { operatories, providers, chairs: figures(chairsAvailable, chairsUsed, thresholds), days }
 }

@@ -1,5 +1,5 @@
 // What the Balance screen shows: per site, its chairs together, each chair and each provider.
-import type { BalanceThresholds, UseFigures } from '../domain/balance'
+import type { BalanceThresholds, DayUse, UseFigures } from '../domain/balance'
 
 export interface NamedUse extends UseFigures {
   id: number
@@ -11,6 +11,8 @@ export interface SiteBalanceDto {
   siteName: string
   timeZone: string
   chairs: UseFigures
+  /** All chairs together per local date of the range. */
+  days: DayUse[]
   operatories: NamedUse[]
   providers: NamedUse[]
 }

@@ -40,6 +40,12 @@ describe('Balance', () => {
     expect(await chair1.locator('[data-band]').getAttribute('data-band')).toBe('quiet')
     await screenshot(page, 'balance-manager')
 
+    // A week shows the site's chairs day by day, Tuesday 22 to Monday 28 June.
+    await page.getByLabel('To', { exact: true }).fill('2027-06-28')
+    await expect.poll(() => quarry.getByTestId('balance-day').count()).toBe(7)
+    expect(await quarry.getByTestId('balance-day').first().getAttribute('data-date')).toBe(DAY)
+    await screenshot(page, 'balance-week')
+
     // With "quiet" below 0 % nothing is quiet any more: the same chair reads steady.
     await page.getByLabel('Quiet below %').fill('0')
     await expect.poll(async () => chair1.locator('[data-band]').getAttribute('data-band')).toBe('steady')

@@ -57,6 +57,7 @@ describe('balance', () => {
     expect(site.providers[0]).toMatchObject({ id: annex.providerIds[0], availableMinutes: 1440, usedMinutes: minutesOf(booked.body.segments, ['hands_on']) })
     expect(minutesOf(booked.body.segments, ['hands_on'])).toBeLessThan(minutesOf(booked.body.segments))
     expect(site.chairs).toMatchObject({ availableMinutes: 2880, usedMinutes: minutesOf(booked.body.segments) })
+    expect(site.days).toEqual([{ date: DAY, ...site.chairs }])
   })
 
   it('gives every site in the manager\'s scope when no site is named, with the thresholds used', async () => {
@@ -69,5 +70,10 @@ describe('balance', () => {
     // Quarry Street has five rooms and is open on weekdays (the demo's opening hours).
     expect(quarry.operatories).toHaveLength(5)
     expect(quarry.chairs.availableMinutes).toBeGreaterThan(0)
+    // Day by day, Monday 14 to Sunday 20 June: Quarry Street is closed on Sundays (no share).
+    expect(quarry.days.map((day: { date: string }) => day.date)).toEqual(['2027-06-14', '2027-06-15', '2027-06-16', '2027-06-17', '2027-06-18', '2027-06-19', '2027-06-20'])
+    expect(quarry.days.at(-1)).toMatchObject({ availableMinutes: 0, share: null })
+    const total = quarry.days.reduce((sum: number, day: { availableMinutes: number }) => sum + day.availableMinutes, 0)
+    expect(Math.abs(total - quarry.chairs.availableMinutes)).toBeLessThanOrEqual(quarry.days.length)
   })
 })

@@ -74,6 +74,35 @@ describe('siteBalance', () => {
   })
 })
 
+describe('siteBalance day by day', () => {
+  it('splits the chairs\' figures into the given days, and they add up to the whole', () => {
+    const nextDay = (hours: number) => at(24 + hours)
+    const result = siteBalance({
+      fromMs: at(0), toMs: at(48),
+      operatories: [{ operatoryId: 1, intervals: [...morning, { startMs: nextDay(8), endMs: nextDay(12) }] }],
+      providers: [],
+      segments: [segment('hands_on', 9, 12), { kind: 'hands_on', operatoryId: 1, providerId: 7, startMs: nextDay(8), endMs: nextDay(9) }],
+      days: [{ date: '2027-01-11', startMs: at(0), endMs: at(24) }, { date: '2027-01-12', startMs: at(24), endMs: at(48) }],
+    })
+    expect(result.days).toEqual([
+      { date: '2027-01-11', availableMinutes: 240, usedMinutes: 180, share: 0.75, band: 'steady' },
+      { date: '2027-01-12', availableMinutes: 240, usedMinutes: 60, share: 0.25, band: 'quiet' },
+    ])
+    expect(result.chairs).toMatchObject({ availableMinutes: 480, usedMinutes: 240 })
+  })
+
+  it('gives a closed day no share', () => {
+    const result = siteBalance({
+      fromMs: at(0), toMs: at(48),
+      operatories: [{ operatoryId: 1, intervals: morning }],
+      providers: [],
+      segments: [],
+      days: [{ date: '2027-01-12', startMs: at(24), endMs: at(48) }],
+    })
+    expect(result.days[0]).toMatchObject({ availableMinutes: 0, share: null, band: null })
+  })
+})
+
 describe('bandOf', () => {
   it('puts the thresholds themselves in the upper band', () => {
     expect(bandOf(0.49)).toBe('quiet')
