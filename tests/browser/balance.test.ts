@@ -49,5 +49,12 @@ describe('Balance', () => {
     // With "quiet" below 0 % nothing is quiet any more: the same chair reads steady.
     await page.getByLabel('Quiet below %').fill('0')
     await expect.poll(async () => chair1.locator('[data-band]').getAttribute('data-band')).toBe('steady')
+
+    // Nonsense is named on the page, in the page's own words, and the figures stay as they were.
+    await page.getByLabel('Quiet below %').fill('95')
+    await expect.poll(() => page.getByRole('alert').textContent()).toBe('"Quiet below" must be lower than "Tight from".')
+    await page.getByLabel('Quiet below %').fill('0')
+    await page.getByLabel('To', { exact: true }).fill('2027-06-01')
+    await expect.poll(() => page.getByRole('alert').textContent()).toBe('To must not be before from.')
   })
 })
