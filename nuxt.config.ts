@@ -33,9 +33,15 @@ export default defineNuxtConfig({
     auth: {
       idleMinutes: 30,
       absoluteHours: 12,
-      accountFailureLimit: 10,
+      // Sign-in limits (server/services/auth-service.ts, shared/domain/sign-in-limits.ts), per 15-minute window:
+      // one address may fail 10 times on one account and 100 times in all before it gets 429; an account
+      // is never locked, but past 3 failures from anywhere each attempt waits 250 ms, doubling, at most 3 s.
+      accountAddressFailureLimit: 10,
       ipFailureLimit: 100,
       failureWindowMinutes: 15,
+      delayFreeFailures: 3,
+      delayBaseMs: 250,
+      delayMaxMs: 3000,
       trustProxy: false,
       allowedOrigins: '',
     },

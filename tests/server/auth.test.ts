@@ -51,7 +51,9 @@ describe('sign-in', () => {
     expect(rows).toHaveLength(1)
   })
 
-  it('limits repeated failures for one account with 429 and Retry-After, even for the right password', async () => {
+  it('refuses an address that keeps failing on one account with 429 and Retry-After, even for the right password', async () => {
+    // OWASP ASVS 4.0.3 V2.2.1: counted per (account, address); the account itself is never locked
+    // (the owner signing in from elsewhere: tests/server/sign-in-limits.test.ts).
     const user = await createTestUser()
     for (let attempt = 1; attempt <= 10; attempt += 1) {
       const response = await new ApiClient().post('/api/auth/login', { email: user.email, password: `wrong-${attempt}-password` })
@@ -60,6 +62,7 @@ describe('sign-in', () => {
     const limited = await new ApiClient().post('/api/auth/login', { email: user.email, password: user.password })
     expect(limited.status).toBe(429)
     expect(Number(limited.headers.get('retry-after'))).toBeGreaterThan(0)
+    expect(await testDb()('audit_log').where({ action: 'sign_in_refused', entity_id: user.email })).toHaveLength(1)
   })
 })
 
