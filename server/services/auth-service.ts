@@ -5,7 +5,7 @@ import { useDb } from '../utils/db'
 import { MESSAGES } from '../utils/errors'
 import { clientIp, limitKeyOf } from '../utils/client-ip'
 import { findUserByEmail, recordSignIn, siteIdsOfUser, toSessionUser, type UserRow } from '../repositories/users'
-import { accountAddressFailures, accountFailures, ipFailures, recordAttempt, type FailureWindow } from '../repositories/sign-in-attempts'
+import { accountAddressFailures, accountFailures, forgetAttempt, ipFailures, markAttemptSucceeded, recordPendingAttempt, type FailureWindow } from '../repositories/sign-in-attempts'
 import { writeAudit } from '../repositories/audit-log'
 import { refusalFor, signInDelayMs, type SignInLimits } from '#shared/domain/sign-in-limits'
 
@@ -39,13 +39,14 @@ function retryAfterSeconds(window: FailureWindow, windowMs: number): number {
  * refused with 429 and Retry-After. The account itself is never locked: the owner at another address
  * is not affected.
  */
-async function refuseWhenLimited(event: H3Event, email: string, row: UserRow | undefined, address: string, limitKey: string): Promise<void> {
+async function refuseWhenLimited(event: H3Event, email: string, row: UserRow | undefined, address: string, limitKey: string, attemptId: number): Promise<void> {
   const limits = limitsFromConfig()
   const since = new Date(Date.now() - limits.windowMs)
   const db = useDb()
-  const [pair, byAddress] = await Promise.all([accountAddressFailures(db, email, limitKey, since), ipFailures(db, limitKey, since)])
+  const [pair, byAddress] = await Promise.all([accountAddressFailures(db, email, limitKey, since, attemptId), ipFailures(db, limitKey, since, attemptId)])
   const reason = refusalFor({ accountAddress: pair.count, address: byAddress.count }, limits)
   if (!reason) return
+  await forgetAttempt(db, attemptId)
   const retryAfter = retryAfterSeconds(reason === 'address' ? byAddress : pair, limits.windowMs)
   await writeAudit(db, {
     userId: row?.id ?? null, action: 'sign_in_refused', entity: 'user', entityId: email, ip: address,
@@ -56,9 +57,9 @@ async function refuseWhenLimited(event: H3Event, email: string, row: UserRow | u
 }
 
 /** The growing, capped wait for an account many addresses have been failing on (never a refusal). */
-async function delayForAccount(email: string): Promise<number> {
+async function delayForAccount(email: string, attemptId: number): Promise<number> {
   const limits = limitsFromConfig()
-  const failures = await accountFailures(useDb(), email, new Date(Date.now() - limits.windowMs))
+  const failures = await accountFailures(useDb(), email, new Date(Date.now() - limits.windowMs), attemptId)
   const delayMs = signInDelayMs(failures.count, limits)
   if (delayMs > 0) await new Promise((resume) => setTimeout(resume, delayMs))
   return delayMs
@@ -70,22 +71,21 @@ export async function signIn(event: H3Event, rawEmail: string, password: string)
   const limitKey = limitKeyOf(address)
   const db = useDb()
   const row = await findUserByEmail(db, email)
-  await refuseWhenLimited(event, email, row, address, limitKey)
-  const delayMs = await delayForAccount(email)
+  const attemptId = await recordPendingAttempt(db, email, limitKey)
+  await refuseWhenLimited(event, email, row, address, limitKey, attemptId)
+  const delayMs = await delayForAccount(email, attemptId)
 
   const passwordOk = row?.active
     ? await verifyPassword(row.password_hash, password)
     : (await verifyPassword(await hashForUnknownAccounts(), password), false)
 
   if (!row || !passwordOk) {
-    await db.transaction(async (trx) => {
-      await recordAttempt(trx, email, limitKey, false)
-      await writeAudit(trx, { userId: row?.id ?? null, action: 'sign_in_failed', entity: 'user', entityId: email, ip: address, after: { delayMs } })
-    })
+    // The attempt is already counted as a failure.
+    await writeAudit(db, { userId: row?.id ?? null, action: 'sign_in_failed', entity: 'user', entityId: email, ip: address, after: { delayMs } })
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: MESSAGES.badCredentials })
   }
 
-  await recordAttempt(db, email, limitKey, true)
+  await markAttemptSucceeded(db, attemptId)
   await recordSignIn(db, row.id)
   const user = toSessionUser(row, await siteIdsOfUser(db, row.id))
   const now = Date.now()

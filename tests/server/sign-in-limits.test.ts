@@ -96,6 +96,20 @@ describe('per (account, address)', () => {
       expect((await signInFrom(desk, owner.email, owner.password)).status).toBe(200)
     }
   })
+
+  it('holds when the attacker sends its tries all at once (each attempt is counted before its password is checked)', async () => {
+    const owner = await createTestUser()
+    const attacker = `${documentationNetwork()}::bad`
+    const extra = 4
+    const answers = await Promise.all(Array.from({ length: PAIR_LIMIT + extra }, (_, attempt) => signInFrom(attacker, owner.email, `wrong-${attempt}-password`)))
+    const statuses = answers.map((answer) => answer.status).sort()
+    expect(statuses.filter((status) => status === 401).length).toBeLessThanOrEqual(PAIR_LIMIT)
+    expect(statuses.filter((status) => status === 429).length).toBeGreaterThanOrEqual(extra)
+    expect(statuses.every((status) => status === 401 || status === 429)).toBe(true)
+    // Refused tries are not counted as failures: the account saw at most the limit.
+    expect((await testDb()('sign_in_attempts').where({ email: owner.email, succeeded: false })).length).toBeLessThanOrEqual(PAIR_LIMIT)
+    expect((await signInFrom(`${documentationNetwork()}::1`, owner.email, owner.password)).status).toBe(200)
+  })
 })
 
 describe('per address', () => {
