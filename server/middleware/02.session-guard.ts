@@ -1,10 +1,24 @@
 // Checks the sealed session cookie against the database on every API call: a cookie from before
 // a sign-out, password change or deactivation, or one idle or too old, is cleared. The fresh user
 // (role and sites as they are now) is put on event.context.currentUser for requireUser().
+// Every /api/ route is covered, nuxt-auth-utils' own GET /api/_auth/session too: a refused cookie is
+// also taken off this request, so no later getUserSession() in it unseals the old cookie again.
+import type { H3Event } from 'h3'
 import { useDb } from '../utils/db'
 import { findUserWithSites, toSessionUser } from '../repositories/users'
 
 const REFRESH_EVERY_MS = 60_000
+
+/** h3 reads the sealed session from the cookie or from an `x-<name>-session` header; drop both. */
+function forgetSessionOfRequest(event: H3Event): void {
+  const name = String(useRuntimeConfig().session?.name || 'nuxt-session')
+  const headers = event.node.req.headers
+  delete headers[`x-${name.toLowerCase()}-session`]
+  if (headers.cookie) {
+    headers.cookie = headers.cookie.split(';').map((pair) => pair.trim()).filter((pair) => pair && pair.split('=')[0] !== name).join('; ')
+  }
+  // The session cleared above stays cached for this request: it is empty now.
+}
 
 export default defineEventHandler(async (event) => {
   if (!event.path.startsWith('/api/')) return
@@ -24,6 +38,7 @@ export default defineEventHandler(async (event) => {
     // Already invalid: clearing it must not revoke the user's other, still valid cookies.
     event.context.sessionAlreadyInvalid = true
     await clearUserSession(event)
+    forgetSessionOfRequest(event)
     return
   }
 

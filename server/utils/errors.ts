@@ -10,6 +10,7 @@ export const MESSAGES = {
   badCredentials: 'E-mail or password is incorrect.',
   tooManyAttempts: 'Too many failed sign-in attempts. Try again later.',
   foreignOrigin: 'This request came from another web site and was refused.',
+  jsonOnly: 'Send the request body as JSON (Content-Type: application/json).',
   notFound: 'Not found.',
 } as const
 

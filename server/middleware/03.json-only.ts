@@ -1,0 +1,23 @@
+// State-changing API routes read JSON only. A form-encoded (or any other) body is refused with 415
+// before a handler sees it: a cross-site HTML form can send application/x-www-form-urlencoded,
+// multipart/form-data or text/plain without a CORS preflight, but never application/json
+// (Fetch standard, "CORS-safelisted request-header"), so this also backs the origin check.
+// A request with no body (a sign-out, a confirm) may pass whatever its Content-Type says.
+import { MESSAGES } from '../utils/errors'
+
+const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
+const JSON_TYPE = /^application\/(?:[\w.+-]+\+)?json\s*(?:;|$)/i
+
+function hasBody(headers: Record<string, string | string[] | undefined>): boolean {
+  if (headers['transfer-encoding']) return true
+  const length = Number(headers['content-length'] ?? 0)
+  return !Number.isFinite(length) || length > 0
+}
+
+export default defineEventHandler((event) => {
+  if (!STATE_CHANGING.has(event.method) || !event.path.startsWith('/api/')) return
+  if (!hasBody(event.node.req.headers)) return
+  const type = getRequestHeader(event, 'content-type') ?? ''
+  if (JSON_TYPE.test(type)) return
+  throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: MESSAGES.jsonOnly })
+})
