@@ -3,7 +3,7 @@
 set -euo pipefail
 source "$(dirname "$0")/lib/env.sh"
 cd "$ROOT"
-SOURCES=(app.vue nuxt.config.ts tailwind.config.ts package-lock.json assets components composables
+SOURCES=(app.vue nuxt.config.ts tailwind.config.ts package-lock.json assets components composables plugins
   layouts middleware pages public server shared stores db)
 sources_hash() {
   local present=()
