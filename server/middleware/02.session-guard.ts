@@ -17,7 +17,7 @@ function forgetSessionOfRequest(event: H3Event): void {
   if (headers.cookie) {
     headers.cookie = headers.cookie.split(';').map((pair) => pair.trim()).filter((pair) => pair && pair.split('=')[0] !== name).join('; ')
   }
-  // The session cleared above stays cached for this request: it is empty now.
+  // clearUserSession() above dropped the cached session too, so a later read starts an empty one.
 }
 
 export default defineEventHandler(async (event) => {
