@@ -3,6 +3,7 @@ import type { SessionUser } from '#shared/types/auth'
 import type { BlockBody, ShiftBody, ShiftExceptionBody } from '#shared/schemas/rota'
 import type { BlockDto, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
 import { findFirstShiftClash } from '#shared/domain/rota'
+import { managesProvider } from '#shared/utils/access'
 import { requireSiteAccess } from '../utils/auth'
 import type { Db } from '../utils/db'
 import { badRequest, conflict, notFound } from '../utils/errors'
@@ -71,12 +72,23 @@ export async function replaceShift(trx: Db, user: SessionUser, before: ShiftDto,
   return (await findShift(trx, before.id))!
 }
 
+/** A provider's time off and extra days are kept by the managers of a site they work at (403 otherwise). */
+export function requireManages(user: SessionUser, provider: { name: string; siteIds: number[] }): void {
+  if (!managesProvider(user, provider.siteIds)) {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `${provider.name} works at none of your sites: their own sites' managers keep their time off.` })
+  }
+}
+
 /** Time off for every site touches all of the provider's sites, so it needs access to each. */
 export async function createShiftException(trx: Db, user: SessionUser, exception: ShiftExceptionBody): Promise<ShiftExceptionDto> {
   const provider = await requireProvider(trx, exception.providerId)
+  requireManages(user, provider)
   if (exception.siteId !== null) {
     requireSiteAccess(user, exception.siteId)
-    await requireSite(trx, exception.siteId)
+    const site = await requireSite(trx, exception.siteId)
+    if (!provider.siteIds.includes(site.id)) {
+      throw badRequest('siteId', `${provider.name} does not work at ${site.name}: their sites are the only places they can be away from or work extra at`)
+    }
   } else {
     for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
   }
