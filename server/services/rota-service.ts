@@ -85,15 +85,12 @@ export async function createShiftException(trx: Db, user: SessionUser, exception
   requireManages(user, provider)
   if (exception.siteId !== null) {
     requireSiteAccess(user, exception.siteId)
-    const site = await requireSite(trx, exception.siteId)
-    if (!provider.siteIds.includes(site.id)) {
-      throw badRequest('siteId', `${provider.name} does not work at ${site.name}: their sites are the only places they can be away from or work extra at`)
-    }
+    // Time off or an extra day only at a site the provider works at.
+    await requireWorksAt(trx, exception.providerId, exception.siteId)
   } else {
     for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
   }
   if (exception.kind === 'extra' && exception.siteId !== null) {
-    await requireWorksAt(trx, exception.providerId, exception.siteId)
     // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
     // day, which refuses rather than risks a clash.
     await lockProvider(trx, exception.providerId)

@@ -128,7 +128,7 @@ describe('time off kept by the provider\'s own managers', () => {
     expect((await aspenManager.post('/api/shift-exceptions', { providerId: elsewhere.providerId, siteId: aspen, kind: 'time_off', startDate: day, endDate: day, reason: 'Course' })).status).toBe(201)
     const wrongSite = await (await signedInAs('admin@fernhollow.test')).post('/api/shift-exceptions', { providerId: elsewhere.providerId, siteId: quarry, kind: 'time_off', startDate: day, endDate: day })
     expect(wrongSite.status).toBe(400)
-    expect(wrongSite.body.data.field).toBe('siteId')
+    expect(wrongSite.body.data.field).toBe('providerId')
   })
 })
 
