@@ -4,7 +4,9 @@
 // this private server runs with its booking clock a week and a day back (server/utils/clock.ts):
 // every rule (grid, notice, shifts, blocks, clashes) still applies. Last week's visits are then
 // moved along their states as a real week would leave them: most finished, a few missed or
-// cancelled, today's under way, some of the next days confirmed.
+// cancelled, today's under way, some of the next days confirmed. A visit's state follows its time
+// (arrived and in treatment only on its day), so each past day is settled through the state API of
+// a private server whose clock reads late that evening, and today's on a server with the real clock.
 import { DateTime } from 'luxon'
 import { Faker, en } from '@faker-js/faker'
 import { createDb, dbSettingsFromEnv } from '../db/connection'
@@ -51,12 +53,7 @@ const server = await startAppServer({
 })
 let booked = 0
 try {
-  const login = await fetch(`${server.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@fernhollow.test', password: 'cuspline-demo' }) })
-  const cookie = login.headers.getSetCookie()[0]!.split(';')[0]!
-  const post = async <T>(path: string, body: unknown): Promise<{ status: number; body: T }> => {
-    const response = await fetch(`${server.url}${path}`, { method: 'POST', headers: { cookie, 'content-type': 'application/json' }, body: JSON.stringify(body) })
-    return { status: response.status, body: await response.json() as T }
-  }
+  const post = await signedInPost(server.url)
   for (const site of sites) {
     for (let day = -DAYS_BACK; day <= DAYS_AHEAD; day += 1) {
       const date = DateTime.now().setZone(site.time_zone).plus({ days: day }).toISODate()!
@@ -74,7 +71,8 @@ try {
     }
   }
   console.log(`booked ${booked} demo visits through the booking service`)
-  const settled = await settleVisits(post)
+  await server.stop() // its clock is a week back: states are set below on servers whose clock is on each visit's day
+  const settled = await settleVisits(sites)
   console.log(`moved ${settled} of them along their states (finished, missed, cancelled, under way, confirmed)`)
   console.log(`${await skipHistoricMail()} outbox messages left unsent: due or about visits before the demo began`)
 } finally {
@@ -82,6 +80,15 @@ try {
 }
 
 type Post = <T>(path: string, body: unknown) => Promise<{ status: number; body: T }>
+
+async function signedInPost(url: string): Promise<Post> {
+  const login = await fetch(`${url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@fernhollow.test', password: 'cuspline-demo' }) })
+  const cookie = login.headers.getSetCookie()[0]!.split(';')[0]!
+  return async <T>(path: string, body: unknown) => {
+    const response = await fetch(`${url}${path}`, { method: 'POST', headers: { cookie, 'content-type': 'application/json' }, body: JSON.stringify(body) })
+    return { status: response.status, body: await response.json() as T }
+  }
+}
 
 /** The state moves a visit at this time would have had by now, through the state API. */
 function movesFor(visit: { start_utc: Date; end_utc: Date }, nowMs: number): Array<{ path: 'state' | 'cancel'; body: Record<string, string> }> {
@@ -97,19 +104,45 @@ function movesFor(visit: { start_utc: Date; end_utc: Date }, nowMs: number): Arr
   return []
 }
 
-async function settleVisits(post: Post): Promise<number> {
+/**
+ * The instant that is late in the evening of local date `date` at every demo site: ten minutes
+ * before the first of their midnights, so it is still `date` everywhere and after every visit.
+ */
+function lateOn(date: string, zones: string[]): number {
+  return Math.min(...zones.map((zone) => DateTime.fromISO(date, { zone }).plus({ days: 1 }).toMillis())) - 10 * 60_000
+}
+
+async function settleVisits(demoSites: Array<{ id: number; time_zone: string }>): Promise<number> {
   const reader = createDb(dbSettingsFromEnv())
-  const nowMs = Date.now()
-  const visits = await reader('appointments').where('start_utc', '<', new Date(nowMs + 48 * HOUR)).orderBy('id').select('id', 'start_utc', 'end_utc')
+  const realNow = Date.now()
+  const visits = await reader('appointments').where('start_utc', '<', new Date(realNow + 48 * HOUR)).orderBy('id').select('id', 'site_id', 'start_utc', 'end_utc')
   await reader.destroy()
-  let settled = 0
+  const zoneOf = new Map(demoSites.map((site) => [site.id, site.time_zone]))
+  const zones = [...new Set(zoneOf.values())]
+  // Visits grouped by the clock that settles them: late on their (past) day, or the real now.
+  const byClock = new Map<number, typeof visits>()
   for (const visit of visits) {
-    const moves = movesFor(visit, nowMs)
-    for (const move of moves) {
-      const result = await post(`/api/appointments/${visit.id}/${move.path}`, move.body)
-      if (result.status !== 200) throw new Error(`demo visit ${visit.id}: ${move.path} ${JSON.stringify(move.body)} answered ${result.status}`)
+    const day = DateTime.fromJSDate(visit.start_utc, { zone: zoneOf.get(visit.site_id) ?? 'UTC' }).toISODate()!
+    const clock = Math.min(lateOn(day, zones), realNow)
+    byClock.set(clock, [...(byClock.get(clock) ?? []), visit])
+  }
+  let settled = 0
+  for (const clock of [...byClock.keys()].sort((a, b) => a - b)) {
+    const offsetMinutes = clock === realNow ? 0 : Math.round((clock - Date.now()) / 60_000)
+    const dayServer = await startAppServer({ NUXT_OUTBOX_DISPATCHER: 'false', NUXT_SCHEDULE_CLOCK_OFFSET_MINUTES: String(offsetMinutes) })
+    try {
+      const post = await signedInPost(dayServer.url)
+      for (const visit of byClock.get(clock)!) {
+        const moves = movesFor(visit, clock)
+        for (const move of moves) {
+          const result = await post(`/api/appointments/${visit.id}/${move.path}`, move.body)
+          if (result.status !== 200) throw new Error(`demo visit ${visit.id}: ${move.path} ${JSON.stringify(move.body)} answered ${result.status} ${JSON.stringify(result.body)}`)
+        }
+        if (moves.length) settled += 1
+      }
+    } finally {
+      await dayServer.stop()
     }
-    if (moves.length) settled += 1
   }
   return settled
 }

@@ -6,7 +6,8 @@ import type { SessionUser } from '#shared/types/auth'
 import type { AppointmentDto, PatientDto } from '#shared/types/appointments'
 import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
 import type { BookAppointmentInput, MoveAppointmentInput } from '#shared/schemas/appointments'
-import { canMoveToState, holdsTime, type VisitState } from '#shared/domain/visit-states'
+import { holdsTime, type VisitState } from '#shared/domain/visit-states'
+import { mayChangeState, mayRebook, type Verdict } from '#shared/domain/visit-access'
 import { withChairMinutes } from '#shared/domain/length-override'
 import { useDb, type Db } from '../utils/db'
 import { badRequest, conflict, isDuplicateKey, notFound, rethrowDomainError } from '../utils/errors'
@@ -20,6 +21,9 @@ import { enqueueMessages } from '../repositories/outbox'
 import { dropQueuedReminders, reminderMessages } from './mail/reminders'
 import { findPatient } from '../repositories/patients'
 import { writeAudit } from '../repositories/audit-log'
+import { findProviderIdOfUser } from '../repositories/providers'
+import { findSite } from '../repositories/sites'
+import { scheduleNowMs } from '../utils/clock'
 import { findTemplateById } from '../repositories/templates'
 import { parseJson } from '../repositories/json'
 import { planItems } from './plan-service'
@@ -130,6 +134,19 @@ async function liveVisit(db: Db, id: number, user: SessionUser): Promise<Appoint
   return row
 }
 
+/** The signed-in user as the visit rules see them: role, sites and their own provider record. */
+async function actorOf(db: Db, user: SessionUser) {
+  const isProvider = user.role === 'dentist' || user.role === 'hygienist'
+  return { ...user, providerId: isProvider ? await findProviderIdOfUser(db, user.id) : null }
+}
+
+/** A refusal from shared/domain/visit-access.ts as an HTTP error: 403 for who, 409 for state or time. */
+function enforce(verdict: Verdict, data: Record<string, unknown>): void {
+  if (verdict.allowed) return
+  if (verdict.status === 403) throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: verdict.reason })
+  throw conflict(verdict.reason, data)
+}
+
 function staleVersion() {
   return conflict('Someone changed this visit since you opened it. Reload to see the latest version.', { field: 'rowVersion' })
 }
@@ -151,8 +168,8 @@ async function findTemplateByCodeVersion(db: Db, code: string, version: number |
 export async function moveAppointment(id: number, input: MoveAppointmentInput, user: SessionUser): Promise<AppointmentDto> {
   const db = useDb()
   const row = await liveVisit(db, id, user)
+  enforce(mayRebook(await actorOf(db, user), { siteId: row.site_id, state: row.state }), { field: 'state' })
   if (row.row_version !== input.rowVersion) throw staleVersion()
-  if (!holdsTime(row.state) || row.state === 'finished') throw conflict(`A ${row.state} visit cannot be moved.`, { field: 'state' })
   const startMs = input.startUtc ? startOf(input.startUtc) : row.start_utc.getTime()
   const operatoryId = input.operatoryId ?? row.operatory_id
   const providerId = input.providerId ?? row.provider_id
@@ -188,8 +205,10 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
   const db = useDb()
   return withTransactionRetry(() => db.transaction(async (trx) => {
     const row = await liveVisit(trx, id, user)
+    const site = await findSite(trx, row.site_id)
+    const visit = { siteId: row.site_id, providerId: row.provider_id, state: row.state, startUtc: row.start_utc.toISOString(), timeZone: site?.timeZone ?? 'UTC' }
+    enforce(mayChangeState(await actorOf(trx, user), visit, to, scheduleNowMs()), { field: 'state', from: row.state, to })
     if (seenVersion !== undefined && seenVersion !== row.row_version) throw staleVersion()
-    if (!canMoveToState(row.state, to)) throw conflict(`A visit that is ${row.state} cannot become ${to}.`, { field: 'state', from: row.state, to })
     const releases = !holdsTime(to)
     const changed = await updateAppointmentIfVersion(trx, id, row.row_version, {
       state: to, updated_by: user.id,

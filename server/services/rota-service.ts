@@ -3,6 +3,7 @@ import type { SessionUser } from '#shared/types/auth'
 import type { BlockBody, ShiftBody, ShiftExceptionBody } from '#shared/schemas/rota'
 import type { BlockDto, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
 import { findFirstShiftClash } from '#shared/domain/rota'
+import { managesProvider } from '#shared/utils/access'
 import { requireSiteAccess } from '../utils/auth'
 import type { Db } from '../utils/db'
 import { badRequest, conflict, notFound } from '../utils/errors'
@@ -71,17 +72,25 @@ export async function replaceShift(trx: Db, user: SessionUser, before: ShiftDto,
   return (await findShift(trx, before.id))!
 }
 
+/** A provider's time off and extra days are kept by the managers of a site they work at (403 otherwise). */
+export function requireManages(user: SessionUser, provider: { name: string; siteIds: number[] }): void {
+  if (!managesProvider(user, provider.siteIds)) {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `${provider.name} works at none of your sites: their own sites' managers keep their time off.` })
+  }
+}
+
 /** Time off for every site touches all of the provider's sites, so it needs access to each. */
 export async function createShiftException(trx: Db, user: SessionUser, exception: ShiftExceptionBody): Promise<ShiftExceptionDto> {
   const provider = await requireProvider(trx, exception.providerId)
+  requireManages(user, provider)
   if (exception.siteId !== null) {
     requireSiteAccess(user, exception.siteId)
-    await requireSite(trx, exception.siteId)
+    // Time off or an extra day only at a site the provider works at.
+    await requireWorksAt(trx, exception.providerId, exception.siteId)
   } else {
     for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
   }
   if (exception.kind === 'extra' && exception.siteId !== null) {
-    await requireWorksAt(trx, exception.providerId, exception.siteId)
     // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
     // day, which refuses rather than risks a clash.
     await lockProvider(trx, exception.providerId)

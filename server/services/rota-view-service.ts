@@ -2,10 +2,11 @@
 import type { SessionUser } from '#shared/types/auth'
 import type { RotaView, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
 import { rotaEntries } from '#shared/domain/rota-week'
+import { managesProvider, TIME_OFF_SHOWN_AS } from '#shared/utils/access'
 import { canAccessSite, requireSiteAccess } from '../utils/auth'
 import type { Db } from '../utils/db'
 import { badRequest, notFound } from '../utils/errors'
-import { findProvider, listProviders } from '../repositories/providers'
+import { findProvider, findProviderIdOfUser, listProviders } from '../repositories/providers'
 import { findSiteDetails, listSiteDetails, toCalendar } from '../repositories/sites'
 import { listShifts, shiftToInput } from '../repositories/shifts'
 import { exceptionToInput, listShiftExceptions } from '../repositories/shift-exceptions'
@@ -49,6 +50,21 @@ function placeTimeOff(exceptions: ShiftExceptionDto[], shifts: ShiftDto[], siteV
   })
 }
 
+/**
+ * Time-off reasons may be medical: only admins and managers of a site the provider works at (and
+ * the provider themself) read them; everyone else reads "away". Extra days keep their note.
+ */
+export async function shownTimeOff(db: Db, user: SessionUser, exceptions: ShiftExceptionDto[]): Promise<ShiftExceptionDto[]> {
+  if (!exceptions.some((exception) => exception.kind === 'time_off')) return exceptions
+  const [providers, ownId] = await Promise.all([listProviders(db, null), findProviderIdOfUser(db, user.id)])
+  const sitesOf = new Map(providers.map((provider) => [provider.id, provider.siteIds]))
+  return exceptions.map((exception) => {
+    if (exception.kind !== 'time_off' || exception.providerId === ownId) return exception
+    if (managesProvider(user, sitesOf.get(exception.providerId) ?? [])) return exception
+    return { ...exception, reason: TIME_OFF_SHOWN_AS }
+  })
+}
+
 export async function rotaView(db: Db, user: SessionUser, query: RotaWindow): Promise<RotaView> {
   checkSpan(query.from, query.to)
   const siteIds = await siteIdsInView(db, user, query)
@@ -56,7 +72,7 @@ export async function rotaView(db: Db, user: SessionUser, query: RotaWindow): Pr
   const [sites, shifts, exceptions, blocks, providers] = await Promise.all([
     findSiteDetails(db, siteIds),
     listShifts(db, { siteIds, providerId: query.providerId, activeFrom: window.from, activeTo: window.to }),
-    listShiftExceptions(db, { siteIds, providerId: query.providerId, ...window }),
+    listShiftExceptions(db, { siteIds, providerId: query.providerId, ...window }).then((rows) => shownTimeOff(db, user, rows)),
     listBlocks(db, { siteIds, providerId: query.providerId, ...window }),
     listProviders(db, null),
   ])

@@ -4,7 +4,9 @@ import type { ChairTimeTemplate, BookingUnitMinutes, VisitPlan } from '#shared/t
 import type { StoredTemplate } from '#shared/types/templates'
 import type { ChairTimeRequest, TemplateInput } from '#shared/schemas/templates'
 import { validateTemplate } from '#shared/domain/template-validation'
+import { canEditGroupWide } from '#shared/utils/access'
 import { useDb, type Db } from '../utils/db'
+import { inTransaction } from '../utils/db-retry'
 import { badRequest, conflict, notFound } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { findSite } from '../repositories/sites'
@@ -20,6 +22,13 @@ function assertValid(template: ChairTimeTemplate): void {
   if (first) throw badRequest(first.field, first.reason, issues)
 }
 
+/** Templates are used by every site: kept by admins and managers of all sites. */
+function requireGroupWide(user: SessionUser): void {
+  if (!canEditGroupWide(user)) {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Templates are shared by every site: only admins and managers of all sites may change them.' })
+  }
+}
+
 async function existingTemplate(db: Db, id: number): Promise<StoredTemplate> {
   const template = await findTemplateById(db, id)
   if (!template) throw notFound('No such template.')
@@ -27,8 +36,9 @@ async function existingTemplate(db: Db, id: number): Promise<StoredTemplate> {
 }
 
 export async function createTemplate(input: TemplateInput, user: SessionUser): Promise<StoredTemplate> {
+  requireGroupWide(user)
   assertValid(input)
-  return useDb().transaction(async (trx) => {
+  return inTransaction(async (trx) => {
     if (await codeExists(trx, input.code)) {
       throw conflict(`A template with code ${input.code} already exists. Edit it to save a new version.`, { field: 'code' })
     }
@@ -40,8 +50,9 @@ export async function createTemplate(input: TemplateInput, user: SessionUser): P
 
 /** An edit never changes a version in place: booked visits keep the plan they were booked with. */
 export async function reviseTemplate(id: number, input: TemplateInput, user: SessionUser): Promise<StoredTemplate> {
+  requireGroupWide(user)
   assertValid(input)
-  return useDb().transaction(async (trx) => {
+  return inTransaction(async (trx) => {
     const before = await existingTemplate(trx, id)
     if (input.code !== before.code) throw badRequest('code', `cannot change; this template's code is ${before.code}`)
     const newId = await insertNextVersion(trx, before.code, input, user.id)
@@ -51,11 +62,13 @@ export async function reviseTemplate(id: number, input: TemplateInput, user: Ses
 }
 
 export async function deactivateTemplate(id: number, user: SessionUser): Promise<StoredTemplate> {
-  const db = useDb()
-  const template = await existingTemplate(db, id)
-  await setCodeActive(db, template.code, false)
-  await writeAudit(db, { userId: user.id, action: 'template_deactivated', entity: 'procedure_template', entityId: id })
-  return existingTemplate(db, id)
+  requireGroupWide(user)
+  return inTransaction(async (trx) => {
+    const template = await existingTemplate(trx, id)
+    await setCodeActive(trx, template.code, false)
+    await writeAudit(trx, { userId: user.id, action: 'template_deactivated', entity: 'procedure_template', entityId: id })
+    return existingTemplate(trx, id)
+  })
 }
 
 async function bookingUnitFor(user: SessionUser, siteId: number | undefined): Promise<BookingUnitMinutes> {

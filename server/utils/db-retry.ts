@@ -1,5 +1,7 @@
 // MariaDB answers a deadlock (1213, also Galera's certification failure) or a lock wait timeout
 // (1205) by rolling back; the whole transaction is then safe to run again.
+import { useDb, type Db } from './db'
+
 const RETRYABLE = new Set([1213, 1205])
 const ATTEMPTS = 3
 
@@ -19,4 +21,13 @@ export async function withTransactionRetry<T>(work: () => Promise<T>): Promise<T
       await new Promise((wait) => setTimeout(wait, 10 + Math.random() * 40 * attempt))
     }
   }
+}
+
+/**
+ * The one way to run a write transaction: bookings, rota, sites, people and templates all come here,
+ * so a deadlock or a lock wait during a burst of bookings is retried, then answered 503 in words.
+ * `work` may run up to three times: it must do nothing outside the transaction it is given.
+ */
+export function inTransaction<T>(work: (trx: Db) => Promise<T>): Promise<T> {
+  return withTransactionRetry(() => useDb().transaction(work))
 }

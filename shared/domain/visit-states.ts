@@ -1,4 +1,6 @@
 // Visit states (glossary) and the moves between them the front desk and providers may make.
+import { DateTime } from 'luxon'
+
 export const VISIT_STATES = ['booked', 'confirmed', 'arrived', 'treating', 'finished', 'missed', 'cancelled'] as const
 export type VisitState = (typeof VISIT_STATES)[number]
 
@@ -33,4 +35,61 @@ export const VISIT_STATE_LABELS: Record<VisitState, string> = {
   finished: 'Finished',
   missed: 'Did not come',
   cancelled: 'Cancelled',
+}
+
+// ─── When a state may be set: it follows the visit's time, on the site's local calendar ───
+
+/** Minutes before its start from which a visit may be marked arrived. */
+export const ARRIVE_EARLY_MINUTES = 60
+
+export interface VisitTiming {
+  state: VisitState
+  startUtc: string
+  /** The site's IANA zone: "its day" is the visit's local date there. */
+  timeZone: string
+}
+
+function localDay(ms: number, zone: string): string {
+  return DateTime.fromMillis(ms, { zone }).toISODate()!
+}
+
+/**
+ * Why `to` may not be set now, in words, or null when time allows it. Pure: `nowMs` is the booking
+ * clock on the server and the browser's clock on screens.
+ * - arrived: on the visit's local day, from 60 minutes before its start;
+ * - missed (did not come): only after its start;
+ * - treating: only on its day;
+ * - finished: on its day or later (a visit left in treatment can be closed the next morning; it
+ *   cannot be finished before its day).
+ * Other states (confirmed, back to booked, cancelled) have no time rule.
+ */
+export function stateTimeProblem(visit: VisitTiming, to: VisitState, nowMs: number): string | null {
+  const startMs = Date.parse(visit.startUtc)
+  const start = DateTime.fromMillis(startMs, { zone: visit.timeZone })
+  const visitDay = start.toISODate()!
+  const today = localDay(nowMs, visit.timeZone)
+  const dayText = start.toFormat('ccc d LLL')
+  const startText = start.toFormat('HH:mm')
+  const label = VISIT_STATE_LABELS[to].toLowerCase()
+  switch (to) {
+    case 'arrived': {
+      if (today !== visitDay) return `${dayText} is not today: a visit can be marked arrived only on its day.`
+      const from = startMs - ARRIVE_EARLY_MINUTES * 60_000
+      if (nowMs < from) {
+        return `The visit starts at ${startText}: it can be marked arrived from ${DateTime.fromMillis(from, { zone: visit.timeZone }).toFormat('HH:mm')}, ${ARRIVE_EARLY_MINUTES} minutes before.`
+      }
+      return null
+    }
+    case 'missed':
+      if (nowMs < startMs) return `The visit starts ${dayText} at ${startText}: it can be marked did not come only after its start.`
+      return null
+    case 'treating':
+      if (today !== visitDay) return `${dayText} is not today: a visit can be marked ${label} only on its day.`
+      return null
+    case 'finished':
+      if (today < visitDay) return `${dayText} is not today: a visit can be marked finished only on its day (or later, to close a visit left in treatment).`
+      return null
+    default:
+      return null
+  }
 }

@@ -36,3 +36,27 @@ export function canOpenPath(role: Role, path: string): boolean {
   const item = NAV_ITEMS.find((nav) => path === nav.path || path.startsWith(`${nav.path}/`))
   return item ? item.roles.includes(role) : true
 }
+
+/** The parts of a signed-in user the scope rules below read. */
+export interface ScopedUser {
+  role: Role
+  allSites: boolean
+  siteIds: readonly number[]
+}
+
+/**
+ * Group-wide things (chair-time templates) are kept by admins and by managers of every site; a
+ * manager scoped to some sites would otherwise change what every other site books with.
+ */
+export function canEditGroupWide(user: ScopedUser): boolean {
+  return user.role === 'admin' || (user.role === 'manager' && user.allSites)
+}
+
+/** Admins and managers who cover at least one of the provider's sites look after that provider's rota. */
+export function managesProvider(user: ScopedUser, providerSiteIds: readonly number[]): boolean {
+  if (user.role !== 'admin' && user.role !== 'manager') return false
+  return user.allSites || providerSiteIds.some((siteId) => user.siteIds.includes(siteId))
+}
+
+/** What everyone else reads instead of a time-off reason (it may be medical). */
+export const TIME_OFF_SHOWN_AS = 'away'

@@ -156,10 +156,12 @@ describe('moving, states and cancelling', () => {
     expect(visit.status).toBe(201)
     const id = visit.body.id
     expect((await manager.post(`/api/appointments/${id}/state`, { state: 'finished' })).status).toBe(409)
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived', rowVersion: 99 })).status).toBe(409)
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived', rowVersion: 1 })).body.state).toBe('arrived')
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'treating' })).body.state).toBe('treating')
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'booked' })).status).toBe(409)
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'confirmed', rowVersion: 99 })).status).toBe(409)
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'confirmed', rowVersion: 1 })).body.state).toBe('confirmed')
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'booked' })).body.state).toBe('booked')
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'treating' })).status).toBe(409)
+    // Arrived, in treatment and did not come follow the visit's day: tests/server/visit-state-rules.test.ts.
+    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived' })).status).toBe(409)
     expect((await manager.post(`/api/appointments/${id}/state`, { state: 'asleep' })).status).toBe(400)
 
     const other = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-04T13:00', QUARRY_ZONE), patientId: quarry.patients[9] }))

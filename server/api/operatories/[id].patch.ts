@@ -2,7 +2,7 @@
 import type { OperatorySummary } from '#shared/types/sites'
 import { OperatoryPatchSchema } from '#shared/schemas/sites'
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../utils/auth'
-import { useDb } from '../../utils/db'
+import { inTransaction } from '../../utils/db-retry'
 import { conflict, isDuplicateKey, notFound, numericParam, validateWith } from '../../utils/errors'
 import { findOperatory, updateOperatory } from '../../repositories/operatories'
 
@@ -10,13 +10,15 @@ export default defineEventHandler(async (event): Promise<OperatorySummary> => {
   const user = requireRole(event, MANAGING_ROLES)
   const id = numericParam(event, 'id')
   const patch = await readValidatedBody(event, validateWith(OperatoryPatchSchema))
-  const db = useDb()
-  const room = await findOperatory(db, id)
-  if (!room) throw notFound('No such room.')
-  requireSiteAccess(user, room.siteId)
-  await updateOperatory(db, id, patch).catch((error: unknown) => {
-    if (isDuplicateKey(error)) throw conflict(`This site already has a room called "${patch.name}".`, { field: 'name' })
-    throw error
+  // In the retrying transaction helper, like a booking: a lock wait is retried, then answered 503.
+  return inTransaction(async (db) => {
+    const room = await findOperatory(db, id)
+    if (!room) throw notFound('No such room.')
+    requireSiteAccess(user, room.siteId)
+    await updateOperatory(db, id, patch).catch((error: unknown) => {
+      if (isDuplicateKey(error)) throw conflict(`This site already has a room called "${patch.name}".`, { field: 'name' })
+      throw error
+    })
+    return (await findOperatory(db, id))!
   })
-  return (await findOperatory(db, id))!
 })

@@ -1,15 +1,15 @@
 // DELETE /api/shift-exceptions/:id: withdraw time off or an extra day.
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../utils/auth'
-import { useDb } from '../../utils/db'
 import { notFound, numericParam } from '../../utils/errors'
 import { deleteShiftException, findShiftException } from '../../repositories/shift-exceptions'
 import { findProvider } from '../../repositories/providers'
 import { writeAudit } from '../../repositories/audit-log'
+import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<{ ok: true }> => {
   const user = requireRole(event, MANAGING_ROLES)
   const id = numericParam(event, 'id')
-  await useDb().transaction(async (trx) => {
+  await inTransaction(async (trx) => {
     const exception = await findShiftException(trx, id)
     if (!exception) throw notFound('No such exception.')
     const siteIds = exception.siteId !== null ? [exception.siteId] : (await findProvider(trx, exception.providerId))?.siteIds ?? []

@@ -2,16 +2,16 @@
 import type { ShiftDto } from '#shared/types/rota-api'
 import { ShiftPatchSchema, ShiftSchema } from '#shared/schemas/rota'
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../utils/auth'
-import { useDb } from '../../utils/db'
 import { assertValid, notFound, numericParam, validateWith } from '../../utils/errors'
 import { findShift } from '../../repositories/shifts'
 import { replaceShift } from '../../services/rota-service'
+import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<ShiftDto> => {
   const user = requireRole(event, MANAGING_ROLES)
   const id = numericParam(event, 'id')
   const patch = await readValidatedBody(event, validateWith(ShiftPatchSchema))
-  return useDb().transaction(async (trx) => {
+  return inTransaction(async (trx) => {
     const before = await findShift(trx, id)
     if (!before) throw notFound('No such shift.')
     requireSiteAccess(user, before.siteId)

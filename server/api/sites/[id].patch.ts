@@ -2,14 +2,14 @@
 import type { SiteDetail } from '#shared/types/sites'
 import { SitePatchSchema } from '#shared/schemas/sites'
 import { requireRole, requireSiteAccess } from '../../utils/auth'
-import { useDb } from '../../utils/db'
 import { numericParam, validateWith } from '../../utils/errors'
 import { changeSite } from '../../services/site-service'
+import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<SiteDetail> => {
   const user = requireRole(event, ['admin'])
   const id = numericParam(event, 'id')
   const patch = await readValidatedBody(event, validateWith(SitePatchSchema))
   requireSiteAccess(user, id)
-  return useDb().transaction((trx) => changeSite(trx, user, id, patch))
+  return inTransaction((trx) => changeSite(trx, user, id, patch))
 })

@@ -2,13 +2,13 @@
 import type { SiteDetail } from '#shared/types/sites'
 import { SiteSchema } from '#shared/schemas/sites'
 import { requireRole } from '../../utils/auth'
-import { useDb } from '../../utils/db'
 import { validateWith } from '../../utils/errors'
 import { createSite } from '../../services/site-service'
+import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<SiteDetail> => {
   const user = requireRole(event, ['admin'])
   const body = await readValidatedBody(event, validateWith(SiteSchema))
   setResponseStatus(event, 201)
-  return useDb().transaction((trx) => createSite(trx, user, body))
+  return inTransaction((trx) => createSite(trx, user, body))
 })

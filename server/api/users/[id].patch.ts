@@ -2,13 +2,13 @@
 import type { StaffAccount } from '#shared/types/people'
 import { StaffPatchSchema } from '#shared/schemas/people'
 import { requireRole } from '../../utils/auth'
-import { useDb } from '../../utils/db'
 import { numericParam, validateWith } from '../../utils/errors'
 import { changeStaff } from '../../services/people-service'
+import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<StaffAccount> => {
   const user = requireRole(event, ['admin'])
   const id = numericParam(event, 'id')
   const patch = await readValidatedBody(event, validateWith(StaffPatchSchema))
-  return useDb().transaction((trx) => changeStaff(trx, user, id, patch))
+  return inTransaction((trx) => changeStaff(trx, user, id, patch))
 })

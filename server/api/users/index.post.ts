@@ -2,13 +2,13 @@
 import type { StaffAccount } from '#shared/types/people'
 import { StaffSchema } from '#shared/schemas/people'
 import { requireRole } from '../../utils/auth'
-import { useDb } from '../../utils/db'
 import { validateWith } from '../../utils/errors'
 import { createStaff } from '../../services/people-service'
+import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<StaffAccount> => {
   const user = requireRole(event, ['admin'])
   const body = await readValidatedBody(event, validateWith(StaffSchema))
   setResponseStatus(event, 201)
-  return useDb().transaction((trx) => createStaff(trx, user, body))
+  return inTransaction((trx) => createStaff(trx, user, body))
 })

@@ -1,4 +1,5 @@
-// POST /api/appointments/:id/state: move a visit along its states (allowed transitions only).
+// POST /api/appointments/:id/state: move a visit along its states. Who may, and when, is decided by
+// shared/domain/visit-access.ts in the booking service (403 for who, 409 in words for the state or time).
 import { ChangeStateSchema } from '#shared/schemas/appointments'
 import type { AppointmentDto } from '#shared/types/appointments'
 import { STAFF_ROLES, requireRole } from '../../../utils/auth'

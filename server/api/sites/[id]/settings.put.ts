@@ -3,14 +3,14 @@
 import type { SiteSettings } from '#shared/domain/site-settings'
 import { SiteSettingsSchema } from '#shared/schemas/site-settings'
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../../utils/auth'
-import { useDb } from '../../../utils/db'
 import { numericParam, validateWith } from '../../../utils/errors'
 import { changeSiteSettings } from '../../../services/site-service'
+import { inTransaction } from '../../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<SiteSettings> => {
   const user = requireRole(event, MANAGING_ROLES)
   const id = numericParam(event, 'id')
   requireSiteAccess(user, id)
   const body = await readValidatedBody(event, validateWith(SiteSettingsSchema))
-  return useDb().transaction((trx) => changeSiteSettings(trx, user, id, body))
+  return inTransaction((trx) => changeSiteSettings(trx, user, id, body))
 })
