@@ -60,6 +60,12 @@ describe('dates and windows on range routes', () => {
     expect(ok.status).toBe(200)
   })
 
+  it('availability: 93 local days across the autumn clock change are answered (an hour more than 93 × 24 h)', async () => {
+    const year = new Date().getUTCFullYear() + 1
+    const ok = await desk.get(`/api/availability?siteId=${quarryId}&from=${year}-09-01&to=${year}-12-02`)
+    expect(ok.status, JSON.stringify(ok.body)).toBe(200)
+  })
+
   it('openings: year 9999 is a 400 naming from', async () => {
     expect400(await desk.post('/api/openings', { items: FILLING, from: '9999-12-25', to: FAR }), 'from')
   })

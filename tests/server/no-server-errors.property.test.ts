@@ -133,8 +133,31 @@ const planItem = fc.record({
   anaesthesia: fc.oneof(fc.constantFrom('none', 'infiltration', 'block'), leaf),
 }, { requiredKeys: ['templateCode'] })
 
+/** Bodies a route would accept, give or take one field: so the strange value reaches past the first check. */
+const ITEMS = [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MO', anaesthesia: 'infiltration' }]
+const WEEK = { 1: [{ start: '08:00', end: '17:00' }], 2: [], 3: [], 4: [], 5: [], 6: [], 7: [] }
+const NEAR_VALID: Array<Record<string, unknown>> = [
+  { patientId: 1, siteId: 1, operatoryId: 1, providerId: 1, startUtc: `${daysFromToday(21)}T16:00:00Z`, items: ITEMS, note: '' },
+  { rowVersion: 1, startUtc: `${daysFromToday(21)}T17:00:00Z`, operatoryId: 2, lengthOverride: { chairMinutes: 60, reason: 'longer' } },
+  { firstName: 'Ann', lastName: 'Lee', dateOfBirth: '1990-01-01', email: 'ann@example.test', phone: '555-0100', preferredSiteId: 1, emailConsent: true },
+  { providerId: 1, siteId: 1, rrule: 'FREQ=WEEKLY;BYDAY=MO', validFrom: daysFromToday(7), validUntil: daysFromToday(60), localStart: '08:00', localEnd: '12:00' },
+  { providerId: 1, kind: 'extra', siteId: 1, startDate: daysFromToday(9), endDate: daysFromToday(9), localStart: '08:00', localEnd: '12:00', reason: 'cover' },
+  { siteId: 1, operatoryId: 1, startDate: daysFromToday(5), localStart: '08:00', localEnd: '09:00', rrule: 'FREQ=WEEKLY', untilDate: daysFromToday(50), reason: 'Meeting' },
+  { minimumNoticeMinutes: 60, reminderOffsetsHours: [48, 3], quietHours: { start: '20:00', end: '08:00' }, includeProcedureNames: false, patientCancel: 'request', whatToBring: 'Card', alarmMinutes: 30 },
+  { items: ITEMS, siteIds: [1, 2, 3], from: daysFromToday(1), to: daysFromToday(30), partOfDay: 'any', limit: 500, fewestGaps: true },
+  { siteId: 1, items: ITEMS },
+  { name: 'Annex', timeZone: 'America/Denver', openingHours: WEEK, closedDates: [daysFromToday(40)], bookingUnitMinutes: 5 },
+  { email: 'new.person@fernhollow.test', name: 'New Person', role: 'front_desk', siteIds: [1], password: 'a-long-test-password' },
+  { siteId: 1, name: 'Room 9', capabilities: ['restorative'], sortOrder: 9 },
+  { userId: 1, kind: 'dentist', colour: '#2563eb', capabilities: ['restorative'] },
+  { reason: 'Patient asked', rowVersion: 1 }, { state: 'confirmed', rowVersion: 1 }, { password: 'another-long-password' },
+]
+const nearValidBody = fc.tuple(fc.constantFrom(...NEAR_VALID), fieldName, fc.oneof(leaf, leaf, jsonValue))
+  .map(([base, key, value]) => toJson({ ...base, [key]: value }))
+
 /** Request bodies as JSON text (or deliberately not JSON). */
 const bodyText = fc.oneof(
+  { weight: 6, arbitrary: nearValidBody },
   { weight: 8, arbitrary: fc.dictionary(fieldName, fc.oneof(leaf, jsonValue, fc.array(planItem, { maxLength: 3 })), { maxKeys: 8 }).map(toJson) },
   { weight: 2, arbitrary: jsonValue.map(toJson) },
   { weight: 2, arbitrary: fc.constantFrom(
