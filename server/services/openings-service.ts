@@ -63,7 +63,7 @@ function toDto(opening: Opening, search: SiteSearch): OpeningDto {
 }
 
 /** Each site books in its own unit, so the plan is made per site (rounding differs). */
-async function searchOneSite(db: Db, search: SiteSearch, request: OpeningsRequest): Promise<{ resolved: ResolvedPlan; openings: OpeningDto[]; reasons: string[] }> {
+async function searchOneSite(db: Db, search: SiteSearch, request: OpeningsRequest): Promise<{ resolved: ResolvedPlan; openings: Array<{ opening: Opening; search: SiteSearch }>; reasons: string[] }> {
   const resolved = await planItems(db, request.items, search.calendar.bookingUnitMinutes as BookingUnitMinutes)
   const site = openingsSite(search)
   const busy = await busySegments(db, site.operatories.map((room) => room.id), site.providers.map((provider) => provider.id), search.fromMs, search.toMs + 86_400_000)
@@ -74,7 +74,7 @@ async function searchOneSite(db: Db, search: SiteSearch, request: OpeningsReques
       fromMs: search.fromMs, toMs: search.toMs, nowMs: scheduleNowMs(), minimumNoticeMinutes: search.calendar.minimumNoticeMinutes,
       providerId: request.providerId, operatoryId: request.operatoryId, partOfDay: request.partOfDay, limit: request.limit, fewestGaps: request.fewestGaps,
     })
-    return { resolved, openings: result.openings.map((opening) => toDto(opening, search)), reasons: result.reasons ?? [] }
+    return { resolved, openings: result.openings.map((opening) => ({ opening, search })), reasons: result.reasons ?? [] }
   } catch (error) {
     rethrowDomainError(error)
   }
@@ -89,9 +89,10 @@ export async function searchOpenings(request: OpeningsRequest, user: SessionUser
   if (!sites.length) throw badRequest('siteIds', 'no such site')
 
   const results = await Promise.all(sites.map(async (site) => searchOneSite(db, await siteSearch(db, site, request), request)))
-  const openings = results.flatMap((result) => result.openings)
-  if (!request.fewestGaps) openings.sort((a, b) => a.startUtc.localeCompare(b.startUtc))
+  const found = results.flatMap((result) => result.openings)
+  if (!request.fewestGaps) found.sort((a, b) => a.opening.startMs - b.opening.startMs)
   const plan: VisitPlan = results[0]!.resolved.plan
-  const reasons = openings.length ? [] : [...new Set(results.flatMap((result) => result.reasons))]
-  return { plan, openings: openings.slice(0, request.limit), reasons }
+  const reasons = found.length ? [] : [...new Set(results.flatMap((result) => result.reasons))]
+  // Only the openings returned are put on the wall clock (each site finds up to `limit` of its own).
+  return { plan, openings: found.slice(0, request.limit).map(({ opening, search }) => toDto(opening, search)), reasons }
 }

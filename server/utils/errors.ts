@@ -2,6 +2,7 @@
 import type { H3Event } from 'h3'
 import { ZodError, type ZodType } from 'zod'
 import { DomainValidationError } from '#shared/domain/errors'
+import { MAX_ID } from '#shared/domain/input-bounds'
 
 export const MESSAGES = {
   signedOut: 'Please sign in.',
@@ -79,7 +80,9 @@ export function rethrowDomainError(error: unknown): never {
 export function numericParam(event: H3Event, name: string): number {
   const raw = getRouterParam(event, name)
   const value = Number(raw)
-  if (!raw || !Number.isInteger(value) || value <= 0) throw badRequest(name, 'must be a positive whole number')
+  if (!raw || !/^\d+$/.test(raw) || !Number.isInteger(value) || value <= 0 || value > MAX_ID) {
+    throw badRequest(name, `must be a whole number from 1 to ${MAX_ID}`)
+  }
   return value
 }
 

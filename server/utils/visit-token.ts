@@ -2,6 +2,7 @@
 // the visit's id, its iCalendar UID and the expiry, so a token opens exactly one visit, cannot be
 // edited, and stops working after the visit. No framework imports: tests sign tokens with it too.
 import { createHmac, timingSafeEqual } from 'node:crypto'
+import { MAX_ID } from '../../shared/domain/input-bounds'
 
 export interface VisitTokenParts {
   appointmentId: number
@@ -20,7 +21,7 @@ export function signVisitToken(secret: string, visit: { id: number; icalUid: str
 /** The claimed visit and expiry, before the signature is checked (that needs the visit's UID). */
 export function readVisitToken(token: string): (VisitTokenParts & { signature: string; expiresSeconds: number }) | null {
   const match = /^(\d{1,10})\.(\d{1,12})\.([A-Za-z0-9_-]{43})$/.exec(token)
-  if (!match) return null
+  if (!match || Number(match[1]) > MAX_ID) return null
   return { appointmentId: Number(match[1]), expiresSeconds: Number(match[2]), expiresAtMs: Number(match[2]) * 1000, signature: match[3]! }
 }
 

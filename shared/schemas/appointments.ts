@@ -1,9 +1,13 @@
 import { z } from 'zod'
 import { ChairTimeItemSchema } from './templates'
 import { VISIT_STATES } from '../domain/visit-states'
+import { inclusiveDays, MAX_ID, MAX_WINDOW_DAYS } from '../domain/input-bounds'
+import { dateInBounds, IdSchema, instantInBounds, plainText } from './common'
 
-const id = (what: string) => z.number({ error: `must be a ${what} id` }).int(`must be a ${what} id`).positive(`must be a ${what} id`)
-const utcInstant = z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time such as 2027-01-11T17:00:00Z' })
+const id = (what: string) => z.number({ error: `must be a ${what} id` }).int(`must be a ${what} id`).positive(`must be a ${what} id`).max(MAX_ID, `must be a ${what} id`)
+const rowVersion = z.number({ error: 'must be the version you last saw' }).int('must be a whole number').positive('must be positive').max(MAX_ID, `must be at most ${MAX_ID}`)
+const utcInstant = z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time such as 2027-01-11T17:00:00Z' }).superRefine(instantInBounds)
+const note = plainText(z.string({ error: 'must be text' }).max(1000, 'is too long'))
 const planItems = z.array(ChairTimeItemSchema, { error: 'must be a list of procedures' }).min(1, 'add at least one procedure').max(8, 'at most 8 procedures in one visit')
 
 export const BookAppointmentSchema = z.object({
@@ -13,51 +17,52 @@ export const BookAppointmentSchema = z.object({
   providerId: id('provider'),
   startUtc: utcInstant,
   items: planItems,
-  note: z.string().max(1000, 'is too long').default(''),
+  note: note.default(''),
 })
 export type BookAppointmentInput = z.infer<typeof BookAppointmentSchema>
 
 export const MoveAppointmentSchema = z.object({
-  rowVersion: z.number({ error: 'is required (the version you last saw)' }).int().positive(),
+  rowVersion: z.number({ error: 'is required (the version you last saw)' }).int('must be a whole number').positive('must be positive').max(MAX_ID, `must be at most ${MAX_ID}`),
   startUtc: utcInstant.optional(),
   operatoryId: id('operatory').optional(),
   providerId: id('provider').optional(),
   items: planItems.optional(),
-  note: z.string().max(1000, 'is too long').optional(),
+  note: note.optional(),
   /** The length set by hand; the plan decides it otherwise. */
   lengthOverride: z.object({
     chairMinutes: z.number({ error: 'must be a number of minutes' }).int('must be whole minutes').min(5, 'must be at least 5').max(480, 'must be at most 480'),
-    reason: z.string({ error: 'is required' }).trim().min(3, 'say why the length changes').max(200, 'is too long'),
+    reason: plainText(z.string({ error: 'is required' }).trim().min(3, 'say why the length changes').max(200, 'is too long')),
   }).optional(),
 })
 export type MoveAppointmentInput = z.infer<typeof MoveAppointmentSchema>
 
 export const ChangeStateSchema = z.object({
   state: z.enum(VISIT_STATES, { error: `must be one of ${VISIT_STATES.join(', ')}` }),
-  rowVersion: z.number().int().positive().optional(),
+  rowVersion: rowVersion.optional(),
 })
 
 export const CancelSchema = z.object({
-  reason: z.string({ error: 'is required' }).trim().min(1, 'is required').max(300, 'is too long'),
-  rowVersion: z.number().int().positive().optional(),
+  reason: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(300, 'is too long')),
+  rowVersion: rowVersion.optional(),
 })
 
 export const PatientSearchSchema = z.object({
-  q: z.string({ error: 'is required' }).trim().min(2, 'type at least 2 characters').max(100, 'is too long'),
+  q: plainText(z.string({ error: 'is required' }).trim().min(2, 'type at least 2 characters').max(100, 'is too long')),
   limit: z.coerce.number().int().min(1).max(50).default(20),
 })
 
 export const NewPatientSchema = z.object({
-  firstName: z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long'),
-  lastName: z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long'),
-  dateOfBirth: z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 1980-04-30'),
-  email: z.string().trim().toLowerCase().email('is not an e-mail address').max(254).nullable().optional(),
+  firstName: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long')),
+  lastName: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long')),
+  dateOfBirth: z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 1980-04-30')
+    .refine((date) => date >= '1900-01-01', 'must be 1900-01-01 or later'),
+  email: plainText(z.string({ error: 'must be text' }).trim().toLowerCase().max(254, 'is too long').email('is not an e-mail address')).nullable().optional(),
   phone: z.string().trim().regex(/^[0-9+()\-. ]{7,25}$/, 'is not a phone number').nullable().optional(),
   preferredSiteId: id('site').nullable().optional(),
   emailConsent: z.boolean().default(false),
 }).refine((patient) => !patient.emailConsent || Boolean(patient.email), { message: 'needs an e-mail address', path: ['emailConsent'] })
 
-const localDate = z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 2027-01-11')
+const localDate = z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 2027-01-11').superRefine(dateInBounds)
 
 export const OpeningsRequestSchema = z.object({
   items: planItems,
@@ -71,15 +76,15 @@ export const OpeningsRequestSchema = z.object({
   fewestGaps: z.boolean().default(false),
 })
   .refine((request) => request.from <= request.to, { message: 'must not be before from', path: ['to'] })
-  .refine((request) => Date.parse(request.to) - Date.parse(request.from) <= 92 * 86_400_000, { message: 'search at most 92 days at once', path: ['to'] })
+  .refine((request) => !(inclusiveDays(request.from, request.to) > MAX_WINDOW_DAYS), { message: `search at most ${MAX_WINDOW_DAYS} days at once`, path: ['to'] })
 export type OpeningsRequest = z.infer<typeof OpeningsRequestSchema>
 
 export const VisitListQuerySchema = z.object({
-  siteId: z.coerce.number({ error: 'must be a site id' }).int().positive().optional(),
-  providerId: z.coerce.number({ error: 'must be a provider id' }).int().positive().optional(),
-  patientId: z.coerce.number({ error: 'must be a patient id' }).int().positive().optional(),
-  from: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }),
-  to: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }),
+  siteId: IdSchema.optional(),
+  providerId: IdSchema.optional(),
+  patientId: IdSchema.optional(),
+  from: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }).superRefine(instantInBounds),
+  to: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }).superRefine(instantInBounds),
   includeCancelled: z.enum(['true', 'false']).default('false'),
 })
   .refine((query) => query.siteId !== undefined || query.providerId !== undefined || query.patientId !== undefined, { message: 'give siteId, providerId or patientId', path: ['siteId'] })

@@ -3,6 +3,7 @@
 import { z } from 'zod'
 import { IANAZone } from 'luxon'
 import { validateRule } from '../domain/recurrence'
+import { dateInBounds } from './common'
 
 const TIME_PATTERN = /^([01]\d|2[0-3]):[0-5]\d$/
 const DATE_PATTERN = /^(\d{4})-(\d{2})-(\d{2})$/
@@ -27,6 +28,7 @@ export const LocalDateSchema = z
   .string({ error: 'is required' })
   .regex(DATE_PATTERN, 'must be a date such as 2026-03-09 (YYYY-MM-DD)')
   .refine(isCalendarDate, 'is not a real calendar date')
+  .superRefine(dateInBounds)
 
 export const TimeZoneSchema = z
   .string({ error: 'is required' })

@@ -3,7 +3,7 @@ import { z } from 'zod'
 import { ROLES } from '../types/auth'
 import { TEMPLATE_CATEGORIES } from '../types/chair-time'
 import { NewPasswordSchema } from './auth'
-import { IdSchema } from './common'
+import { IdSchema, plainText } from './common'
 import { ColourSchema } from './local-time'
 
 const role = z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` })
@@ -11,8 +11,8 @@ const siteIds = z.array(IdSchema, { error: 'must be a list of site ids' }).max(1
 
 export const StaffSchema = z
   .object({
-    email: z.string({ error: 'is required' }).trim().toLowerCase().min(1, 'is required').max(254, 'is too long').email('is not an e-mail address'),
-    name: z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long'),
+    email: plainText(z.string({ error: 'is required' }).trim().toLowerCase().min(1, 'is required').max(254, 'is too long').email('is not an e-mail address')),
+    name: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long')),
     role,
     allSites: z.boolean({ error: 'must be yes or no' }).default(false),
     siteIds: siteIds.default([]),
@@ -22,7 +22,7 @@ export const StaffSchema = z
 export type StaffBody = z.infer<typeof StaffSchema>
 
 export const StaffPatchSchema = z.object({
-  name: z.string({ error: 'must be text' }).trim().min(1, 'is required').max(120, 'is too long').optional(),
+  name: plainText(z.string({ error: 'must be text' }).trim().min(1, 'is required').max(120, 'is too long')).optional(),
   role: role.optional(),
   allSites: z.boolean({ error: 'must be yes or no' }).optional(),
   siteIds: siteIds.optional(),

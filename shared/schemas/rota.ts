@@ -1,10 +1,11 @@
 // What the Rota screen sends: shifts, exceptions (time off, extra days) and blocks.
 import { z } from 'zod'
-import { IdSchema } from './common'
+import { IdSchema, instantInBounds, plainText } from './common'
+import { inclusiveDays, MAX_WINDOW_DAYS } from '../domain/input-bounds'
 import { dateNotBefore, endAfterStart, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, RruleSchema } from './local-time'
 
-const note = z.string({ error: 'must be text' }).trim().max(200, 'is too long')
-const reasonRequired = z.string({ error: 'is required' }).trim().min(1, 'is required').max(200, 'is too long')
+const note = plainText(z.string({ error: 'must be text' }).trim().max(200, 'is too long'))
+const reasonRequired = plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(200, 'is too long'))
 const optionalId = IdSchema.nullable().optional().transform((value) => value ?? null)
 
 const shiftFields = {
@@ -93,8 +94,19 @@ const instantOrDate = z
     (value) => (/^\d{4}-\d{2}-\d{2}$/.test(value) ? LocalDateSchema.safeParse(value).success : /^\d{4}-\d{2}-\d{2}T[\d:.]+(Z|[+-]\d{2}:\d{2})$/i.test(value) && !Number.isNaN(Date.parse(value))),
     'must be a date (YYYY-MM-DD) or an ISO instant with Z or an offset',
   )
+  .superRefine((value, ctx) => {
+    if (!/^\d{4}-\d{2}-\d{2}$/.test(value)) instantInBounds(value, ctx)
+  })
 
-export const AvailabilityQuerySchema = z.object({ siteId: IdSchema, from: instantOrDate, to: instantOrDate })
+/** A window of at most MAX_WINDOW_DAYS days, `to` not before `from` (dates or instants). */
+function windowWithinLimit(query: { from: string, to: string }, ctx: z.RefinementCtx): void {
+  const days = inclusiveDays(query.from, query.to)
+  if (Number.isNaN(days)) return
+  if (days < 1) ctx.addIssue({ code: 'custom', path: ['to'], message: 'must not be before from' })
+  else if (days > MAX_WINDOW_DAYS) ctx.addIssue({ code: 'custom', path: ['to'], message: `must be at most ${MAX_WINDOW_DAYS} days after from` })
+}
+
+export const AvailabilityQuerySchema = z.object({ siteId: IdSchema, from: instantOrDate, to: instantOrDate }).superRefine(windowWithinLimit)
 export type AvailabilityQuery = z.infer<typeof AvailabilityQuerySchema>
 
 export const RotaQuerySchema = z
@@ -108,7 +120,7 @@ export const RotaQuerySchema = z
     if ((query.siteId === undefined) === (query.providerId === undefined)) {
       ctx.addIssue({ code: 'custom', path: ['siteId'], message: 'give either siteId or providerId' })
     }
-    dateNotBefore(query.to, query.from, 'to', ctx, 'from')
+    windowWithinLimit(query, ctx)
   })
 export type RotaQuery = z.infer<typeof RotaQuerySchema>
 

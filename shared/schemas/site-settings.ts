@@ -1,6 +1,7 @@
 // PUT /api/sites/:id/settings: the whole set of a site's patient-mail and booking settings.
 import { z } from 'zod'
 import { LocalTimeSchema } from './local-time'
+import { plainText } from './common'
 
 const wholeMinutes = (max: number, what: string) => z.number({ error: 'must be a number' }).int('must be whole minutes').min(0, 'cannot be negative').max(max, `must be at most ${max} minutes (${what})`)
 
@@ -14,7 +15,7 @@ export const SiteSettingsSchema = z.object({
     .nullable(),
   includeProcedureNames: z.boolean({ error: 'must be true or false' }),
   patientCancel: z.enum(['request', 'cancel'], { error: "must be 'request' or 'cancel'" }),
-  whatToBring: z.string({ error: 'is required' }).trim().min(1, 'is required').max(300, 'must be at most 300 characters'),
+  whatToBring: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(300, 'must be at most 300 characters')),
   alarmMinutes: wholeMinutes(1_440, 'a day').min(5, 'must be at least 5 minutes'),
 })
 export type SiteSettingsBody = z.infer<typeof SiteSettingsSchema>

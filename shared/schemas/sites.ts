@@ -1,7 +1,7 @@
 // What the Sites & rooms screen sends: a site with its calendar, and its operatories.
 import { z } from 'zod'
 import { OPERATORY_CAPABILITIES } from '../types/chair-time'
-import { IdSchema } from './common'
+import { IdSchema, plainText } from './common'
 import { ColourSchema, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, minutesOf, TimeZoneSchema } from './local-time'
 
 export const BOOKING_UNITS = [5, 10, 15] as const
@@ -16,15 +16,15 @@ export const OpeningHoursSchema = z.object({
   '1': dayHours, '2': dayHours, '3': dayHours, '4': dayHours, '5': dayHours, '6': dayHours, '7': dayHours,
 }, { error: 'must list every weekday 1 (Monday) to 7 (Sunday)' })
 
-const optionalText = (max: number) => z.string({ error: 'must be text' }).trim().max(max, 'is too long')
+const optionalText = (max: number) => plainText(z.string({ error: 'must be text' }).trim().max(max, 'is too long'))
 
 const siteFields = {
-  name: z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long'),
+  name: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long')),
   slug: z.string({ error: 'must be text' }).trim().toLowerCase().regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, 'use lower-case letters, digits and dashes').max(60, 'is too long'),
   timeZone: TimeZoneSchema,
   address: optionalText(300),
   phone: optionalText(40),
-  email: z.union([z.literal(''), z.string().trim().email('is not an e-mail address').max(254, 'is too long')], { error: 'is not an e-mail address' }),
+  email: z.union([z.literal(''), plainText(z.string().trim().max(254, 'is too long').email('is not an e-mail address'))], { error: 'is not an e-mail address' }),
   colour: ColourSchema,
   bookingUnitMinutes: z.number({ error: 'must be a number' }).refine((unit) => (BOOKING_UNITS as readonly number[]).includes(unit), 'must be 5, 10 or 15 minutes'),
   toothNotation: z.enum(['universal', 'iso'], { error: 'must be universal or iso' }),
@@ -51,7 +51,7 @@ export const SitePatchSchema = z.object(siteFields).partial()
 export type SitePatch = z.infer<typeof SitePatchSchema>
 
 const operatoryFields = {
-  name: z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long'),
+  name: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long')),
   capabilities: z.array(z.enum(OPERATORY_CAPABILITIES, { error: `must be one of ${OPERATORY_CAPABILITIES.join(', ')}` }), { error: 'must be a list' }),
   active: z.boolean({ error: 'must be yes or no' }),
   sortOrder: z.number({ error: 'must be a number' }).int('must be a whole number').min(0, 'must be 0 or more').max(999, 'must be at most 999'),

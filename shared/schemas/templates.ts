@@ -4,6 +4,8 @@ import { z } from 'zod'
 import {
   ANAESTHESIA_TECHNIQUES, OPERATORY_CAPABILITIES, STEP_KINDS, STEP_ROLES, TEMPLATE_CATEGORIES,
 } from '../types/chair-time'
+import { MAX_ID } from '../domain/input-bounds'
+import { plainText } from './common'
 
 const minutes = z.number({ error: 'must be a number of minutes' }).int('must be whole minutes').min(0, 'must be 0 or more').max(480, 'must be at most 480')
 
@@ -16,7 +18,7 @@ const arch = z.object({
 })
 
 export const TemplateStepSchema = z.object({
-  label: z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long'),
+  label: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long')),
   kind: z.enum(STEP_KINDS, { error: `must be one of ${STEP_KINDS.join(', ')}` }),
   baseMinutes: minutes,
   perExtraSurfaceMinutes: minutes.default(0),
@@ -26,7 +28,7 @@ export const TemplateStepSchema = z.object({
 
 export const TemplateSchema = z.object({
   code: z.string({ error: 'is required' }).trim().toUpperCase().regex(/^[A-Z0-9][A-Z0-9-]{0,23}$/, 'use 1 to 24 letters, digits or dashes'),
-  name: z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long'),
+  name: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(120, 'is too long')),
   category: z.enum(TEMPLATE_CATEGORIES, { error: `must be one of ${TEMPLATE_CATEGORIES.join(', ')}` }),
   capability: z.enum(OPERATORY_CAPABILITIES, { error: `must be one of ${OPERATORY_CAPABILITIES.join(', ')}` }),
   needsTooth: z.boolean().optional(),
@@ -40,7 +42,7 @@ export type TemplateInput = z.infer<typeof TemplateSchema>
 const toothNotation = z.enum(['universal', 'iso'], { error: 'must be universal or iso' })
 
 export const ChairTimeItemSchema = z.object({
-  templateId: z.number().int().positive().optional(),
+  templateId: z.number({ error: 'must be a template id' }).int('must be a template id').positive('must be a template id').max(MAX_ID, 'must be a template id').optional(),
   templateCode: z.string().trim().min(1).max(24).optional(),
   tooth: z.union([z.string(), z.number()]).transform(String).optional(),
   teeth: z.array(z.union([z.string(), z.number()]).transform(String)).max(8, 'at most 8 extra teeth').optional(),
@@ -52,7 +54,7 @@ export const ChairTimeItemSchema = z.object({
 })
 
 export const ChairTimeRequestSchema = z.object({
-  siteId: z.number({ error: 'must be a site id' }).int().positive().optional(),
+  siteId: z.number({ error: 'must be a site id' }).int('must be a site id').positive('must be a site id').max(MAX_ID, 'must be a site id').optional(),
   items: z.array(ChairTimeItemSchema, { error: 'must be a list of procedures' }).min(1, 'add at least one procedure').max(8, 'at most 8 procedures in one visit'),
 })
 export type ChairTimeRequest = z.infer<typeof ChairTimeRequestSchema>
