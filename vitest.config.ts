@@ -11,6 +11,8 @@ export default defineConfig({
           name: 'unit',
           environment: 'node',
           include: ['tests/unit/**/*.test.ts'],
+          // Property tests run hundreds of cases; on a loaded 2-core machine 5 s is too tight to mean anything.
+          testTimeout: 30_000,
         },
       },
       {
