@@ -13,14 +13,13 @@ OFFSET="${FUTURE_OFFSET:-+365d}"
 export DATA_DIR="${FUTURE_DATA_DIR:-$ROOT/.data/future}"
 export DB_PORT="${FUTURE_DB_PORT:-$(( ${DB_PORT:-3307} + 100 ))}"
 export SMTP_PORT="${FUTURE_SMTP_PORT:-$(( ${SMTP_PORT:-1025} + 100 ))}"
+export FUTURE_DATA_DIR="$DATA_DIR" FUTURE_DB_PORT="$DB_PORT" FUTURE_SMTP_PORT="$SMTP_PORT" # the same in the second stage
 unset DB_SOCKET MAIL_DIR DB_PASSWORD NUXT_SESSION_PASSWORD NUXT_MAIL_LINK_SECRET
 source "$ROOT/scripts/lib/env.sh"
 
-faketime_lib() { dpkg -L libfaketime 2>/dev/null | grep '/libfaketime\.so\.1$' | head -1; }
-if [ -z "$(faketime_lib)" ]; then
+if ! command -v faketime >/dev/null 2>&1; then
   apt_install faketime
 fi
-LIBFAKETIME="$(faketime_lib)"
 
 stop_future_services() {
   export PATH="$PATH:/usr/sbin"
@@ -30,16 +29,20 @@ stop_future_services() {
     rm -f "$DATA_DIR/mail-catcher.pid"
   fi
 }
+
+if [ "${1:-}" = "--inside-faketime" ]; then
+  # Second stage, on the shifted clock. The MariaDB and mail catcher started from here are stopped
+  # here too: `faketime` waits for every process that inherited its pipe, and it owns the shared
+  # memory every faked process reads, so they must not outlive it.
+  shift
+  trap stop_future_services EXIT
+  bash "$ROOT/scripts/test.sh" "$@"
+  exit $?
+fi
+
 # Servers left from an earlier run may have started on another offset: start them afresh.
 stop_future_services
-trap stop_future_services EXIT
-
 log "running the tests with the clock moved by $OFFSET (libfaketime); MariaDB on $DB_PORT, data in $DATA_DIR"
-# The library is preloaded directly rather than through the `faketime` wrapper, which waits for every
-# process that inherited its pipe (here the MariaDB and mail catcher it would outlive). A relative
-# offset needs no state shared between processes. Monotonic clocks stay real: Node and MariaDB time
-# their waits with them.
-status=0
-LD_PRELOAD="$LIBFAKETIME${LD_PRELOAD:+:$LD_PRELOAD}" FAKETIME="$OFFSET" FAKETIME_DONT_FAKE_MONOTONIC=1 \
-  bash "$ROOT/scripts/test.sh" "$@" || status=$?
-exit "$status"
+# Monotonic clocks stay real: Node and MariaDB time their waits with them.
+export FAKETIME_DONT_FAKE_MONOTONIC=1
+exec faketime -f "$OFFSET" bash "$ROOT/scripts/test-future.sh" --inside-faketime "$@"
