@@ -26,13 +26,14 @@ if ! is_up; then
   fi
   log "starting MariaDB on $DB_HOST:$DB_PORT"
   # --no-defaults drops Debian's config, so the utf8mb4 settings are given here.
-  # flush-log-at-trx-commit=2: this is a local development server; it trades a second of
-  # durability on an OS crash for speed.
+  # Durable: this server holds the practice's data (npm start), so every commit is written and
+  # flushed to disk before it is acknowledged (flush-log-at-trx-commit=1), and the binary log, if
+  # one is ever turned on, is synced at each commit too (sync-binlog=1). Tests use the same settings.
   setsid nohup mariadbd --no-defaults --user=root \
     --datadir="$datadir" --socket="$DB_SOCKET" --pid-file="$pidfile" \
     --port="$DB_PORT" --bind-address="$DB_HOST" --skip-name-resolve \
     --character-set-server=utf8mb4 --collation-server=utf8mb4_unicode_ci \
-    --innodb-flush-log-at-trx-commit=2 --max-connections=500 \
+    --innodb-flush-log-at-trx-commit=1 --sync-binlog=1 --max-connections=500 \
     --log-error="$DATA_DIR/mariadb.err" >/dev/null 2>&1 < /dev/null &
   for _ in $(seq 1 60); do
     is_up && break
@@ -40,6 +41,10 @@ if ! is_up; then
   done
   is_up || { echo "MariaDB did not start; see $DATA_DIR/mariadb.err" >&2; tail -20 "$DATA_DIR/mariadb.err" >&2; exit 1; }
 fi
+
+# A server started by an older version of this script may still run relaxed: make it durable now
+# (both settings are dynamic, so no restart is needed).
+root_sql -e "SET GLOBAL innodb_flush_log_at_trx_commit = 1; SET GLOBAL sync_binlog = 1;"
 
 # The app user may arrive as user@127.0.0.1 or user@localhost; create both.
 root_sql <<SQL

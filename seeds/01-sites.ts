@@ -1,5 +1,20 @@
 // Fernhollow Dental Group (invented): three sites in three time zones, with their rooms.
+import { DateTime } from 'luxon'
 import type { SeedContext } from './context'
+
+/** The days every demo site is closed: Christmas Day and New Year's Day (month-day). */
+export const DEMO_CLOSED_MONTH_DAYS = ['12-25', '01-01'] as const
+
+/**
+ * The demo's closed dates: the next Christmas Day and New Year's Day on or after `today` (yyyy-MM-dd),
+ * so a demo seeded on any date shows upcoming closures, never dates long past.
+ */
+export function demoClosedDates(today: string = DateTime.utc().toISODate()!): string[] {
+  const year = Number(today.slice(0, 4))
+  return DEMO_CLOSED_MONTH_DAYS
+    .map((monthDay) => (`${year}-${monthDay}` >= today ? `${year}-${monthDay}` : `${year + 1}-${monthDay}`))
+    .sort()
+}
 
 const weekdays = (start: string, end: string) => [{ start, end }]
 
@@ -38,7 +53,7 @@ export async function seedSites(ctx: SeedContext): Promise<void> {
       email: `${site.slug.split('-')[0]}@fernhollow.test`, colour: site.colour,
       booking_unit_minutes: site.booking_unit_minutes, tooth_notation: site.tooth_notation,
       opening_hours: JSON.stringify(site.hours),
-      closed_dates: JSON.stringify(['2026-12-25', '2027-01-01']),
+      closed_dates: JSON.stringify(demoClosedDates()),
       settings: JSON.stringify({ reminderOffsetsHours: [48, 3], quietHours: { start: '20:00', end: '08:00' }, includeProcedureNames: false, minimumNoticeMinutes: 60 }),
     })
     ctx.sites[site.slug] = siteId as number

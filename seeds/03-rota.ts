@@ -1,7 +1,16 @@
 // Who works where: weekly shifts (RRULE, local wall time in each site's zone) and blocks.
+import { DateTime } from 'luxon'
 import type { SeedContext } from './context'
 
 const VALID_FROM = '2026-01-05'
+
+/**
+ * A date in next calendar week (Monday = 1), so the demo's one-off block and time off are always
+ * upcoming and on screen, and never in the weeks the tests book (two weeks ahead and later).
+ */
+function nextWeek(weekday: number): string {
+  return DateTime.utc().startOf('week').plus({ weeks: 1, days: weekday - 1 }).toISODate()!
+}
 
 interface ShiftSeed { provider: string; site: string; rrule: string; start: string; end: string }
 
@@ -34,10 +43,10 @@ export async function seedRota(ctx: SeedContext): Promise<void> {
   ])
   blocks.push({
     site_id: ctx.sites['aspen-gulch']!, operatory_id: ctx.operatories['aspen-gulch']![1]!, provider_id: null,
-    start_date: '2026-12-10', local_start: '13:00', local_end: '17:00', rrule: null, until_date: null, reason: 'Equipment service',
+    start_date: nextWeek(4), local_start: '13:00', local_end: '17:00', rrule: null, until_date: null, reason: 'Equipment service',
   })
   await ctx.db('blocks').insert(blocks)
   await ctx.db('shift_exceptions').insert({
-    provider_id: ctx.providers['dentist.3'], site_id: null, kind: 'time_off', start_date: '2026-12-21', end_date: '2026-12-24', local_start: null, local_end: null, reason: 'Holiday',
+    provider_id: ctx.providers['dentist.3'], site_id: null, kind: 'time_off', start_date: nextWeek(1), end_date: nextWeek(4), local_start: null, local_end: null, reason: 'Holiday',
   })
 }

@@ -5,8 +5,9 @@ import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from 
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { FILLING, utcAt } from '../helpers/booking-fixtures'
+import { weekdayAhead, plusDays, TUESDAY } from '../helpers/dates'
 
-const DAY = '2027-06-22' // a Tuesday: the demo dentist works at Quarry Street
+const DAY = weekdayAhead(11, TUESDAY, 'America/Los_Angeles') // a Tuesday: the demo dentist works at Quarry Street
 let browser: BrowserSession
 
 beforeAll(async () => {
@@ -40,8 +41,8 @@ describe('Balance', () => {
     expect(await chair1.locator('[data-band]').getAttribute('data-band')).toBe('quiet')
     await screenshot(page, 'balance-manager')
 
-    // A week shows the site's chairs day by day, Tuesday 22 to Monday 28 June.
-    await page.getByLabel('To', { exact: true }).fill('2027-06-28')
+    // A week shows the site's chairs day by day, Tuesday to the Monday after.
+    await page.getByLabel('To', { exact: true }).fill(plusDays(DAY, 6))
     await expect.poll(() => quarry.getByTestId('balance-day').count()).toBe(7)
     expect(await quarry.getByTestId('balance-day').first().getAttribute('data-date')).toBe(DAY)
     await screenshot(page, 'balance-week')
@@ -54,7 +55,7 @@ describe('Balance', () => {
     await page.getByLabel('Quiet below %').fill('95')
     await expect.poll(() => page.getByRole('alert').textContent()).toBe('"Quiet below" must be lower than "Tight from".')
     await page.getByLabel('Quiet below %').fill('0')
-    await page.getByLabel('To', { exact: true }).fill('2027-06-01')
+    await page.getByLabel('To', { exact: true }).fill(plusDays(DAY, -21))
     await expect.poll(() => page.getByRole('alert').textContent()).toBe('To must not be before from.')
   })
 })

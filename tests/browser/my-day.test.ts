@@ -7,16 +7,17 @@ import { ARTIFACTS, openBrowser, screenshot, signInThroughForm, type BrowserSess
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { bookFirstOpening, demoDentistProviderId } from '../helpers/visits'
+import { weekdayAhead, MONDAY, WEDNESDAY } from '../helpers/dates'
 
 const ZONE = 'America/Los_Angeles'
-const VISIT_DAY = '2027-08-02'
+const VISIT_DAY = weekdayAhead(13, MONDAY, 'America/Los_Angeles')
 let browser: BrowserSession
 let booking: Awaited<ReturnType<typeof bookFirstOpening>>
 
 beforeAll(async () => {
   const quarry = await siteIdBySlug('quarry-street')
   const dentist = await demoDentistProviderId()
-  // A fixed Monday ahead, when the demo dentist works at Quarry Street: the browser's clock is set to
+  // A Monday 13 weeks ahead, when the demo dentist works at Quarry Street: the browser's clock is set to
   // that visit below, so the test does not depend on the hour it runs at.
   booking = await bookFirstOpening(await signedInAs('desk.quarry@fernhollow.test'), {
     siteId: quarry, providerId: dentist, from: VISIT_DAY, to: VISIT_DAY, patientOffset: 141, note: 'Prefers the left side of the chair',
@@ -90,7 +91,7 @@ describe('My day', () => {
 
   it('opens a Wednesday at Saguaro Flats, where the dentist works that day, in Phoenix time', async () => {
     const { page } = browser
-    const wednesday = DateTime.now().setZone('America/Phoenix').startOf('week').plus({ weeks: 1, days: 2 }).toISODate()!
+    const wednesday = weekdayAhead(1, WEDNESDAY, 'America/Phoenix')
     await page.getByLabel('Day to show').fill(wednesday)
     await page.waitForURL(new RegExp(`/my-day\\?date=${wednesday}$`))
     await expect.poll(() => page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in America/Phoenix')

@@ -1,12 +1,13 @@
 // The Outbox screen and the patient's visit page in real Chromium: a visit booked just now shows its
 // invitation, and the confirm link from that very e-mail confirms the visit without signing in.
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
+import { DateTime } from 'luxon'
 import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from '../helpers/browser'
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
-import { utcAt } from '../helpers/booking-fixtures'
 import { bookingFor, createMailAnnex, outboxRowsOf, type MailAnnex } from '../helpers/mail-fixtures'
 import { visitLinkOf, waitForOutboxMail } from '../helpers/mail'
+import { atAhead, weekdayAhead, MONDAY } from '../helpers/dates'
 
 let staff: BrowserSession
 let patient: BrowserSession
@@ -17,7 +18,7 @@ let invitationId: number
 beforeAll(async () => {
   annex = await createMailAnnex({ patients: 1 })
   const manager = await signedInAs('manager@fernhollow.test')
-  const booked = await manager.post('/api/appointments', bookingFor(annex, 0, utcAt('2027-06-07T10:30', 'America/Los_Angeles')))
+  const booked = await manager.post('/api/appointments', bookingFor(annex, 0, atAhead(2, MONDAY, '10:30', 'America/Los_Angeles')))
   expect(booked.status).toBe(201)
   visitId = booked.body.id
   invitationId = (await outboxRowsOf(visitId)).find((row) => row.kind === 'invitation')!.id
@@ -59,7 +60,7 @@ describe('Outbox screen', () => {
     const { page } = patient
     await page.goto(visitLinkOf(mail))
     await expect.poll(() => page.getByTestId('visit-status').textContent()).toBe('Please let us know whether you are coming.')
-    expect(await page.getByTestId('visit-when').textContent()).toContain('Monday, 7 June 2027 at 10:30 AM')
+    expect(await page.getByTestId('visit-when').textContent()).toContain(`${DateTime.fromISO(weekdayAhead(2, MONDAY, 'America/Los_Angeles')).toFormat('cccc, d LLLL yyyy')} at 10:30 AM`)
     await screenshot(page, 'visit-link-before')
     await page.getByRole('button', { name: 'I will be there' }).click()
     await expect.poll(() => page.getByTestId('visit-status').textContent()).toBe('You have confirmed this visit. Thank you.')

@@ -3,7 +3,8 @@ import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
 import { ApiClient } from '../helpers/api-client'
 import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from '../helpers/browser'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
-import { FILLING, utcAt } from '../helpers/booking-fixtures'
+import { FILLING } from '../helpers/booking-fixtures'
+import { atAhead, weekdayAhead, daysFromToday, TUESDAY, THURSDAY } from '../helpers/dates'
 
 let browser: BrowserSession
 beforeAll(async () => { browser = await openBrowser(inject('baseURL')) })
@@ -18,10 +19,10 @@ describe('Patients screen', () => {
     const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist@fernhollow.test').first('providers.id')
     const patient = await api.post('/api/patients', { firstName: 'Quillon', lastName: 'Patientscreen', dateOfBirth: '1984-07-09', phone: '(209) 555-0177' })
     expect(patient.status).toBe(201)
-    const start = new Date(Date.now() + 9 * 86_400_000)
-    // The next Monday at least a week ahead, when the demo dentist is at Quarry Street.
-    while (start.getUTCDay() !== 1) start.setUTCDate(start.getUTCDate() + 1)
-    const booked = await api.post('/api/appointments', { patientId: patient.body.id, siteId: quarry, operatoryId: chair.id, providerId: dentist.id, startUtc: utcAt(`${start.toISOString().slice(0, 10)}T10:30`, 'America/Los_Angeles'), items: FILLING })
+    // The screen lists the next six weeks: next week's Tuesday (or its Thursday, should the Tuesday be a
+    // closed day), when the demo dentist is at Quarry Street; the Week test books that week's first opening.
+    const weekday = [TUESDAY, THURSDAY].find((day) => weekdayAhead(1, day, 'America/Los_Angeles') <= daysFromToday(42, 'America/Los_Angeles'))!
+    const booked = await api.post('/api/appointments', { patientId: patient.body.id, siteId: quarry, operatoryId: chair.id, providerId: dentist.id, startUtc: atAhead(1, weekday, '10:30', 'America/Los_Angeles'), items: FILLING })
     expect(booked.status).toBe(201)
 
     const { page } = browser

@@ -26,9 +26,25 @@ export async function openBrowser(baseURL: string, viewport = { width: 1280, hei
     baseURL,
     viewport,
     timezoneId: 'UTC',
+    env: browserEnv(),
   })
+  // Under `npm run test:future` this process's clock is moved by libfaketime, which Chromium does not
+  // survive; Chromium runs on the real clock and its pages are given this process's time instead.
+  if (process.env.FAKETIME) await context.clock.install({ time: Date.now() })
   const page = context.pages()[0] ?? await context.newPage()
   return { context, page, close: () => context.close() }
+}
+
+/** Chromium's environment: this process's, without libfaketime (Chromium hangs with it preloaded). */
+function browserEnv(): Record<string, string> {
+  const env: Record<string, string> = {}
+  for (const [name, value] of Object.entries(process.env)) {
+    if (value !== undefined && !name.startsWith('FAKETIME')) env[name] = value
+  }
+  const preload = (env.LD_PRELOAD ?? '').split(/[:\s]+/).filter((lib) => lib && !lib.includes('libfaketime'))
+  if (preload.length) env.LD_PRELOAD = preload.join(':')
+  else delete env.LD_PRELOAD
+  return env
 }
 
 export async function screenshot(page: Page, name: string): Promise<string> {

@@ -4,8 +4,9 @@ import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb } from '../helpers/db'
 import { createAnnex, FILLING, utcAt, type Annex } from '../helpers/booking-fixtures'
+import { weekdayAhead, plusDays, MONDAY } from '../helpers/dates'
 
-const DAY = '2027-06-14'
+const DAY = weekdayAhead(10, MONDAY) // this file's own week
 let manager: ApiClient
 let annex: Annex
 
@@ -29,8 +30,8 @@ describe('balance', () => {
   })
 
   it.each([
-    ['an end before the start', `from=${DAY}&to=2027-06-13`, 'to'],
-    ['more than 31 days', 'from=2027-06-01&to=2027-07-02', 'to'],
+    ['an end before the start', `from=${DAY}&to=${plusDays(DAY, -1)}`, 'to'],
+    ['more than 31 days', `from=${DAY}&to=${plusDays(DAY, 31)}`, 'to'],
     ['a date that is not one', 'from=2027-02-30&to=2027-03-01', 'from'],
     ['a quiet threshold above the tight one', `from=${DAY}&to=${DAY}&quietBelow=0.9&tightFrom=0.5`, 'quietBelow'],
     ['a share above 1', `from=${DAY}&to=${DAY}&tightFrom=1.5`, 'tightFrom'],
@@ -61,7 +62,7 @@ describe('balance', () => {
   })
 
   it('gives every site in the manager\'s scope when no site is named, with the thresholds used', async () => {
-    const response = await manager.get(`/api/balance?from=${DAY}&to=2027-06-20&quietBelow=0.3&tightFrom=0.8`)
+    const response = await manager.get(`/api/balance?from=${DAY}&to=${plusDays(DAY, 6)}&quietBelow=0.3&tightFrom=0.8`)
     expect(response.status).toBe(200)
     expect(response.body.thresholds).toEqual({ quietBelow: 0.3, tightFrom: 0.8 })
     const names = response.body.sites.map((site: { siteName: string }) => site.siteName)
@@ -70,8 +71,8 @@ describe('balance', () => {
     // Quarry Street has five rooms and is open on weekdays (the demo's opening hours).
     expect(quarry.operatories).toHaveLength(5)
     expect(quarry.chairs.availableMinutes).toBeGreaterThan(0)
-    // Day by day, Monday 14 to Sunday 20 June: Quarry Street is closed on Sundays (no share).
-    expect(quarry.days.map((day: { date: string }) => day.date)).toEqual(['2027-06-14', '2027-06-15', '2027-06-16', '2027-06-17', '2027-06-18', '2027-06-19', '2027-06-20'])
+    // Day by day, Monday to Sunday: Quarry Street is closed on Sundays (no share).
+    expect(quarry.days.map((day: { date: string }) => day.date)).toEqual([0, 1, 2, 3, 4, 5, 6].map((days) => plusDays(DAY, days)))
     expect(quarry.days.at(-1)).toMatchObject({ availableMinutes: 0, share: null })
     const total = quarry.days.reduce((sum: number, day: { availableMinutes: number }) => sum + day.availableMinutes, 0)
     expect(Math.abs(total - quarry.chairs.availableMinutes)).toBeLessThanOrEqual(quarry.days.length)

@@ -1,9 +1,10 @@
 // Booking never double-books: concurrency, numbing interleave, moves, states, idempotency.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { startAppServer, type RunningServer } from '../helpers/app-server'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
-import { createAnnex, FILLING, utcAt, type Annex } from '../helpers/booking-fixtures'
+import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
+import { atAhead, MONDAY, TUESDAY, WEDNESDAY, THURSDAY, FRIDAY } from '../helpers/dates'
 
 const QUARRY_ZONE = 'America/Los_Angeles'
 let manager: ApiClient
@@ -34,7 +35,7 @@ function statuses(responses: Array<{ status: number }>): Record<number, number> 
 
 describe('booking a visit', () => {
   it('books a two-surface filling with its segments, an audit row and an outbox row', async () => {
-    const startUtc = utcAt('2027-01-11T09:00', QUARRY_ZONE) // a Monday: the demo dentist is at Quarry Street
+    const startUtc = atAhead(2, MONDAY, '09:00', QUARRY_ZONE) // a Monday: the demo dentist is at Quarry Street
     const consenting = await testDb()('patients').whereNotNull('email').where({ email_consent: true }).first('id')
     const response = await manager.post('/api/appointments', booking({ startUtc, patientId: consenting.id, operatoryId: quarry.chair3 }))
     expect(response.status).toBe(201)
@@ -48,22 +49,22 @@ describe('booking a visit', () => {
   })
 
   it('books a second patient in another chair during the first one\'s numbing wait, not during hands-on work', async () => {
-    const first = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-01-18T09:00', QUARRY_ZONE), patientId: quarry.patients[1] }))
+    const first = await manager.post('/api/appointments', booking({ startUtc: atAhead(3, MONDAY, '09:00', QUARRY_ZONE), patientId: quarry.patients[1] }))
     expect(first.status).toBe(201)
     const numbing = first.body.segments.find((segment: { kind: string }) => segment.kind === 'numbing')
     expect(numbing).toBeTruthy()
     // A sealant's hands-on minutes fit inside the 10-minute onset wait of the first patient's block.
     const sealant = [{ templateCode: 'SEAL', tooth: '3' }]
-    const during = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-01-18T09:05', QUARRY_ZONE), operatoryId: quarry.hygieneA, patientId: quarry.patients[2], items: sealant }))
+    const during = await manager.post('/api/appointments', booking({ startUtc: atAhead(3, MONDAY, '09:05', QUARRY_ZONE), operatoryId: quarry.hygieneA, patientId: quarry.patients[2], items: sealant }))
     expect(during.status).toBe(201)
-    const overlapping = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-01-18T09:10', QUARRY_ZONE), operatoryId: quarry.hygieneB, patientId: quarry.patients[3], items: sealant }))
+    const overlapping = await manager.post('/api/appointments', booking({ startUtc: atAhead(3, MONDAY, '09:10', QUARRY_ZONE), operatoryId: quarry.hygieneB, patientId: quarry.patients[3], items: sealant }))
     expect(overlapping.status).toBe(409)
     expect(overlapping.body.data.conflict).toMatchObject({ resource: 'provider', id: quarry.dentist })
     expect(overlapping.body.message).toMatch(/already working with another patient/)
   })
 
   it('refuses a second visit for a patient who already has one then', async () => {
-    const startUtc = utcAt('2027-01-25T10:00', QUARRY_ZONE)
+    const startUtc = atAhead(4, MONDAY, '10:00', QUARRY_ZONE)
     expect((await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[4] }))).status).toBe(201)
     // Another room and another provider: only the patient is double-booked.
     const hygienist = await providerIdOf('hygienist.two@fernhollow.test')
@@ -73,12 +74,12 @@ describe('booking a visit', () => {
   })
 
   it.each([
-    ['startUtc', { startUtc: utcAt('2027-01-11T09:03', QUARRY_ZONE) }, /grid/],
+    ['startUtc', { startUtc: atAhead(2, MONDAY, '09:03', QUARRY_ZONE) }, /grid/],
     ['startUtc', { startUtc: '2020-01-06T17:00:00Z' }, /from now/],
     ['startUtc', { startUtc: 'next monday' }, /ISO date-time/],
-    ['operatoryId', { startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE), operatoryId: 999999 }, /not a room/],
-    ['patientId', { startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE), patientId: 99999999 }, /no such patient/],
-    ['items.0.surfaces', { startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE), items: [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MOX' }] }, /X/],
+    ['operatoryId', { startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE), operatoryId: 999999 }, /not a room/],
+    ['patientId', { startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE), patientId: 99999999 }, /no such patient/],
+    ['items.0.surfaces', { startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE), items: [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MOX' }] }, /X/],
   ])('answers 400 naming %s', async (field, change, reason) => {
     const response = await manager.post('/api/appointments', booking(change))
     expect(response.status).toBe(400)
@@ -87,44 +88,44 @@ describe('booking a visit', () => {
   })
 
   it('refuses a chair without the equipment (a filling in a hygiene room)', async () => {
-    const response = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE), operatoryId: quarry.hygieneA }))
+    const response = await manager.post('/api/appointments', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE), operatoryId: quarry.hygieneA }))
     expect(response.status).toBe(400)
     expect(response.body.data.field).toBe('operatoryId')
   })
 
   it('answers 409 outside opening hours and when the provider is not on shift', async () => {
-    const lateEvening = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-08T19:00', QUARRY_ZONE) }))
+    const lateEvening = await manager.post('/api/appointments', booking({ startUtc: atAhead(6, MONDAY, '19:00', QUARRY_ZONE) }))
     expect(lateEvening.status).toBe(409)
     expect(lateEvening.body.data.conflict.resource).toBe('operatory')
     // Wednesdays the demo dentist works at Saguaro Flats, not Quarry Street.
-    const wednesday = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-10T09:00', QUARRY_ZONE) }))
+    const wednesday = await manager.post('/api/appointments', booking({ startUtc: atAhead(6, WEDNESDAY, '09:00', QUARRY_ZONE) }))
     expect(wednesday.status).toBe(409)
     expect(wednesday.body.data.conflict.resource).toBe('provider')
   })
 
   it('keeps front desk to its own sites and signed-out callers out', async () => {
     const desk = await signedInAs('desk.aspen@fernhollow.test')
-    expect((await desk.post('/api/appointments', booking({ startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE) }))).status).toBe(403)
+    expect((await desk.post('/api/appointments', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE) }))).status).toBe(403)
     const hygienist = await signedInAs('hygienist@fernhollow.test')
-    expect((await hygienist.post('/api/appointments', booking({ startUtc: utcAt('2027-02-08T09:00', QUARRY_ZONE) }))).status).toBe(403)
+    expect((await hygienist.post('/api/appointments', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE) }))).status).toBe(403)
     expect((await new ApiClient().post('/api/appointments', booking({}))).status).toBe(401)
   })
 })
 
 describe('moving, states and cancelling', () => {
   it('moves with the current row version, refuses a stale one and a busy chair', async () => {
-    const a = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-01T13:00', QUARRY_ZONE), patientId: quarry.patients[5] }))
-    const b = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-01T13:00', QUARRY_ZONE), patientId: quarry.patients[6], operatoryId: quarry.chair2, providerId: quarry.dentist, items: [{ templateCode: 'EXAM-EMER' }] }))
+    const a = await manager.post('/api/appointments', booking({ startUtc: atAhead(5, MONDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[5] }))
+    const b = await manager.post('/api/appointments', booking({ startUtc: atAhead(5, MONDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[6], operatoryId: quarry.chair2, providerId: quarry.dentist, items: [{ templateCode: 'EXAM-EMER' }] }))
     expect(a.status).toBe(201)
     expect([201, 409]).toContain(b.status)
-    const moved = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 1, startUtc: utcAt('2027-02-01T14:30', QUARRY_ZONE) })
+    const moved = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 1, startUtc: atAhead(5, MONDAY, '14:30', QUARRY_ZONE) })
     expect(moved.status).toBe(200)
-    expect(moved.body).toMatchObject({ rowVersion: 2, icalSequence: 1, startUtc: new Date(utcAt('2027-02-01T14:30', QUARRY_ZONE)).toISOString() })
-    const stale = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 1, startUtc: utcAt('2027-02-01T15:00', QUARRY_ZONE) })
+    expect(moved.body).toMatchObject({ rowVersion: 2, icalSequence: 1, startUtc: new Date(atAhead(5, MONDAY, '14:30', QUARRY_ZONE)).toISOString() })
+    const stale = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 1, startUtc: atAhead(5, MONDAY, '15:00', QUARRY_ZONE) })
     expect(stale.status).toBe(409)
     expect(stale.body.data.field).toBe('rowVersion')
 
-    const blocker = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-01T14:30', QUARRY_ZONE), patientId: quarry.patients[7], operatoryId: quarry.chair3, providerId: await otherQuarryDentist(), items: [{ templateCode: 'EXAM-EMER' }] }))
+    const blocker = await manager.post('/api/appointments', booking({ startUtc: atAhead(5, MONDAY, '14:30', QUARRY_ZONE), patientId: quarry.patients[7], operatoryId: quarry.chair3, providerId: await otherQuarryDentist(), items: [{ templateCode: 'EXAM-EMER' }] }))
     expect(blocker.status).toBe(201)
     const ontoBusy = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 2, operatoryId: quarry.chair3 })
     expect(ontoBusy.status).toBe(409)
@@ -134,7 +135,7 @@ describe('moving, states and cancelling', () => {
   })
 
   it('changes a visit\'s length by hand only with a reason, and never below the work itself', async () => {
-    const visit = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-11T08:00', QUARRY_ZONE), patientId: quarry.patients[11] }))
+    const visit = await manager.post('/api/appointments', booking({ startUtc: atAhead(6, THURSDAY, '08:00', QUARRY_ZONE), patientId: quarry.patients[11] }))
     expect(visit.status).toBe(201)
     const minutes = (Date.parse(visit.body.endUtc) - Date.parse(visit.body.startUtc)) / 60_000
     const noReason = await manager.patch(`/api/appointments/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: minutes + 15, reason: '' } })
@@ -151,7 +152,7 @@ describe('moving, states and cancelling', () => {
   })
 
   it('allows only the glossary\'s state transitions and frees the time on cancel', async () => {
-    const startUtc = utcAt('2027-02-04T10:00', QUARRY_ZONE) // a Thursday
+    const startUtc = atAhead(5, THURSDAY, '10:00', QUARRY_ZONE) // a Thursday
     const visit = await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[8] }))
     expect(visit.status).toBe(201)
     const id = visit.body.id
@@ -164,11 +165,11 @@ describe('moving, states and cancelling', () => {
     expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived' })).status).toBe(409)
     expect((await manager.post(`/api/appointments/${id}/state`, { state: 'asleep' })).status).toBe(400)
 
-    const other = await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-04T13:00', QUARRY_ZONE), patientId: quarry.patients[9] }))
+    const other = await manager.post('/api/appointments', booking({ startUtc: atAhead(5, THURSDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[9] }))
     expect((await manager.post(`/api/appointments/${other.body.id}/cancel`, {})).status).toBe(400)
     const cancelled = await manager.post(`/api/appointments/${other.body.id}/cancel`, { reason: 'Patient is travelling' })
     expect(cancelled.body).toMatchObject({ state: 'cancelled', cancelReason: 'Patient is travelling', segments: [] })
-    expect((await manager.post('/api/appointments', booking({ startUtc: utcAt('2027-02-04T13:00', QUARRY_ZONE), patientId: quarry.patients[10] }))).status).toBe(201)
+    expect((await manager.post('/api/appointments', booking({ startUtc: atAhead(5, THURSDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[10] }))).status).toBe(201)
   })
 })
 
@@ -195,7 +196,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
   }
 
   it('50 simultaneous bookings of one chair at one time: exactly one wins', async () => {
-    const startUtc = utcAt('2027-03-01T09:00', annex.timeZone)
+    const startUtc = atAhead(2, MONDAY, '09:00', annex.timeZone)
     const clients = await Promise.all(Array.from({ length: 5 }, () => signedInAs('admin@fernhollow.test')))
     const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
       clients[index % 5]!.post('/api/appointments', annexBooking(index, { startUtc, providerId: annex.providerIds[index % 3] }))))
@@ -204,7 +205,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
   })
 
   it('50 simultaneous bookings in 50 chairs that all need one provider hands-on: exactly one wins', async () => {
-    const startUtc = utcAt('2027-03-02T09:00', annex.timeZone)
+    const startUtc = atAhead(2, TUESDAY, '09:00', annex.timeZone)
     const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
       manager.post('/api/appointments', annexBooking(50 + index, { startUtc, operatoryId: annex.operatoryIds[index] }))))
     expect(statuses(responses)).toEqual({ 201: 1, 409: 49 })
@@ -213,7 +214,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
   })
 
   it('the same race across two app server processes sharing the database', async () => {
-    const startUtc = utcAt('2027-03-03T09:00', annex.timeZone)
+    const startUtc = atAhead(2, WEDNESDAY, '09:00', annex.timeZone)
     const onSecond = new ApiClient(second.url)
     await onSecond.signIn('manager@fernhollow.test')
     const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
@@ -223,7 +224,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
   })
 
   it('an Idempotency-Key repeated (even at once) books one visit and answers the same', async () => {
-    const startUtc = utcAt('2027-03-04T09:00', annex.timeZone)
+    const startUtc = atAhead(2, THURSDAY, '09:00', annex.timeZone)
     const body = annexBooking(0, { startUtc, operatoryId: annex.operatoryIds[2] })
     const headers = { 'idempotency-key': `test-key-${annex.siteId}` }
     const [first, second] = await Promise.all([manager.post('/api/appointments', body, { headers }), manager.post('/api/appointments', body, { headers })])
@@ -255,8 +256,29 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
       return () => trx.rollback()
     }
 
+    /**
+     * Resolves once the booking's lock statement on the chair has waited, given up and started waiting
+     * again: the request is in a retry. Read from the processlist (the app connects as the same user).
+     */
+    async function waitForLockRetry(operatoryId: number) {
+      let waits = 0
+      let lastMs = -1
+      await vi.waitFor(async () => {
+        const [rows] = await testDb().raw(
+          "SELECT TIME_MS AS ms FROM information_schema.PROCESSLIST WHERE ID <> CONNECTION_ID() AND COMMAND = 'Query' AND INFO LIKE ?",
+          [`update \`operatories\` set \`booking_seq\` = \`booking_seq\` + 1 where \`id\` = ${operatoryId}`])
+        const ms = rows[0] === undefined ? undefined : Number(rows[0].ms)
+        if (ms === undefined) lastMs = -1
+        else {
+          if (lastMs < 0 || ms < lastMs) waits += 1
+          lastMs = ms
+        }
+        if (waits < 2) throw new Error(`the booking has waited for the chair ${waits} time(s), not yet retried`)
+      }, { timeout: 15_000, interval: 50 })
+    }
+
     it('is retried, and answers 503 in words after the third lock wait timeout, booking nothing', async () => {
-      const startUtc = utcAt('2027-03-05T09:00', annex.timeZone)
+      const startUtc = atAhead(2, FRIDAY, '09:00', annex.timeZone)
       const release = await holdChair(annex.operatoryIds[4]!)
       try {
         const started = Date.now()
@@ -272,10 +294,10 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
     })
 
     it('books once the lock is let go during a retry', async () => {
-      const startUtc = utcAt('2027-03-05T11:00', annex.timeZone)
+      const startUtc = atAhead(2, FRIDAY, '11:00', annex.timeZone)
       const release = await holdChair(annex.operatoryIds[5]!)
       const pending = onImpatient.post('/api/appointments', annexBooking(2, { startUtc, operatoryId: annex.operatoryIds[5] }))
-      await new Promise((wait) => setTimeout(wait, 1_500))
+      await waitForLockRetry(annex.operatoryIds[5]!)
       await release()
       expect((await pending).status).toBe(201)
       expect(await visitsAt(annex.operatoryIds[5]!, startUtc)).toBe(1)

@@ -4,10 +4,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DateTime } from 'luxon'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
-import { utcAt } from '../helpers/booking-fixtures'
 import { bookingFor, createMailAnnex, outboxRowsOf, type MailAnnex } from '../helpers/mail-fixtures'
 import { calendarMethodParam, calendarPart, parseCalendar, veventOf, visitLinkOf, waitForOutboxMail, type Arrived } from '../helpers/mail'
 import { signVisitToken } from '../../server/utils/visit-token'
+import { atAhead, MONDAY, TUESDAY } from '../helpers/dates'
 
 const ZONE = 'America/Los_Angeles'
 let manager: ApiClient
@@ -42,7 +42,7 @@ describe('invitation, update and cancellation', () => {
   let invitation: Arrived
 
   it('sends an invitation whose calendar part is a METHOD:REQUEST event for the booked chair time', async () => {
-    const startUtc = utcAt('2027-03-15T10:00', ZONE)
+    const startUtc = atAhead(2, MONDAY, '10:00', ZONE)
     const booked = await manager.post('/api/appointments', bookingFor(annex, 0, startUtc))
     expect(booked.status).toBe(201)
     visitId = booked.body.id
@@ -82,8 +82,11 @@ describe('invitation, update and cancellation', () => {
     expect(invitation.parsed.subject).toMatch(/^Your dental visit at Test annex/)
     expect(text).toContain(annex.address)
     expect(text).toContain(annex.phone)
-    // 10:00 in Los Angeles on 15 March 2027 is daylight time (IANA tz database, US rule).
-    expect(text).toContain('Monday, 15 March 2027 at 10:00 AM (Pacific Daylight Time)')
+    // The zone's name follows daylight saving time on the visit's date (IANA tz database, US rule).
+    const local = DateTime.fromISO(atAhead(2, MONDAY, '10:00', ZONE)).setZone(ZONE)
+    const zoneName = local.isInDST ? 'Pacific Daylight Time' : 'Pacific Standard Time'
+    expect(text).toContain(`${local.toFormat('cccc, d LLLL yyyy')} at 10:00 AM (${zoneName})`)
+    expect(local.toFormat('cccc')).toBe('Monday')
     expect(text).toMatch(/Plan for: about \d/)
     expect(text).toMatch(/Please bring a photo ID/)
     expect(text).toMatch(/To cancel or change the time, use the link above or call us at 555-0142/)
@@ -101,23 +104,26 @@ describe('invitation, update and cancellation', () => {
 
   it('sends an update with the same UID and a higher SEQUENCE when the visit moves (RFC 5546 §2.1.4, §2.1.5)', async () => {
     const visit = await manager.get(`/api/appointments/${visitId}`)
-    const moved = await manager.patch(`/api/appointments/${visitId}`, { rowVersion: visit.body.rowVersion, startUtc: utcAt('2027-03-16T14:00', ZONE) })
+    const moved = await manager.patch(`/api/appointments/${visitId}`, { rowVersion: visit.body.rowVersion, startUtc: atAhead(2, TUESDAY, '14:00', ZONE) })
     expect(moved.status).toBe(200)
     const update = await arrived(visitId, 'update', annex.emails[0]!)
     expect(calendarMethodParam(update)).toBe('REQUEST')
     const vevent = veventOf(calendarOf(update))
     expect(vevent.getFirstPropertyValue('uid')).toBe(uid)
     expect(Number(vevent.getFirstPropertyValue('sequence'))).toBeGreaterThan(0)
-    expect((vevent.getFirstPropertyValue('dtstart') as { toJSDate: () => Date }).toJSDate().toISOString()).toBe(new Date(utcAt('2027-03-16T14:00', ZONE)).toISOString())
+    expect((vevent.getFirstPropertyValue('dtstart') as { toJSDate: () => Date }).toJSDate().toISOString()).toBe(new Date(atAhead(2, TUESDAY, '14:00', ZONE)).toISOString())
     expect(update.parsed.subject).toMatch(/^Changed:/)
-    expect(update.parsed.text).toContain('Tuesday, 16 March 2027 at 2:00 PM (Pacific Daylight Time)')
+    const local = DateTime.fromISO(atAhead(2, TUESDAY, '14:00', ZONE)).setZone(ZONE)
+    expect(local.toFormat('cccc h:mm a')).toBe('Tuesday 2:00 PM')
+    const zoneName = local.isInDST ? 'Pacific Daylight Time' : 'Pacific Standard Time'
+    expect(update.parsed.text).toContain(`${local.toFormat('cccc, d LLLL yyyy')} at 2:00 PM (${zoneName})`)
   })
 
   it('re-plans the reminders of a moved visit, outside quiet hours', async () => {
     const reminders = (await outboxRowsOf(visitId)).filter((row) => row.kind === 'reminder')
     const live = reminders.filter((row) => row.state === 'queued')
     expect(reminders.filter((row) => row.state === 'skipped').length).toBe(2)
-    expect(live.map((row) => DateTime.fromJSDate(row.due_at, { zone: ZONE }).toFormat("yyyy-MM-dd'T'HH:mm"))).toEqual(['2027-03-14T14:00', '2027-03-16T11:00'])
+    expect(live.map((row) => DateTime.fromJSDate(row.due_at, { zone: ZONE }).toFormat("yyyy-MM-dd'T'HH:mm"))).toEqual([48, 3].map((hours) => DateTime.fromISO(atAhead(2, TUESDAY, '14:00', ZONE)).minus({ hours }).setZone(ZONE).toFormat("yyyy-MM-dd'T'HH:mm")))
   })
 
   it('sends METHOD:CANCEL with the same UID, STATUS:CANCELLED, a higher SEQUENCE and no VALARM on cancel (RFC 5546 §3.2.5)', async () => {
@@ -143,7 +149,7 @@ describe('invitation, update and cancellation', () => {
 describe('consent', () => {
   it('queues nothing for a patient without e-mail consent', async () => {
     await testDb()('patients').where({ id: annex.patientIds[1] }).update({ email_consent: false })
-    const booked = await manager.post('/api/appointments', bookingFor(annex, 1, utcAt('2027-03-22T10:00', ZONE)))
+    const booked = await manager.post('/api/appointments', bookingFor(annex, 1, atAhead(3, MONDAY, '10:00', ZONE)))
     expect(booked.status).toBe(201)
     expect(await outboxRowsOf(booked.body.id)).toHaveLength(0)
   })
@@ -151,7 +157,7 @@ describe('consent', () => {
   it('checks consent again at send time: withdrawn after booking, the message is skipped', async () => {
     // Booked on a mail lane no process serves, so nothing is sent before consent is withdrawn.
     const held = await createMailAnnex({ patients: 1, mailLane: `held-${annex.siteId}` })
-    const booked = await manager.post('/api/appointments', bookingFor(held, 0, utcAt('2027-03-22T13:00', ZONE)))
+    const booked = await manager.post('/api/appointments', bookingFor(held, 0, atAhead(3, MONDAY, '13:00', ZONE)))
     expect(booked.status).toBe(201)
     expect((await outboxRow(booked.body.id, 'invitation')).state).toBe('queued')
     await testDb()('patients').where({ id: held.patientIds[0] }).update({ email_consent: false })
@@ -165,8 +171,8 @@ describe('consent', () => {
 describe('mail held up past the visit', () => {
   it('skips an invitation once the visit has begun, and a cancellation once its time has passed', async () => {
     const held = await createMailAnnex({ patients: 2, mailLane: `late-${annex.siteId}` })
-    const kept = await manager.post('/api/appointments', bookingFor(held, 0, utcAt('2027-03-23T09:00', ZONE)))
-    const dropped = await manager.post('/api/appointments', bookingFor(held, 1, utcAt('2027-03-23T11:00', ZONE)))
+    const kept = await manager.post('/api/appointments', bookingFor(held, 0, atAhead(3, TUESDAY, '09:00', ZONE)))
+    const dropped = await manager.post('/api/appointments', bookingFor(held, 1, atAhead(3, TUESDAY, '11:00', ZONE)))
     expect([kept.status, dropped.status]).toEqual([201, 201])
     expect((await manager.post(`/api/appointments/${dropped.body.id}/cancel`, { reason: 'Patient moved away' })).status).toBe(200)
     // As if the mail had waited through a long outage: both visits now lie in the past.
@@ -188,7 +194,7 @@ describe('the signed visit link', () => {
   let token: string
 
   beforeAll(async () => {
-    const booked = await manager.post('/api/appointments', bookingFor(annex, 3, utcAt('2027-04-05T09:00', ZONE)))
+    const booked = await manager.post('/api/appointments', bookingFor(annex, 3, atAhead(4, MONDAY, '09:00', ZONE)))
     expect(booked.status).toBe(201)
     visitId = booked.body.id
     link = visitLinkOf(await arrived(visitId, 'invitation', annex.emails[3]!))
@@ -254,7 +260,7 @@ describe('the signed visit link', () => {
 
   it('cancels at once where the site says so, sending the cancellation', async () => {
     const eager = await createMailAnnex({ patients: 1, settings: { patientCancel: 'cancel' } })
-    const booked = await manager.post('/api/appointments', bookingFor(eager, 0, utcAt('2027-04-06T09:00', ZONE)))
+    const booked = await manager.post('/api/appointments', bookingFor(eager, 0, atAhead(4, TUESDAY, '09:00', ZONE)))
     const own = visitLinkOf(await arrived(booked.body.id, 'invitation', eager.emails[0]!))
     const ownToken = decodeURIComponent(new URL(own).pathname.split('/').pop()!)
     const cancelled = await new ApiClient().post(`/api/visit/${encodeURIComponent(ownToken)}/cancel`)
@@ -267,7 +273,7 @@ describe('the signed visit link', () => {
 
 describe('Outbox API', () => {
   it('lists a visit\'s messages, shows the rendered message and .ics, and resends', async () => {
-    const booked = await manager.post('/api/appointments', bookingFor(annex, 4, utcAt('2027-04-12T10:00', ZONE)))
+    const booked = await manager.post('/api/appointments', bookingFor(annex, 4, atAhead(5, MONDAY, '10:00', ZONE)))
     const first = await arrived(booked.body.id, 'invitation', annex.emails[4]!)
     const list = await manager.get(`/api/outbox?appointmentId=${booked.body.id}`)
     expect(list.status).toBe(200)
@@ -292,7 +298,7 @@ describe('Outbox API', () => {
 
   it('names the procedure only when the site turns includeProcedureNames on', async () => {
     const open = await createMailAnnex({ patients: 1, settings: { includeProcedureNames: true } })
-    const booked = await manager.post('/api/appointments', bookingFor(open, 0, utcAt('2027-04-13T10:00', ZONE)))
+    const booked = await manager.post('/api/appointments', bookingFor(open, 0, atAhead(5, TUESDAY, '10:00', ZONE)))
     const mail = await arrived(booked.body.id, 'invitation', open.emails[0]!)
     expect(everything(mail)).toContain('Posterior composite')
   })

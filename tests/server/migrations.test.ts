@@ -1,6 +1,7 @@
 // Migrations run up and down cleanly, and the demo seed is deterministic, on a scratch database.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Knex } from 'knex'
+import mysql from 'mysql2/promise'
 import { createDb, dbSettingsFromEnv } from '../../db/connection'
 import { migratorConfig } from '../../db/migration-source'
 import { seedDemo } from '../../seeds/index'
@@ -8,6 +9,12 @@ import { closeTestDb, testDb } from '../helpers/db'
 
 const SCRATCH = 'cuspline_migration_check'
 let scratch: Knex
+
+/** Host, port, user and password for a plain mysql2 connection outside the app's settings. */
+function rawSettings() {
+  const { host, port, user, password } = dbSettingsFromEnv()
+  return { host, port, user, password }
+}
 
 async function tableNames(db: Knex): Promise<string[]> {
   const [rows] = await db.raw('SHOW TABLES')
@@ -41,8 +48,35 @@ describe('migrations', () => {
   })
 
   it('stores DATETIME values as UTC whatever the session zone was', async () => {
-    const [row] = await scratch.raw('SELECT @@session.time_zone AS zone')
-    expect((row as { zone: string }[])[0]!.zone).toBe('+00:00')
+    // Written through the app's own connection settings (db/connection.ts): a JS Date and a NOW(3) default.
+    await scratch.schema.dropTableIfExists('datetime_check')
+    await scratch.schema.createTable('datetime_check', (t) => {
+      t.integer('id').primary()
+      t.datetime('at', { precision: 3 })
+      t.datetime('made', { precision: 3 }).notNullable().defaultTo(scratch.fn.now(3))
+    })
+    try {
+      const instant = new Date(Date.UTC(2026, 6, 1, 12, 34, 56, 789)) // summer: 05:34 in Los Angeles, 21:34 in Tokyo
+      await scratch('datetime_check').insert({ id: 1, at: instant })
+      // Read back raw, as strings, on a plain connection whose session zone is deliberately not UTC.
+      const raw = await mysql.createConnection({ ...rawSettings(), database: SCRATCH, dateStrings: true, timezone: '+09:00' })
+      try {
+        await raw.query("SET time_zone = '+09:00'")
+        const [rows] = await raw.query('SELECT at, made, TIMESTAMPDIFF(MINUTE, made, UTC_TIMESTAMP(3)) AS behind_utc, TIMESTAMPDIFF(MINUTE, made, NOW(3)) AS behind_session FROM datetime_check WHERE id = 1')
+        const row = (rows as Array<{ at: string; made: string; behind_utc: number; behind_session: number }>)[0]!
+        expect(row.at).toBe('2026-07-01 12:34:56.789')
+        // NOW(3) on the app's connection wrote UTC wall time: minutes behind UTC_TIMESTAMP, nine hours behind +09:00.
+        expect(row.behind_utc).toBeGreaterThanOrEqual(0)
+        expect(row.behind_utc).toBeLessThan(60)
+        expect(row.behind_session).toBeGreaterThanOrEqual(9 * 60)
+      } finally {
+        await raw.end()
+      }
+      // And it reads back through the app's connection as the same instant.
+      expect((await scratch('datetime_check').where({ id: 1 }).first('at')).at.toISOString()).toBe(instant.toISOString())
+    } finally {
+      await scratch.schema.dropTableIfExists('datetime_check')
+    }
   })
 })
 

@@ -4,14 +4,19 @@ import { DateTime } from 'luxon'
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { FILLING } from '../helpers/booking-fixtures'
+import { weekdayAhead, plusDays, MONDAY, WEDNESDAY, SUNDAY } from '../helpers/dates'
 
 afterAll(closeTestDb)
+
+// Week 7 ahead is this file's own, so no other test's visits change what the search offers.
+const MONDAY_7 = weekdayAhead(7, MONDAY)
+const WEDNESDAY_7 = weekdayAhead(7, WEDNESDAY)
 
 describe('POST /api/openings', () => {
   it('offers fillings at Quarry Street on the 5-minute local grid, and the first one books', async () => {
     const desk = await signedInAs('desk.quarry@fernhollow.test')
     const quarry = await siteIdBySlug('quarry-street')
-    const response = await desk.post('/api/openings', { items: FILLING, from: '2027-03-08', to: '2027-03-09', limit: 20 })
+    const response = await desk.post('/api/openings', { items: FILLING, from: MONDAY_7, to: plusDays(MONDAY_7, 1), limit: 20 })
     expect(response.status).toBe(200)
     expect(response.body.openings.length).toBe(20)
     for (const opening of response.body.openings) {
@@ -30,7 +35,7 @@ describe('POST /api/openings', () => {
       patientId: patient.id, siteId: first.siteId, operatoryId: first.operatoryId, providerId: first.providerId, startUtc: first.startUtc, items: FILLING,
     })
     expect(booked.status).toBe(201)
-    const again = await desk.post('/api/openings', { items: FILLING, from: '2027-03-08', to: '2027-03-09', limit: 20 })
+    const again = await desk.post('/api/openings', { items: FILLING, from: MONDAY_7, to: plusDays(MONDAY_7, 1), limit: 20 })
     expect(again.body.openings.some((opening: { operatoryId: number; startUtc: string }) => opening.operatoryId === first.operatoryId && opening.startUtc === first.startUtc)).toBe(false)
   })
 
@@ -38,14 +43,14 @@ describe('POST /api/openings', () => {
     const manager = await signedInAs('manager@fernhollow.test')
     // The three demo sites by id: other test files add always-open test sites to the manager's scope.
     const siteIds = await Promise.all(['quarry-street', 'aspen-gulch', 'saguaro-flats'].map(siteIdBySlug))
-    const response = await manager.post('/api/openings', { items: FILLING, siteIds, from: '2027-03-10', to: '2027-03-12', limit: 300 })
+    const response = await manager.post('/api/openings', { items: FILLING, siteIds, from: WEDNESDAY_7, to: plusDays(WEDNESDAY_7, 2), limit: 300 })
     const zones = new Set(response.body.openings.map((opening: { timeZone: string }) => opening.timeZone))
     expect(zones).toEqual(new Set(['America/Los_Angeles', 'America/Denver', 'America/Phoenix']))
   })
 
   it('explains in plain words when nothing fits', async () => {
     const desk = await signedInAs('desk.quarry@fernhollow.test')
-    const response = await desk.post('/api/openings', { items: FILLING, from: '2027-03-14', to: '2027-03-14' }) // a Sunday: closed
+    const response = await desk.post('/api/openings', { items: FILLING, from: weekdayAhead(7, SUNDAY), to: weekdayAhead(7, SUNDAY) }) // a Sunday: closed
     expect(response.status).toBe(200)
     expect(response.body.openings).toEqual([])
     expect(response.body.reasons.length).toBeGreaterThan(0)
@@ -53,12 +58,12 @@ describe('POST /api/openings', () => {
 
   it('answers 400 naming the field and 403 outside the scope', async () => {
     const desk = await signedInAs('desk.quarry@fernhollow.test')
-    const backwards = await desk.post('/api/openings', { items: FILLING, from: '2027-03-10', to: '2027-03-01' })
+    const backwards = await desk.post('/api/openings', { items: FILLING, from: WEDNESDAY_7, to: plusDays(WEDNESDAY_7, -9) })
     expect(backwards.status).toBe(400)
     expect(backwards.body.data.field).toBe('to')
-    const badDate = await desk.post('/api/openings', { items: FILLING, from: 'soon', to: '2027-03-01' })
+    const badDate = await desk.post('/api/openings', { items: FILLING, from: 'soon', to: WEDNESDAY_7 })
     expect(badDate.body.data.field).toBe('from')
     const aspen = await siteIdBySlug('aspen-gulch')
-    expect((await desk.post('/api/openings', { items: FILLING, siteIds: [aspen], from: '2027-03-10', to: '2027-03-11' })).status).toBe(403)
+    expect((await desk.post('/api/openings', { items: FILLING, siteIds: [aspen], from: WEDNESDAY_7, to: plusDays(WEDNESDAY_7, 1) })).status).toBe(403)
   })
 })

@@ -6,9 +6,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../helpers/api-client'
 import { freePort, startAppServer, type RunningServer } from '../helpers/app-server'
 import { closeTestDb, testDb } from '../helpers/db'
-import { utcAt } from '../helpers/booking-fixtures'
 import { bookingFor, createMailAnnex } from '../helpers/mail-fixtures'
 import { outboxIdOf, ownCatcher, type OwnCatcher } from '../helpers/mail'
+import { atAhead, MONDAY } from '../helpers/dates'
 
 const ZONE = 'America/Los_Angeles'
 const servers: RunningServer[] = []
@@ -53,8 +53,8 @@ describe('with the SMTP server down', () => {
     const desk = new ApiClient(server.url)
     await desk.signIn('manager@fernhollow.test')
     const ids: number[] = []
-    for (const [index, local] of ['2027-05-03T09:00', '2027-05-03T11:00', '2027-05-03T13:00'].entries()) {
-      const booked = await desk.post('/api/appointments', bookingFor(annex, index, utcAt(local, ZONE)))
+    for (const [index, time] of ['09:00', '11:00', '13:00'].entries()) {
+      const booked = await desk.post('/api/appointments', bookingFor(annex, index, atAhead(2, MONDAY, time, ZONE)))
       expect(booked.status).toBe(201)
       ids.push(booked.body.id)
     }
@@ -65,7 +65,9 @@ describe('with the SMTP server down', () => {
 
     await catcher.start()
     await expect.poll(async () => (await invitations()).every((row) => row.state === 'sent'), { timeout: 20_000, interval: 200 }).toBe(true)
-    await new Promise((wait) => setTimeout(wait, 1500)) // any duplicate would arrive by now
+    // Once the dispatcher process has exited no send can still be in flight; the catcher answers 250
+    // only after it has kept a message, so every delivery there was is counted below.
+    await server.stop()
     const rows = await invitations()
     const counts = deliveriesPerRow(catcher)
     expect(rows.map((row) => counts.get(row.id))).toEqual([1, 1, 1])
@@ -84,7 +86,7 @@ describe('two dispatcher processes', () => {
     servers.push(one!, two!)
     const desk = new ApiClient(one!.url)
     await desk.signIn('manager@fernhollow.test')
-    const booked = await desk.post('/api/appointments', bookingFor(annex, 0, utcAt('2027-05-10T09:00', ZONE)))
+    const booked = await desk.post('/api/appointments', bookingFor(annex, 0, atAhead(3, MONDAY, '09:00', ZONE)))
     expect(booked.status).toBe(201)
 
     const rows = Array.from({ length: 200 }, () => ({
@@ -95,7 +97,7 @@ describe('two dispatcher processes', () => {
     const ours = () => testDb()('outbox').where({ appointment_id: booked.body.id, kind: 'update' }).where('created_at', '>=', new Date(batchTag.getTime() - 1000))
     expect(await ours()).toHaveLength(200)
     await expect.poll(async () => (await ours()).filter((row) => row.state === 'sent').length, { timeout: 60_000, interval: 250 }).toBe(200)
-    await new Promise((wait) => setTimeout(wait, 1500))
+    await Promise.all([one!.stop(), two!.stop()]) // no send in flight after both processes exited
 
     const ids = (await ours()).map((row) => row.id)
     const counts = deliveriesPerRow(catcher)
@@ -119,7 +121,7 @@ describe('giving up and taking over', () => {
     servers.push(server)
     const desk = new ApiClient(server.url)
     await desk.signIn('manager@fernhollow.test')
-    const booked = await desk.post('/api/appointments', bookingFor(annex, 0, utcAt('2027-05-17T09:00', ZONE)))
+    const booked = await desk.post('/api/appointments', bookingFor(annex, 0, atAhead(4, MONDAY, '09:00', ZONE)))
     expect(booked.status).toBe(201)
     const invitation = () => testDb()('outbox').where({ appointment_id: booked.body.id, kind: 'invitation' }).first()
     await expect.poll(async () => (await invitation()).state, { timeout: 20_000, interval: 200 }).toBe('failed')

@@ -6,8 +6,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Knex } from 'knex'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
-import { createAnnex, FILLING, utcAt, type Annex } from '../helpers/booking-fixtures'
+import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
 import { createDb, dbSettingsFromEnv } from '../../db/connection'
+import { atAhead, weekdayAhead, MONDAY, TUESDAY, WEDNESDAY, THURSDAY, SATURDAY } from '../helpers/dates'
 
 let manager: ApiClient
 let annex: Annex
@@ -17,10 +18,10 @@ async function versionOf(siteId: number): Promise<number> {
   return Number(row.calendar_version)
 }
 
-function visitAt(localDateTime: string, patientIndex: number) {
+function visitAt(weekday: number, time: string, patientIndex: number) {
   return {
     siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], patientId: annex.patientIds[patientIndex],
-    startUtc: utcAt(localDateTime, annex.timeZone), items: FILLING,
+    startUtc: atAhead(2, weekday, time, annex.timeZone), items: FILLING,
   }
 }
 
@@ -44,7 +45,7 @@ describe('calendar version triggers', () => {
     expect(await moved()).toBe(false)
     await testDb()('operatories').where({ id: annex.operatoryIds[0] }).update({ name: 'Room one (renamed)' })
     expect(await moved()).toBe(true)
-    const [blockId] = await testDb()('blocks').insert({ site_id: siteId, operatory_id: annex.operatoryIds[1], start_date: '2027-03-01', local_start: '08:00', local_end: '09:00', reason: 'Repair' })
+    const [blockId] = await testDb()('blocks').insert({ site_id: siteId, operatory_id: annex.operatoryIds[1], start_date: weekdayAhead(2, MONDAY), local_start: '08:00', local_end: '09:00', reason: 'Repair' })
     expect(await moved()).toBe(true)
     await testDb()('blocks').where({ id: blockId }).delete()
     expect(await moved()).toBe(true)
@@ -52,7 +53,7 @@ describe('calendar version triggers', () => {
     expect(await moved()).toBe(true)
     // An exception with no site applies everywhere: every site's version moves.
     const otherSite = await testDb()('sites').whereNot({ id: siteId }).first('id', 'calendar_version')
-    await testDb()('shift_exceptions').insert({ provider_id: annex.providerIds[0], site_id: null, kind: 'time_off', start_date: '2027-04-01', end_date: '2027-04-01' })
+    await testDb()('shift_exceptions').insert({ provider_id: annex.providerIds[0], site_id: null, kind: 'time_off', start_date: weekdayAhead(3, THURSDAY), end_date: weekdayAhead(3, THURSDAY) })
     expect(await moved()).toBe(true)
     expect(await versionOf(otherSite.id)).toBe(Number(otherSite.calendar_version) + 1)
   })
@@ -60,15 +61,15 @@ describe('calendar version triggers', () => {
 
 describe('bookings see rota changes at once', () => {
   it('refuses a newly blocked chair and a removed shift right after a booking loaded the calendar', async () => {
-    expect((await manager.post('/api/appointments', visitAt('2027-03-02T09:00', 0))).status).toBe(201)
+    expect((await manager.post('/api/appointments', visitAt(TUESDAY, '09:00', 0))).status).toBe(201)
     // Written straight to the database, past the app: the triggers alone must make it seen.
-    await testDb()('blocks').insert({ site_id: annex.siteId, operatory_id: annex.operatoryIds[0], start_date: '2027-03-02', local_start: '13:00', local_end: '15:00', reason: 'Compressor repair' })
-    const blocked = await manager.post('/api/appointments', visitAt('2027-03-02T13:30', 1))
+    await testDb()('blocks').insert({ site_id: annex.siteId, operatory_id: annex.operatoryIds[0], start_date: weekdayAhead(2, TUESDAY, annex.timeZone), local_start: '13:00', local_end: '15:00', reason: 'Compressor repair' })
+    const blocked = await manager.post('/api/appointments', visitAt(TUESDAY, '13:30', 1))
     expect(blocked.status).toBe(409)
     expect(blocked.body.data.conflict).toMatchObject({ resource: 'operatory', id: annex.operatoryIds[0] })
 
-    await testDb()('shifts').where({ provider_id: annex.providerIds[0], site_id: annex.siteId }).update({ valid_until: '2027-03-02' })
-    const afterShiftEnds = await manager.post('/api/appointments', visitAt('2027-03-03T09:00', 2))
+    await testDb()('shifts').where({ provider_id: annex.providerIds[0], site_id: annex.siteId }).update({ valid_until: weekdayAhead(2, TUESDAY, annex.timeZone) })
+    const afterShiftEnds = await manager.post('/api/appointments', visitAt(WEDNESDAY, '09:00', 2))
     expect(afterShiftEnds.status).toBe(409)
     expect(afterShiftEnds.body.data.conflict).toMatchObject({ resource: 'provider', id: annex.providerIds[0] })
   })
@@ -96,7 +97,7 @@ describe('database sessions', () => {
       await booking('sites').where({ id: annex.siteId }).forShare().first('id')
       const attempt = second.transaction(async (trx) => {
         await trx.raw('SET SESSION innodb_lock_wait_timeout = 1')
-        await trx('blocks').insert({ site_id: annex.siteId, start_date: '2027-05-01', local_start: '08:00', local_end: '09:00', reason: 'Staff meeting' })
+        await trx('blocks').insert({ site_id: annex.siteId, start_date: weekdayAhead(4, SATURDAY), local_start: '08:00', local_end: '09:00', reason: 'Staff meeting' })
       })
       await expect(attempt).rejects.toMatchObject({ errno: 1205 })
     } finally {

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { bookingFor, createMailAnnex, outboxRowsOf, type MailAnnex } from '../helpers/mail-fixtures'
-import { utcAt } from '../helpers/booking-fixtures'
+import { atAhead, TUESDAY } from '../helpers/dates'
 
 /** JSON columns may come back parsed or as text, depending on the column type MariaDB reports. */
 function json(value: unknown) {
@@ -81,7 +81,7 @@ describe('site settings', () => {
     const early = await manager.post('/api/appointments', bookingFor(annex, 0, soon))
     expect(early.status).toBe(400)
     expect(early.body.data).toMatchObject({ field: 'startUtc', reason: 'must be at least 120 minutes from now' })
-    const later = await manager.post('/api/appointments', bookingFor(annex, 1, utcAt('2027-08-17T11:00', 'America/Los_Angeles')))
+    const later = await manager.post('/api/appointments', bookingFor(annex, 1, atAhead(3, TUESDAY, '11:00', 'America/Los_Angeles')))
     expect(later.status).toBe(201)
     const reminders = (await outboxRowsOf(later.body.id)).filter((row) => row.kind === 'reminder')
     expect(reminders.map((row) => json(row.payload).offsetHours).sort((a: number, b: number) => b - a)).toEqual([72, 24])

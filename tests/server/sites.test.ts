@@ -3,6 +3,7 @@ import { randomUUID } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug } from '../helpers/db'
+import { demoClosedDates } from '../../seeds/01-sites'
 
 const HOURS = { '1': [{ start: '08:00', end: '17:00' }], '2': [], '3': [], '4': [], '5': [], '6': [], '7': [] }
 let admin: ApiClient
@@ -29,7 +30,7 @@ describe('sites', () => {
     expect(list.body).toHaveLength(1)
     expect(list.body[0]).toMatchObject({ name: 'Fernhollow Quarry Street', slug: 'quarry-street', timeZone: 'America/Los_Angeles', colour: '#0f766e', bookingUnitMinutes: 5, toothNotation: 'universal' })
     const one = await desk.get(`/api/sites/${list.body[0].id}`)
-    expect(one.body).toMatchObject({ id: list.body[0].id, address: '48 Quarry Street, Fernhollow', closedDates: ['2026-12-25', '2027-01-01'] })
+    expect(one.body).toMatchObject({ id: list.body[0].id, address: '48 Quarry Street, Fernhollow', closedDates: demoClosedDates() })
     expect(one.body.openingHours['1']).toEqual([{ start: '07:30', end: '17:30' }])
   })
 

@@ -3,8 +3,11 @@ import { afterAll, describe, expect, it } from 'vitest'
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { FILLING, utcAt } from '../helpers/booking-fixtures'
+import { weekdayAhead, plusDays, MONDAY } from '../helpers/dates'
 
 afterAll(closeTestDb)
+
+const DAY = weekdayAhead(8, MONDAY, 'America/Los_Angeles') // a Monday: the demo dentist is at Quarry Street
 
 describe('GET /api/appointments', () => {
   it('lists a site day with names, procedures and segments, and answers 304 while nothing changed', async () => {
@@ -13,8 +16,8 @@ describe('GET /api/appointments', () => {
     const chair = await testDb()('operatories').where({ site_id: quarry, name: 'Chair 2' }).first('id')
     const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist@fernhollow.test').first('providers.id')
     const patient = await testDb()('patients').orderBy('id').offset(60).first('id', 'first_name', 'last_name')
-    const from = utcAt('2027-04-05T00:00', 'America/Los_Angeles')
-    const to = utcAt('2027-04-06T00:00', 'America/Los_Angeles')
+    const from = utcAt(`${DAY}T00:00`, 'America/Los_Angeles')
+    const to = utcAt(`${plusDays(DAY, 1)}T00:00`, 'America/Los_Angeles')
     const path = `/api/appointments?siteId=${quarry}&from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`
 
     const empty = await desk.get(path)
@@ -22,7 +25,7 @@ describe('GET /api/appointments', () => {
     const etag = empty.headers.get('etag')!
     expect((await desk.get(path, { headers: { 'if-none-match': etag } })).status).toBe(304)
 
-    const booked = await desk.post('/api/appointments', { patientId: patient.id, siteId: quarry, operatoryId: chair.id, providerId: dentist.id, startUtc: utcAt('2027-04-05T10:00', 'America/Los_Angeles'), items: FILLING })
+    const booked = await desk.post('/api/appointments', { patientId: patient.id, siteId: quarry, operatoryId: chair.id, providerId: dentist.id, startUtc: utcAt(`${DAY}T10:00`, 'America/Los_Angeles'), items: FILLING })
     expect(booked.status).toBe(201)
     const after = await desk.get(path, { headers: { 'if-none-match': etag } })
     expect(after.status).toBe(200)
@@ -38,10 +41,10 @@ describe('GET /api/appointments', () => {
 
   it('answers 400 naming the field and 403 for another site', async () => {
     const desk = await signedInAs('desk.quarry@fernhollow.test')
-    const missing = await desk.get('/api/appointments?from=2027-04-05T00:00:00Z&to=2027-04-06T00:00:00Z')
+    const missing = await desk.get(`/api/appointments?from=${DAY}T00:00:00Z&to=${plusDays(DAY, 1)}T00:00:00Z`)
     expect(missing.status).toBe(400)
     expect(missing.body.data.field).toBe('siteId')
     const aspen = await siteIdBySlug('aspen-gulch')
-    expect((await desk.get(`/api/appointments?siteId=${aspen}&from=2027-04-05T00:00:00Z&to=2027-04-06T00:00:00Z`)).status).toBe(403)
+    expect((await desk.get(`/api/appointments?siteId=${aspen}&from=${DAY}T00:00:00Z&to=${plusDays(DAY, 1)}T00:00:00Z`)).status).toBe(403)
   })
 })

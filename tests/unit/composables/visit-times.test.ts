@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest'
 import type { SegmentDto } from '../../../shared/types/appointments'
 import { anyZoneRange, countdownText, laneSpans, localDayRange, minutesIntoDay, msUntilReady, placeOnWeek, weekDays } from '../../../composables/useVisitTimes'
 
+// Fixed dates on purpose: these helpers are pure and take "now" and "today" as arguments.
 const segment = (kind: SegmentDto['kind'], startUtc: string, endUtc: string): SegmentDto => ({ kind, label: kind, operatoryId: 1, providerId: 1, startUtc, endUtc })
 const SEGMENTS = [
   segment('assist', '2027-03-15T17:00:00Z', '2027-03-15T17:05:00Z'),

@@ -4,6 +4,7 @@ import { DateTime } from 'luxon'
 import { isQuiet, outsideQuietHours, planReminders } from '../../../../shared/domain/reminders'
 import { givesUp, retryDelaySeconds } from '../../../../shared/domain/outbox-retry'
 
+// Fixed dates on purpose: planReminders is pure and takes its "now" (nowMs), so these never go stale.
 const LA = 'America/Los_Angeles'
 const QUIET = { start: '20:00', end: '08:00' }
 const at = (iso: string, zone = LA) => DateTime.fromISO(iso, { zone }).toMillis()

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { fromColumnTime, siteDayRange, toColumnTime } from '../../../../shared/utils/board-columns'
 
+// Fixed dates on purpose: the layout functions are pure and never read the clock.
 describe('Chairboard column layout', () => {
   it('draws an instant at its site-local wall time in its column and reads it back', () => {
     // 17:00Z is 09:00 in Los Angeles in winter (PST, UTC−8; IANA tz database).
