@@ -100,6 +100,13 @@ function siteColumns(site: SitePatch): Record<string, unknown> {
   return columns
 }
 
+/** Which of these ids are sites (active or not). */
+export async function existingSiteIds(db: Db, ids: readonly number[]): Promise<Set<number>> {
+  if (ids.length === 0) return new Set()
+  const rows = await db('sites').whereIn('id', [...ids]).select<{ id: number }[]>('id')
+  return new Set(rows.map((row) => row.id))
+}
+
 export async function insertSite(db: Db, site: SiteBody & { slug: string }): Promise<number> {
   const [id] = await db('sites').insert({ ...siteColumns(site), settings: JSON.stringify({}) })
   return id as number
