@@ -2,6 +2,7 @@
 import type { Db } from '../utils/db'
 import type { SiteSummary } from '#shared/types/auth'
 import type { SiteDetail } from '#shared/types/sites'
+import type { ToothNotation } from '#shared/types/teeth'
 import type { OpeningHours, SiteCalendar } from '#shared/types/rota'
 import type { SiteBody, SitePatch } from '#shared/schemas/sites'
 import { parseJson } from './json'
@@ -13,7 +14,7 @@ interface SiteRow {
   time_zone: string
   colour: string
   booking_unit_minutes: number
-  tooth_notation: 'universal' | 'iso'
+  tooth_notation: ToothNotation
   address: string
   phone: string
   email: string
