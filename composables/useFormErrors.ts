@@ -1,12 +1,7 @@
 // Field errors and one banner for a form, filled from zod (before sending) or from the API's
 // 400 (data.issues) and 409 (message) answers.
 import type { ZodType } from 'zod'
-
-interface ApiErrorBody {
-  statusCode?: number
-  message?: string
-  data?: { field?: string; reason?: string; issues?: { field: string; reason: string }[] }
-}
+import { apiErrorBody } from '#shared/utils/api-errors'
 
 export function useFormErrors() {
   const fields = ref<Record<string, string>>({})
@@ -32,7 +27,7 @@ export function useFormErrors() {
 
   function fromResponse(caught: unknown): void {
     clear()
-    const body = (caught as { data?: ApiErrorBody }).data
+    const body = apiErrorBody(caught)
     const issues = body?.data?.issues
     if (body?.statusCode === 400 && issues?.length) {
       for (const issue of issues) fields.value[issue.field] ??= issue.reason

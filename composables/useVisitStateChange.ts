@@ -2,14 +2,10 @@
 // message, when the server refuses it.
 import type { AppointmentDto, BoardVisitDto } from '#shared/types/appointments'
 import { VISIT_STATE_LABELS, type VisitState } from '#shared/domain/visit-states'
-
-interface FetchFailure {
-  data?: { statusMessage?: string; message?: string }
-}
+import { apiErrorBody, apiErrorMessage } from '#shared/utils/api-errors'
 
 function reasonOf(error: unknown): string {
-  const failure = error as FetchFailure
-  return failure?.data?.message ?? failure?.data?.statusMessage ?? 'the server did not answer'
+  return apiErrorMessage(error, apiErrorBody(error)?.statusMessage ?? 'the server did not answer')
 }
 
 export function useVisitStateChange(visits: Ref<BoardVisitDto[] | null | undefined>) {

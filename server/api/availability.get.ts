@@ -3,17 +3,12 @@
 import type { AvailabilityResponse } from '#shared/types/rota-api'
 import { AvailabilityQuerySchema } from '#shared/schemas/rota'
 import { requireSiteAccess, requireUser } from '../utils/auth'
-import { useDb } from '../utils/db'
-import { notFound, validateWith } from '../utils/errors'
-import { findSiteDetail } from '../repositories/sites'
-import { siteAvailability, windowOf } from '../services/availability-service'
+import { validateWith } from '../utils/errors'
+import { availabilityOf } from '../services/availability-service'
 
 export default defineEventHandler(async (event): Promise<AvailabilityResponse> => {
   const user = requireUser(event)
   const query = await getValidatedQuery(event, validateWith(AvailabilityQuerySchema))
   requireSiteAccess(user, query.siteId)
-  const db = useDb()
-  const site = await findSiteDetail(db, query.siteId)
-  if (!site) throw notFound('No such site.')
-  return siteAvailability(db, site, windowOf(site, query.from, query.to))
+  return availabilityOf(query)
 })

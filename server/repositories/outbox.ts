@@ -1,6 +1,5 @@
 // Patient e-mails waiting to be sent. Rows are written inside the booking transaction and claimed by
 // dispatchers with SELECT … FOR UPDATE SKIP LOCKED, so several processes never take the same row.
-import type { Knex } from 'knex'
 import type { Db } from '../utils/db'
 import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
 import { parseJson } from './json'
@@ -80,29 +79,27 @@ async function sitesWithLanes(db: Db): Promise<Array<{ id: number; lane: string 
 }
 
 /**
- * Claims up to `limit` due rows (queued and due, or sending with an expired lease) in one short
- * transaction: locked with FOR UPDATE SKIP LOCKED, marked 'sending' with a fresh lease. The lease
- * value is the claim: later updates only apply while it is still ours.
+ * Claims up to `limit` due rows (queued and due, or sending with an expired lease). Call inside one
+ * short transaction: the rows are locked with FOR UPDATE SKIP LOCKED and marked 'sending' with a
+ * fresh lease. The lease value is the claim: later updates only apply while it is still ours.
  */
-export async function claimDueMessages(db: Knex, options: ClaimOptions): Promise<OutboxRow[]> {
-  const laneSites = await sitesWithLanes(db)
-  return db.transaction(async (trx) => {
-    const now = new Date()
-    const query = trx<OutboxRow>('outbox')
-      .where((due) => due.where((queued) => queued.where('state', 'queued').where('due_at', '<=', now))
-        .orWhere((stale) => stale.where('state', 'sending').where('lease_until', '<', now)))
-      .orderBy('due_at').orderBy('id').limit(options.limit).forUpdate().skipLocked()
-    if (options.lane) {
-      query.whereIn('site_id', laneSites.filter((site) => site.lane === options.lane).map((site) => site.id))
-    } else if (laneSites.length) {
-      query.where((own) => own.whereNull('site_id').orWhereNotIn('site_id', laneSites.map((site) => site.id)))
-    }
-    const rows = await query.select('*')
-    if (!rows.length) return []
-    const leaseUntil = new Date(now.getTime() + options.leaseSeconds * 1000)
-    await trx('outbox').whereIn('id', rows.map((row) => row.id)).update({ state: 'sending', lease_until: leaseUntil, attempts: trx.raw('attempts + 1') })
-    return rows.map((row) => ({ ...row, state: 'sending' as const, lease_until: leaseUntil, attempts: row.attempts + 1 }))
-  }, { isolationLevel: 'read committed' })
+export async function claimDueMessages(trx: Db, options: ClaimOptions): Promise<OutboxRow[]> {
+  const laneSites = await sitesWithLanes(trx)
+  const now = new Date()
+  const query = trx<OutboxRow>('outbox')
+    .where((due) => due.where((queued) => queued.where('state', 'queued').where('due_at', '<=', now))
+      .orWhere((stale) => stale.where('state', 'sending').where('lease_until', '<', now)))
+    .orderBy('due_at').orderBy('id').limit(options.limit).forUpdate().skipLocked()
+  if (options.lane) {
+    query.whereIn('site_id', laneSites.filter((site) => site.lane === options.lane).map((site) => site.id))
+  } else if (laneSites.length) {
+    query.where((own) => own.whereNull('site_id').orWhereNotIn('site_id', laneSites.map((site) => site.id)))
+  }
+  const rows = await query.select('*')
+  if (!rows.length) return []
+  const leaseUntil = new Date(now.getTime() + options.leaseSeconds * 1000)
+  await trx('outbox').whereIn('id', rows.map((row) => row.id)).update({ state: 'sending', lease_until: leaseUntil, attempts: trx.raw('attempts + 1') })
+  return rows.map((row) => ({ ...row, state: 'sending' as const, lease_until: leaseUntil, attempts: row.attempts + 1 }))
 }
 
 function ours(db: Db, row: OutboxRow) {

@@ -2,6 +2,7 @@
 import type { Db } from '../utils/db'
 import type { SiteSummary } from '#shared/types/auth'
 import type { SiteDetail } from '#shared/types/sites'
+import type { ToothNotation } from '#shared/types/teeth'
 import type { OpeningHours, SiteCalendar } from '#shared/types/rota'
 import type { SiteBody, SitePatch } from '#shared/schemas/sites'
 import { parseJson } from './json'
@@ -13,7 +14,7 @@ interface SiteRow {
   time_zone: string
   colour: string
   booking_unit_minutes: number
-  tooth_notation: 'universal' | 'iso'
+  tooth_notation: ToothNotation
   address: string
   phone: string
   email: string
@@ -98,6 +99,13 @@ function siteColumns(site: SitePatch): Record<string, unknown> {
   if (site.closedDates !== undefined) columns.closed_dates = JSON.stringify([...new Set(site.closedDates)].sort())
   if (site.active !== undefined) columns.active = site.active
   return columns
+}
+
+/** Which of these ids are sites (active or not). */
+export async function existingSiteIds(db: Db, ids: readonly number[]): Promise<Set<number>> {
+  if (ids.length === 0) return new Set()
+  const rows = await db('sites').whereIn('id', [...ids]).select<{ id: number }[]>('id')
+  return new Set(rows.map((row) => row.id))
 }
 
 export async function insertSite(db: Db, site: SiteBody & { slug: string }): Promise<number> {

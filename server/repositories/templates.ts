@@ -70,6 +70,13 @@ export async function findCurrentTemplateByCode(db: Db, code: string): Promise<S
   return row ? toTemplate(row) : undefined
 }
 
+/** The given version of a code, or its current version when none is given (a visit's stored plan). */
+export async function findTemplateByCode(db: Db, code: string, version: number | undefined): Promise<StoredTemplate | undefined> {
+  const query = db<TemplateRow>('procedure_templates').where('code', code)
+  const row = await (version ? query.where('version', version) : query.where('is_current', true)).first()
+  return row ? toTemplate(row) : undefined
+}
+
 export async function codeExists(db: Db, code: string): Promise<boolean> {
   return Boolean(await db('procedure_templates').where({ code }).first('id'))
 }

@@ -6,14 +6,15 @@ import type { AvailabilityResponse, DualInterval } from '#shared/types/rota-api'
 import type { UtcInterval } from '#shared/types/rota'
 import { expandAvailability } from '#shared/domain/rota'
 import { addDays, localToUtc } from '#shared/domain/recurrence'
-import type { Db } from '../utils/db'
-import { badRequest } from '../utils/errors'
+import type { AvailabilityQuery } from '#shared/schemas/rota'
+import { useDb, type Db } from '../utils/db'
+import { badRequest, notFound } from '../utils/errors'
 import { MAX_WINDOW_DAYS } from '#shared/domain/input-bounds'
 import { listOperatories } from '../repositories/operatories'
 import { listShifts, shiftToInput } from '../repositories/shifts'
 import { exceptionToInput, listShiftExceptions } from '../repositories/shift-exceptions'
 import { blockToInput, listBlocks } from '../repositories/blocks'
-import { toCalendar } from '../repositories/sites'
+import { findSiteDetail, toCalendar } from '../repositories/sites'
 
 const LOCAL_DATE = /^\d{4}-\d{2}-\d{2}$/
 
@@ -89,4 +90,12 @@ export async function siteAvailability(db: Db, site: SiteDetail, window: UtcWind
       ...dual({ startUtc: block.startUtc, endUtc: block.endUtc }, local),
     })),
   }
+}
+
+/** The site's availability over the asked window (the caller's access to the site is checked first). */
+export async function availabilityOf(query: AvailabilityQuery): Promise<AvailabilityResponse> {
+  const db = useDb()
+  const site = await findSiteDetail(db, query.siteId)
+  if (!site) throw notFound('No such site.')
+  return siteAvailability(db, site, windowOf(site, query.from, query.to))
 }

@@ -12,7 +12,7 @@ import { withChairMinutes } from '#shared/domain/length-override'
 import { useDb, type Db } from '../utils/db'
 import { badRequest, conflict, isDuplicateKey, notFound, rethrowDomainError } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
-import { withTransactionRetry } from '../utils/db-retry'
+import { inTransaction } from '../utils/db-retry'
 import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
 import { findAppointment, findAppointmentRow, insertAppointment, newAppointmentDto, replaceSegments, updateAppointmentIfVersion, type AppointmentRow } from '../repositories/appointments'
 import { lockForBooking } from '../repositories/booking-locks'
@@ -24,7 +24,7 @@ import { writeAudit } from '../repositories/audit-log'
 import { findProviderIdOfUser } from '../repositories/providers'
 import { findSite } from '../repositories/sites'
 import { scheduleNowMs } from '../utils/clock'
-import { findTemplateById } from '../repositories/templates'
+import { findTemplateByCode } from '../repositories/templates'
 import { parseJson } from '../repositories/json'
 import { planItems } from './plan-service'
 import { assertBookable, assertStartAllowed, placeSegments, visitEnd } from './booking-rules'
@@ -89,7 +89,7 @@ export async function bookAppointment(input: BookAppointmentInput, user: Session
   const startMs = startOf(input.startUtc)
 
   try {
-    return await withTransactionRetry(() => db.transaction(async (trx) => {
+    return await inTransaction(async (trx) => {
       // Claimed first: a concurrent request with the same key waits here, then replays our answer.
       if (idempotencyKey) await claimKey(trx, user.id, idempotencyKey, requestHash)
       await lockForBooking(trx, [input.operatoryId], [input.providerId], input.patientId)
@@ -109,7 +109,7 @@ export async function bookAppointment(input: BookAppointmentInput, user: Session
       const visit = newAppointmentDto(id, newVisit, segments)
       if (idempotencyKey) await storeAnswer(trx, user.id, idempotencyKey, 201, visit, id)
       return visit
-    }))
+    })
   } catch (error) {
     // Another request with the same key committed first: answer what it answered.
     if (idempotencyKey && isDuplicateKey(error)) {
@@ -155,14 +155,9 @@ function staleVersion() {
 async function planForMove(db: Db, row: AppointmentRow, input: MoveAppointmentInput, calendar: SiteCalendarInputs) {
   if (input.items) return planItems(db, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
   const plan = parseJson<VisitPlan>(row.plan, {} as VisitPlan)
-  const templates = (await Promise.all((plan.items ?? []).map((item) => findTemplateByCodeVersion(db, item.templateCode, item.templateVersion))))
+  const templates = (await Promise.all((plan.items ?? []).map((item) => findTemplateByCode(db, item.templateCode, item.templateVersion))))
     .filter((template) => template !== undefined)
   return { plan, templates }
-}
-
-async function findTemplateByCodeVersion(db: Db, code: string, version: number | undefined) {
-  const row = await db('procedure_templates').where({ code, ...(version ? { version } : { is_current: true }) }).first('id')
-  return row ? findTemplateById(db, row.id) : undefined
 }
 
 export async function moveAppointment(id: number, input: MoveAppointmentInput, user: SessionUser): Promise<AppointmentDto> {
@@ -174,7 +169,7 @@ export async function moveAppointment(id: number, input: MoveAppointmentInput, u
   const operatoryId = input.operatoryId ?? row.operatory_id
   const providerId = input.providerId ?? row.provider_id
 
-  return withTransactionRetry(() => db.transaction(async (trx) => {
+  return inTransaction(async (trx) => {
     await lockForBooking(trx, [operatoryId], [providerId], row.patient_id)
     const calendar = await bookingCalendar(trx, row.site_id)
     const planned = await planForMove(trx, row, input, calendar)
@@ -190,7 +185,7 @@ export async function moveAppointment(id: number, input: MoveAppointmentInput, u
     await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'appointment', entityId: id, before: { start: row.start_utc, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
     await queueVisitMail(trx, 'update', { appointmentId: id, startMs, calendar, patient })
     return loaded(trx, id)
-  }))
+  })
 }
 
 function withLength(plan: VisitPlan, override: NonNullable<MoveAppointmentInput['lengthOverride']>): VisitPlan {
@@ -202,8 +197,7 @@ function withLength(plan: VisitPlan, override: NonNullable<MoveAppointmentInput[
 }
 
 export async function changeVisitState(id: number, to: VisitState, user: SessionUser, reason?: string, seenVersion?: number): Promise<AppointmentDto> {
-  const db = useDb()
-  return withTransactionRetry(() => db.transaction(async (trx) => {
+  return inTransaction(async (trx) => {
     const row = await liveVisit(trx, id, user)
     const site = await findSite(trx, row.site_id)
     const visit = { siteId: row.site_id, providerId: row.provider_id, state: row.state, startUtc: row.start_utc.toISOString(), timeZone: site?.timeZone ?? 'UTC' }
@@ -220,5 +214,5 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
     await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'appointment', entityId: id, before: { state: row.state }, after: { state: to, reason } })
     if (to === 'cancelled') await queueCancellationMail(trx, row)
     return loaded(trx, id)
-  }))
+  })
 }

@@ -1,18 +1,19 @@
 // Saving shifts, exceptions and blocks: references checked, and no provider at two sites at once.
 import type { SessionUser } from '#shared/types/auth'
-import type { BlockBody, ShiftBody, ShiftExceptionBody } from '#shared/schemas/rota'
+import { BlockSchema, ShiftSchema, type BlockBody, type BlockPatch, type ShiftBody, type ShiftExceptionBody, type ShiftPatch } from '#shared/schemas/rota'
 import type { BlockDto, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
 import { findFirstShiftClash } from '#shared/domain/rota'
 import { managesProvider } from '#shared/utils/access'
 import { requireSiteAccess } from '../utils/auth'
 import type { Db } from '../utils/db'
-import { badRequest, conflict, notFound } from '../utils/errors'
+import { inTransaction } from '../utils/db-retry'
+import { assertValid, badRequest, conflict, notFound } from '../utils/errors'
 import { findProvider, lockProvider } from '../repositories/providers'
 import { findSiteDetails } from '../repositories/sites'
 import { findOperatory } from '../repositories/operatories'
-import { findShift, insertShift, listShifts, shiftToInput, updateShift } from '../repositories/shifts'
-import { findShiftException, insertShiftException } from '../repositories/shift-exceptions'
-import { findBlock, insertBlock, updateBlock } from '../repositories/blocks'
+import { deleteShift as removeShift, findShift, insertShift, listShifts, shiftToInput, updateShift } from '../repositories/shifts'
+import { deleteShiftException as removeShiftException, findShiftException, insertShiftException } from '../repositories/shift-exceptions'
+import { deleteBlock as removeBlock, findBlock, insertBlock, updateBlock } from '../repositories/blocks'
 import { writeAudit } from '../repositories/audit-log'
 
 async function requireProvider(db: Db, providerId: number) {
@@ -53,23 +54,43 @@ async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number): 
   })
 }
 
-export async function createShift(trx: Db, user: SessionUser, shift: ShiftBody): Promise<ShiftDto> {
-  await requireWorksAt(trx, shift.providerId, shift.siteId)
-  await lockProvider(trx, shift.providerId)
-  await refuseCrossSiteClash(trx, shift, 0)
-  const id = await insertShift(trx, shift)
-  await writeAudit(trx, { userId: user.id, action: 'shift_created', entity: 'shift', entityId: id, after: shift })
-  return (await findShift(trx, id))!
+export function createShift(user: SessionUser, shift: ShiftBody): Promise<ShiftDto> {
+  return inTransaction(async (trx) => {
+    await requireWorksAt(trx, shift.providerId, shift.siteId)
+    await lockProvider(trx, shift.providerId)
+    await refuseCrossSiteClash(trx, shift, 0)
+    const id = await insertShift(trx, shift)
+    await writeAudit(trx, { userId: user.id, action: 'shift_created', entity: 'shift', entityId: id, after: shift })
+    return (await findShift(trx, id))!
+  })
 }
 
-export async function replaceShift(trx: Db, user: SessionUser, before: ShiftDto, shift: ShiftBody): Promise<ShiftDto> {
-  requireSiteAccess(user, shift.siteId)
-  await requireWorksAt(trx, shift.providerId, shift.siteId)
-  await lockProvider(trx, shift.providerId)
-  await refuseCrossSiteClash(trx, shift, before.id)
-  await updateShift(trx, before.id, shift)
-  await writeAudit(trx, { userId: user.id, action: 'shift_updated', entity: 'shift', entityId: before.id, before, after: shift })
-  return (await findShift(trx, before.id))!
+/** The merged shift is validated and clash-checked again. */
+export function changeShift(user: SessionUser, id: number, patch: ShiftPatch): Promise<ShiftDto> {
+  return inTransaction(async (trx) => {
+    const before = await findShift(trx, id)
+    if (!before) throw notFound('No such shift.')
+    requireSiteAccess(user, before.siteId)
+    const { id: _id, ruleText: _text, ...stored } = before
+    const shift = assertValid(ShiftSchema, { ...stored, ...patch })
+    requireSiteAccess(user, shift.siteId)
+    await requireWorksAt(trx, shift.providerId, shift.siteId)
+    await lockProvider(trx, shift.providerId)
+    await refuseCrossSiteClash(trx, shift, before.id)
+    await updateShift(trx, before.id, shift)
+    await writeAudit(trx, { userId: user.id, action: 'shift_updated', entity: 'shift', entityId: before.id, before, after: shift })
+    return (await findShift(trx, before.id))!
+  })
+}
+
+export function deleteShift(user: SessionUser, id: number): Promise<void> {
+  return inTransaction(async (trx) => {
+    const shift = await findShift(trx, id)
+    if (!shift) throw notFound('No such shift.')
+    requireSiteAccess(user, shift.siteId)
+    await removeShift(trx, id)
+    await writeAudit(trx, { userId: user.id, action: 'shift_deleted', entity: 'shift', entityId: id, before: shift })
+  })
 }
 
 /** A provider's time off and extra days are kept by the managers of a site they work at (403 otherwise). */
@@ -80,29 +101,43 @@ export function requireManages(user: SessionUser, provider: { name: string; site
 }
 
 /** Time off for every site touches all of the provider's sites, so it needs access to each. */
-export async function createShiftException(trx: Db, user: SessionUser, exception: ShiftExceptionBody): Promise<ShiftExceptionDto> {
-  const provider = await requireProvider(trx, exception.providerId)
-  requireManages(user, provider)
-  if (exception.siteId !== null) {
-    requireSiteAccess(user, exception.siteId)
-    // Time off or an extra day only at a site the provider works at.
-    await requireWorksAt(trx, exception.providerId, exception.siteId)
-  } else {
-    for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
-  }
-  if (exception.kind === 'extra' && exception.siteId !== null) {
-    // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
-    // day, which refuses rather than risks a clash.
-    await lockProvider(trx, exception.providerId)
-    await refuseCrossSiteClash(trx, {
-      providerId: exception.providerId, siteId: exception.siteId, rrule: 'FREQ=DAILY',
-      validFrom: exception.startDate, validUntil: exception.endDate,
-      localStart: exception.localStart ?? '00:00', localEnd: exception.localEnd ?? '24:00', note: '',
-    }, 0)
-  }
-  const id = await insertShiftException(trx, exception)
-  await writeAudit(trx, { userId: user.id, action: 'shift_exception_created', entity: 'shift_exception', entityId: id, after: exception })
-  return (await findShiftException(trx, id))!
+export function createShiftException(user: SessionUser, exception: ShiftExceptionBody): Promise<ShiftExceptionDto> {
+  return inTransaction(async (trx) => {
+    const provider = await requireProvider(trx, exception.providerId)
+    requireManages(user, provider)
+    if (exception.siteId !== null) {
+      requireSiteAccess(user, exception.siteId)
+      // Time off or an extra day only at a site the provider works at.
+      await requireWorksAt(trx, exception.providerId, exception.siteId)
+    } else {
+      for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
+    }
+    if (exception.kind === 'extra' && exception.siteId !== null) {
+      // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
+      // day, which refuses rather than risks a clash.
+      await lockProvider(trx, exception.providerId)
+      await refuseCrossSiteClash(trx, {
+        providerId: exception.providerId, siteId: exception.siteId, rrule: 'FREQ=DAILY',
+        validFrom: exception.startDate, validUntil: exception.endDate,
+        localStart: exception.localStart ?? '00:00', localEnd: exception.localEnd ?? '24:00', note: '',
+      }, 0)
+    }
+    const id = await insertShiftException(trx, exception)
+    await writeAudit(trx, { userId: user.id, action: 'shift_exception_created', entity: 'shift_exception', entityId: id, after: exception })
+    return (await findShiftException(trx, id))!
+  })
+}
+
+/** Time off for every site touches all of the provider's sites, so withdrawing it needs access to each. */
+export function deleteShiftException(user: SessionUser, id: number): Promise<void> {
+  return inTransaction(async (trx) => {
+    const exception = await findShiftException(trx, id)
+    if (!exception) throw notFound('No such exception.')
+    const siteIds = exception.siteId !== null ? [exception.siteId] : (await findProvider(trx, exception.providerId))?.siteIds ?? []
+    for (const siteId of siteIds) requireSiteAccess(user, siteId)
+    await removeShiftException(trx, id)
+    await writeAudit(trx, { userId: user.id, action: 'shift_exception_deleted', entity: 'shift_exception', entityId: id, before: exception })
+  })
 }
 
 async function checkBlockReferences(db: Db, block: BlockBody): Promise<void> {
@@ -114,7 +149,7 @@ async function checkBlockReferences(db: Db, block: BlockBody): Promise<void> {
   if (block.providerId !== null) await requireProvider(db, block.providerId)
 }
 
-export async function saveBlock(trx: Db, user: SessionUser, block: BlockBody, before?: BlockDto): Promise<BlockDto> {
+async function saveBlock(trx: Db, user: SessionUser, block: BlockBody, before?: BlockDto): Promise<BlockDto> {
   requireSiteAccess(user, block.siteId)
   await checkBlockReferences(trx, block)
   const id = before ? before.id : await insertBlock(trx, block)
@@ -123,4 +158,29 @@ export async function saveBlock(trx: Db, user: SessionUser, block: BlockBody, be
   const saved = await findBlock(trx, id)
   if (!saved) throw notFound('No such block.')
   return saved
+}
+
+export function createBlock(user: SessionUser, block: BlockBody): Promise<BlockDto> {
+  return inTransaction((trx) => saveBlock(trx, user, block))
+}
+
+/** The merged block is validated again. */
+export function changeBlock(user: SessionUser, id: number, patch: BlockPatch): Promise<BlockDto> {
+  return inTransaction(async (trx) => {
+    const before = await findBlock(trx, id)
+    if (!before) throw notFound('No such block.')
+    requireSiteAccess(user, before.siteId)
+    const { id: _id, ruleText: _text, ...stored } = before
+    return saveBlock(trx, user, assertValid(BlockSchema, { ...stored, ...patch }), before)
+  })
+}
+
+export function deleteBlock(user: SessionUser, id: number): Promise<void> {
+  return inTransaction(async (trx) => {
+    const block = await findBlock(trx, id)
+    if (!block) throw notFound('No such block.')
+    requireSiteAccess(user, block.siteId)
+    await removeBlock(trx, id)
+    await writeAudit(trx, { userId: user.id, action: 'block_deleted', entity: 'block', entityId: id, before: block })
+  })
 }

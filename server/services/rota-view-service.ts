@@ -1,10 +1,11 @@
 // The Rota grid's data: one site's week, or one provider's week across the sites the caller sees.
 import type { SessionUser } from '#shared/types/auth'
-import type { RotaView, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
+import type { BlockDto, RotaView, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
+import type { RotaListQuery } from '#shared/schemas/rota'
 import { rotaEntries } from '#shared/domain/rota-week'
 import { managesProvider, TIME_OFF_SHOWN_AS } from '#shared/utils/access'
 import { canAccessSite, requireSiteAccess } from '../utils/auth'
-import type { Db } from '../utils/db'
+import { useDb, type Db } from '../utils/db'
 import { badRequest, notFound } from '../utils/errors'
 import { findProvider, findProviderIdOfUser, listProviders } from '../repositories/providers'
 import { findSiteDetails, listSiteDetails, toCalendar } from '../repositories/sites'
@@ -35,6 +36,32 @@ async function siteIdsInView(db: Db, user: SessionUser, query: RotaWindow): Prom
   // A provider's view shows only the sites the caller may see; time off for all sites shows too.
   const visible = (await listSiteDetails(db, user)).map((site) => site.id)
   return visible.filter((siteId) => canAccessSite(user, siteId))
+}
+
+/** Which sites a rota list may show: the one asked for (checked), or all the caller's sites. */
+async function rotaSiteIds(db: Db, user: SessionUser, siteId: number | undefined): Promise<number[]> {
+  if (siteId !== undefined) {
+    requireSiteAccess(user, siteId)
+    return [siteId]
+  }
+  return (await listSiteDetails(db, user)).map((site) => site.id)
+}
+
+export async function shiftList(user: SessionUser, query: RotaListQuery): Promise<ShiftDto[]> {
+  const db = useDb()
+  return listShifts(db, { siteIds: await rotaSiteIds(db, user, query.siteId), providerId: query.providerId })
+}
+
+export async function blockList(user: SessionUser, query: RotaListQuery): Promise<BlockDto[]> {
+  const db = useDb()
+  return listBlocks(db, { siteIds: await rotaSiteIds(db, user, query.siteId), providerId: query.providerId })
+}
+
+/** Time off for every site included; reasons as shownTimeOff allows. */
+export async function shiftExceptionList(user: SessionUser, query: RotaListQuery): Promise<ShiftExceptionDto[]> {
+  const db = useDb()
+  const exceptions = await listShiftExceptions(db, { siteIds: await rotaSiteIds(db, user, query.siteId), providerId: query.providerId })
+  return shownTimeOff(db, user, exceptions)
 }
 
 /**

@@ -2,11 +2,16 @@
 import type { SessionUser } from '#shared/types/auth'
 import type { SiteDetail } from '#shared/types/sites'
 import type { SiteBody, SitePatch } from '#shared/schemas/sites'
+import type { OperatorySummary } from '#shared/types/sites'
+import type { OperatoryBody, OperatoryPatch } from '#shared/schemas/sites'
 import type { Db } from '../utils/db'
-import { conflict, isDuplicateKey, notFound } from '../utils/errors'
+import { inTransaction } from '../utils/db-retry'
+import { requireSiteAccess } from '../utils/auth'
+import { badRequest, conflict, isDuplicateKey, notFound } from '../utils/errors'
+import { findOperatory, insertOperatory, updateOperatory } from '../repositories/operatories'
 import type { SiteSettingsBody } from '#shared/schemas/site-settings'
 import { siteSettingsOf, type SiteSettings } from '#shared/domain/site-settings'
-import { findSiteDetail, findStoredSettings, insertSite, updateSite, writeStoredSettings } from '../repositories/sites'
+import { findSite, findSiteDetail, findStoredSettings, insertSite, updateSite, writeStoredSettings } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
 
 export function slugOf(name: string): string {
@@ -18,19 +23,23 @@ function duplicateSlug(error: unknown, slug: string | undefined): never {
   throw error
 }
 
-export async function createSite(trx: Db, actor: SessionUser, site: SiteBody): Promise<SiteDetail> {
-  const slug = site.slug ?? slugOf(site.name)
-  const id = await insertSite(trx, { ...site, slug }).catch((error: unknown) => duplicateSlug(error, slug))
-  await writeAudit(trx, { userId: actor.id, action: 'site_created', entity: 'site', entityId: id, after: site })
-  return (await findSiteDetail(trx, id))!
+export function createSite(actor: SessionUser, site: SiteBody): Promise<SiteDetail> {
+  return inTransaction(async (trx) => {
+    const slug = site.slug ?? slugOf(site.name)
+    const id = await insertSite(trx, { ...site, slug }).catch((error: unknown) => duplicateSlug(error, slug))
+    await writeAudit(trx, { userId: actor.id, action: 'site_created', entity: 'site', entityId: id, after: site })
+    return (await findSiteDetail(trx, id))!
+  })
 }
 
-export async function changeSite(trx: Db, actor: SessionUser, id: number, patch: SitePatch): Promise<SiteDetail> {
-  const before = await findSiteDetail(trx, id)
-  if (!before) throw notFound('No such site.')
-  await updateSite(trx, id, patch).catch((error: unknown) => duplicateSlug(error, patch.slug))
-  await writeAudit(trx, { userId: actor.id, action: 'site_changed', entity: 'site', entityId: id, before, after: patch })
-  return (await findSiteDetail(trx, id))!
+export function changeSite(actor: SessionUser, id: number, patch: SitePatch): Promise<SiteDetail> {
+  return inTransaction(async (trx) => {
+    const before = await findSiteDetail(trx, id)
+    if (!before) throw notFound('No such site.')
+    await updateSite(trx, id, patch).catch((error: unknown) => duplicateSlug(error, patch.slug))
+    await writeAudit(trx, { userId: actor.id, action: 'site_changed', entity: 'site', entityId: id, before, after: patch })
+    return (await findSiteDetail(trx, id))!
+  })
 }
 
 export async function siteSettings(db: Db, id: number): Promise<SiteSettings> {
@@ -40,11 +49,37 @@ export async function siteSettings(db: Db, id: number): Promise<SiteSettings> {
 }
 
 /** Replaces the settings this form owns and keeps any other keys stored alongside them. */
-export async function changeSiteSettings(trx: Db, actor: SessionUser, id: number, body: SiteSettingsBody): Promise<SiteSettings> {
-  const stored = await findStoredSettings(trx, id, { forUpdate: true })
-  if (!stored) throw notFound('No such site.')
-  const before = siteSettingsOf(stored)
-  await writeStoredSettings(trx, id, { ...stored, ...body })
-  await writeAudit(trx, { userId: actor.id, action: 'site_settings_changed', entity: 'site', entityId: id, before, after: body })
-  return siteSettingsOf({ ...stored, ...body })
+export function changeSiteSettings(actor: SessionUser, id: number, body: SiteSettingsBody): Promise<SiteSettings> {
+  return inTransaction(async (trx) => {
+    const stored = await findStoredSettings(trx, id, { forUpdate: true })
+    if (!stored) throw notFound('No such site.')
+    const before = siteSettingsOf(stored)
+    await writeStoredSettings(trx, id, { ...stored, ...body })
+    await writeAudit(trx, { userId: actor.id, action: 'site_settings_changed', entity: 'site', entityId: id, before, after: body })
+    return siteSettingsOf({ ...stored, ...body })
+  })
+}
+
+function duplicateRoom(error: unknown, name: string | undefined): never {
+  if (isDuplicateKey(error)) throw conflict(`This site already has a room called "${name}".`, { field: 'name' })
+  throw error
+}
+
+export function createOperatory(room: OperatoryBody): Promise<OperatorySummary> {
+  return inTransaction(async (trx) => {
+    if (!(await findSite(trx, room.siteId))) throw badRequest('siteId', 'is not a site')
+    const id = await insertOperatory(trx, room).catch((error: unknown) => duplicateRoom(error, room.name))
+    return (await findOperatory(trx, id))!
+  })
+}
+
+/** Admins, and managers of the room's site (403 otherwise). */
+export function changeOperatory(actor: SessionUser, id: number, patch: OperatoryPatch): Promise<OperatorySummary> {
+  return inTransaction(async (trx) => {
+    const room = await findOperatory(trx, id)
+    if (!room) throw notFound('No such room.')
+    requireSiteAccess(actor, room.siteId)
+    await updateOperatory(trx, id, patch).catch((error: unknown) => duplicateRoom(error, patch.name))
+    return (await findOperatory(trx, id))!
+  })
 }

@@ -5,7 +5,7 @@ import type { PublicVisitDto } from '#shared/types/outbox'
 import { canMoveToState } from '#shared/domain/visit-states'
 import { useDb, type Db } from '../utils/db'
 import { conflict, notFound } from '../utils/errors'
-import { withTransactionRetry } from '../utils/db-retry'
+import { inTransaction } from '../utils/db-retry'
 import { hasValidSignature, readVisitToken } from '../utils/visit-token'
 import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { confirmVisit, loadMailContext, recordCancelRequest, type MailContext } from '../repositories/mail-context'
@@ -52,14 +52,13 @@ export async function publicVisit(token: string): Promise<PublicVisitDto> {
 }
 
 export async function confirmByPatient(token: string): Promise<PublicVisitDto> {
-  const db = useDb()
-  await withTransactionRetry(() => db.transaction(async (trx) => {
+  await inTransaction(async (trx) => {
     const context = await visitOfToken(trx, token)
     if (context.visit.state === 'confirmed') return
     if (context.visit.state !== 'booked') throw conflict(`A ${context.visit.state} visit cannot be confirmed.`, { field: 'state' })
     if (!(await confirmVisit(trx, context.visit.id, context.visit.rowVersion))) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
     await writeAudit(trx, { userId: null, action: 'visit_confirmed', entity: 'appointment', entityId: context.visit.id, before: { state: 'booked' }, after: { state: 'confirmed', by: 'patient link' } })
-  }))
+  })
   return publicVisit(token)
 }
 
@@ -77,8 +76,7 @@ async function cancelAtOnce(db: Db, context: MailContext): Promise<void> {
 }
 
 export async function requestCancelByPatient(token: string): Promise<PublicVisitDto> {
-  const db = useDb()
-  await withTransactionRetry(() => db.transaction(async (trx) => {
+  await inTransaction(async (trx) => {
     const context = await visitOfToken(trx, token)
     const { visit } = context
     if (visit.state === 'cancelled' || visit.cancelRequestedAt) return
@@ -89,7 +87,7 @@ export async function requestCancelByPatient(token: string): Promise<PublicVisit
     if (atOnce) await cancelAtOnce(trx, context)
     else await recordCancelRequest(trx, visit.id)
     await writeAudit(trx, { userId: null, action: atOnce ? 'visit_cancelled' : 'visit_cancel_requested', entity: 'appointment', entityId: visit.id, before: { state: visit.state }, after: { by: 'patient link', reason: PATIENT_CANCEL_REASON } })
-  }))
+  })
   return publicVisit(token)
 }
 

@@ -4,16 +4,10 @@ import type { BoardVisitDto } from '#shared/types/appointments'
 import type { PlanItemSummary } from '#shared/types/chair-time'
 import { useDb } from '../utils/db'
 import { requireSiteAccess } from '../utils/auth'
-import { groupSegments, listVisits, toAppointmentDto, type BoardRow } from '../repositories/appointments'
+import { groupSegments, listVisits, toAppointmentDto, type BoardRow, type VisitListFilter } from '../repositories/appointments'
 
-export interface VisitListRequest {
-  siteId?: number
-  providerId?: number
-  patientId?: number
-  fromMs: number
-  toMs: number
-  includeCancelled: boolean
-}
+/** The repository's filter without the caller's site scope, which comes from the session. */
+export type VisitListRequest = Omit<VisitListFilter, 'siteIds'>
 
 function initials(name: string): string {
   return name.replace(/^Dr\.\s*/, '').split(/\s+/).map((part) => part[0] ?? '').join('').slice(0, 3).toUpperCase()

@@ -5,11 +5,11 @@ import { useDb, type Db } from './db'
 const RETRYABLE = new Set([1213, 1205])
 const ATTEMPTS = 3
 
-export function isRetryable(error: unknown): boolean {
+function isRetryable(error: unknown): boolean {
   return RETRYABLE.has((error as { errno?: number }).errno ?? 0)
 }
 
-export async function withTransactionRetry<T>(work: () => Promise<T>): Promise<T> {
+async function withTransactionRetry<T>(work: () => Promise<T>): Promise<T> {
   for (let attempt = 1; ; attempt += 1) {
     try {
       return await work()
@@ -24,8 +24,10 @@ export async function withTransactionRetry<T>(work: () => Promise<T>): Promise<T
 }
 
 /**
- * The one way to run a write transaction: bookings, rota, sites, people and templates all come here,
- * so a deadlock or a lock wait during a burst of bookings is retried, then answered 503 in words.
+ * The one way to run a write transaction: bookings, patient links, rota, sites, rooms, people,
+ * patients and templates all come here, so a deadlock or a lock wait during a burst of bookings is
+ * retried, then answered 503 in words. Called by the service's write function, never by a handler;
+ * a service composed into another's transaction takes that `trx` instead of opening its own.
  * `work` may run up to three times: it must do nothing outside the transaction it is given.
  */
 export function inTransaction<T>(work: (trx: Db) => Promise<T>): Promise<T> {

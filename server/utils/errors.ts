@@ -3,6 +3,7 @@ import type { H3Event } from 'h3'
 import { ZodError, type ZodType } from 'zod'
 import { DomainValidationError } from '#shared/domain/errors'
 import { MAX_ID } from '#shared/domain/input-bounds'
+import type { FieldProblem } from '#shared/types/api-errors'
 
 export const MESSAGES = {
   signedOut: 'Please sign in.',
@@ -14,11 +15,6 @@ export const MESSAGES = {
   jsonOnly: 'Send the request body as JSON (Content-Type: application/json).',
   notFound: 'Not found.',
 } as const
-
-export interface FieldProblem {
-  field: string
-  reason: string
-}
 
 export function badRequest(field: string, reason: string, issues: FieldProblem[] = [{ field, reason }]) {
   return createError({

@@ -61,6 +61,7 @@ export const NewPatientSchema = z.object({
   preferredSiteId: id('site').nullable().optional(),
   emailConsent: z.boolean().default(false),
 }).refine((patient) => !patient.emailConsent || Boolean(patient.email), { message: 'needs an e-mail address', path: ['emailConsent'] })
+export type NewPatientInput = z.infer<typeof NewPatientSchema>
 
 const localDate = z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 2027-01-11').superRefine(dateInBounds)
 

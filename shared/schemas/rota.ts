@@ -85,6 +85,7 @@ export const BlockSchema = z
 export type BlockBody = z.infer<typeof BlockSchema>
 
 export const BlockPatchSchema = z.object(blockFields).partial()
+export type BlockPatch = z.infer<typeof BlockPatchSchema>
 
 /** Dates are site-local and inclusive; an ISO instant with an offset is taken as it is. */
 const instantOrDate = z
@@ -125,3 +126,4 @@ export const RotaQuerySchema = z
 export type RotaQuery = z.infer<typeof RotaQuerySchema>
 
 export const RotaListQuerySchema = z.object({ siteId: IdSchema.optional(), providerId: IdSchema.optional() })
+export type RotaListQuery = z.infer<typeof RotaListQuerySchema>

@@ -1,4 +1,6 @@
 // Who is signed in, as both the server and the client see it.
+import type { ToothNotation } from './teeth'
+
 export const ROLES = ['admin', 'manager', 'front_desk', 'dentist', 'hygienist', 'assistant'] as const
 export type Role = (typeof ROLES)[number]
 
@@ -28,7 +30,7 @@ export interface SiteSummary {
   timeZone: string
   colour: string
   bookingUnitMinutes: number
-  toothNotation: 'universal' | 'iso'
+  toothNotation: ToothNotation
 }
 
 export interface MeResponse {

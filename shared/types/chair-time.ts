@@ -1,5 +1,6 @@
 // Chair-time templates and visit plans, shared by client and server.
 // The engine that turns templates into a visit timeline is shared/domain/chair-time.ts.
+import type { FieldProblem } from './api-errors'
 import type { Arch, BlackClass, LesionMarks, Quadrant, Surface, ToothNotation } from './teeth'
 
 export const STEP_KINDS = ['hands_on', 'assist', 'numbing', 'reset'] as const
@@ -173,7 +174,5 @@ export interface VisitPlan {
   lengthOverride?: { chairMinutes: number; reason: string }
 }
 
-export interface TemplateIssue {
-  field: string
-  reason: string
-}
+/** A template problem is a 400's field problem. */
+export type TemplateIssue = FieldProblem

@@ -1,13 +1,8 @@
 // Staff accounts and providers as the People screen and the API see them.
-import type { Role } from './auth'
+import type { SessionUser } from './auth'
 
-export interface StaffAccount {
-  id: number
-  email: string
-  name: string
-  role: Role
-  allSites: boolean
-  siteIds: number[]
+/** A staff account as the People screen lists it: the signed-in user's fields plus its state. */
+export interface StaffAccount extends SessionUser {
   active: boolean
   lastSignInAt: string | null
   /** Set when this person is also a provider. */

@@ -1,6 +1,6 @@
 // Rota records and views as the API returns them. Dates and times are site-local wall values;
 // every computed instant also comes in UTC.
-import type { LocalDate, LocalTime, ShiftExceptionKind } from './rota'
+import type { LocalDate, LocalTime, ShiftExceptionInput } from './rota'
 
 export interface ShiftDto {
   id: number
@@ -16,15 +16,8 @@ export interface ShiftDto {
   note: string
 }
 
-export interface ShiftExceptionDto {
-  id: number
-  providerId: number
-  kind: ShiftExceptionKind
-  siteId: number | null
-  startDate: LocalDate
-  endDate: LocalDate
-  localStart: LocalTime | null
-  localEnd: LocalTime | null
+/** As the rota expansion takes it, with the reason always present. */
+export interface ShiftExceptionDto extends ShiftExceptionInput {
   reason: string
 }
 

@@ -1,3 +1,4 @@
+import type { SiteSummary } from './auth'
 import type { OpeningHours } from './rota'
 
 // Sites, rooms and their capabilities as the API returns them.
@@ -12,14 +13,7 @@ export interface OperatorySummary {
 }
 
 /** A site with everything the Sites & rooms screen edits (SiteSummary plus contact and calendar). */
-export interface SiteDetail {
-  id: number
-  name: string
-  slug: string
-  timeZone: string
-  colour: string
-  bookingUnitMinutes: number
-  toothNotation: 'universal' | 'iso'
+export interface SiteDetail extends SiteSummary {
   address: string
   phone: string
   email: string

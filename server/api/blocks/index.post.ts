@@ -3,14 +3,13 @@ import type { BlockDto } from '#shared/types/rota-api'
 import { BlockSchema } from '#shared/schemas/rota'
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../utils/auth'
 import { validateWith } from '../../utils/errors'
-import { saveBlock } from '../../services/rota-service'
-import { inTransaction } from '../../utils/db-retry'
+import { createBlock } from '../../services/rota-service'
 
 export default defineEventHandler(async (event): Promise<BlockDto> => {
   const user = requireRole(event, MANAGING_ROLES)
   const body = await readValidatedBody(event, validateWith(BlockSchema))
   requireSiteAccess(user, body.siteId)
-  const block = await inTransaction((trx) => saveBlock(trx, user, body))
+  const block = await createBlock(user, body)
   setResponseStatus(event, 201)
   return block
 })

@@ -2,11 +2,9 @@
 import { DateTime } from 'luxon'
 import { NewPatientSchema } from '#shared/schemas/appointments'
 import type { PatientDto } from '#shared/types/appointments'
-import { BOOKING_ROLES, requireRole, requireSiteAccess } from '../../utils/auth'
-import { useDb } from '../../utils/db'
+import { BOOKING_ROLES, requireRole } from '../../utils/auth'
 import { badRequest, validateWith } from '../../utils/errors'
-import { findPatient, insertPatient } from '../../repositories/patients'
-import { findSite } from '../../repositories/sites'
+import { registerPatient } from '../../services/patient-service'
 
 export default defineEventHandler(async (event): Promise<PatientDto> => {
   const user = requireRole(event, BOOKING_ROLES)
@@ -14,13 +12,7 @@ export default defineEventHandler(async (event): Promise<PatientDto> => {
   const born = DateTime.fromISO(input.dateOfBirth, { zone: 'UTC' })
   if (!born.isValid) throw badRequest('dateOfBirth', 'is not a real date')
   if (born > DateTime.utc()) throw badRequest('dateOfBirth', 'cannot be in the future')
-  if (input.preferredSiteId) requireSiteAccess(user, input.preferredSiteId)
-  const db = useDb()
-  if (input.preferredSiteId && !(await findSite(db, input.preferredSiteId))) throw badRequest('preferredSiteId', 'is not a site')
-  const id = await insertPatient(db, {
-    firstName: input.firstName, lastName: input.lastName, dateOfBirth: input.dateOfBirth, email: input.email ?? null,
-    phone: input.phone ?? null, preferredSiteId: input.preferredSiteId ?? null, emailConsent: input.emailConsent,
-  })
+  const patient = await registerPatient(user, input)
   setResponseStatus(event, 201)
-  return (await findPatient(db, id))!
+  return patient
 })

@@ -4,12 +4,11 @@ import { ShiftExceptionSchema } from '#shared/schemas/rota'
 import { MANAGING_ROLES, requireRole } from '../../utils/auth'
 import { validateWith } from '../../utils/errors'
 import { createShiftException } from '../../services/rota-service'
-import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<ShiftExceptionDto> => {
   const user = requireRole(event, MANAGING_ROLES)
   const body = await readValidatedBody(event, validateWith(ShiftExceptionSchema))
-  const saved = await inTransaction((trx) => createShiftException(trx, user, body))
+  const saved = await createShiftException(user, body)
   setResponseStatus(event, 201)
   return saved
 })

@@ -2,14 +2,11 @@
 import type { ShiftDto } from '#shared/types/rota-api'
 import { RotaListQuerySchema } from '#shared/schemas/rota'
 import { requireUser } from '../../utils/auth'
-import { useDb } from '../../utils/db'
 import { validateWith } from '../../utils/errors'
-import { rotaSiteIds } from '../../utils/rota-scope'
-import { listShifts } from '../../repositories/shifts'
+import { shiftList } from '../../services/rota-view-service'
 
 export default defineEventHandler(async (event): Promise<ShiftDto[]> => {
   const user = requireUser(event)
   const query = await getValidatedQuery(event, validateWith(RotaListQuerySchema))
-  const db = useDb()
-  return listShifts(db, { siteIds: await rotaSiteIds(db, user, query.siteId), providerId: query.providerId })
+  return shiftList(user, query)
 })

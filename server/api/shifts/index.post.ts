@@ -5,13 +5,12 @@ import { ShiftSchema } from '#shared/schemas/rota'
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../utils/auth'
 import { validateWith } from '../../utils/errors'
 import { createShift } from '../../services/rota-service'
-import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<ShiftDto> => {
   const user = requireRole(event, MANAGING_ROLES)
   const body = await readValidatedBody(event, validateWith(ShiftSchema))
   requireSiteAccess(user, body.siteId)
-  const shift = await inTransaction((trx) => createShift(trx, user, body))
+  const shift = await createShift(user, body)
   setResponseStatus(event, 201)
   return shift
 })

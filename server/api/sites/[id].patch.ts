@@ -4,12 +4,11 @@ import { SitePatchSchema } from '#shared/schemas/sites'
 import { requireRole, requireSiteAccess } from '../../utils/auth'
 import { numericParam, validateWith } from '../../utils/errors'
 import { changeSite } from '../../services/site-service'
-import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<SiteDetail> => {
   const user = requireRole(event, ['admin'])
   const id = numericParam(event, 'id')
   const patch = await readValidatedBody(event, validateWith(SitePatchSchema))
   requireSiteAccess(user, id)
-  return inTransaction((trx) => changeSite(trx, user, id, patch))
+  return changeSite(user, id, patch)
 })

@@ -4,11 +4,10 @@ import { SiteSchema } from '#shared/schemas/sites'
 import { requireRole } from '../../utils/auth'
 import { validateWith } from '../../utils/errors'
 import { createSite } from '../../services/site-service'
-import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<SiteDetail> => {
   const user = requireRole(event, ['admin'])
   const body = await readValidatedBody(event, validateWith(SiteSchema))
   setResponseStatus(event, 201)
-  return inTransaction((trx) => createSite(trx, user, body))
+  return createSite(user, body)
 })

@@ -4,11 +4,10 @@ import { StaffPatchSchema } from '#shared/schemas/people'
 import { requireRole } from '../../utils/auth'
 import { numericParam, validateWith } from '../../utils/errors'
 import { changeStaff } from '../../services/people-service'
-import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<StaffAccount> => {
   const user = requireRole(event, ['admin'])
   const id = numericParam(event, 'id')
   const patch = await readValidatedBody(event, validateWith(StaffPatchSchema))
-  return inTransaction((trx) => changeStaff(trx, user, id, patch))
+  return changeStaff(user, id, patch)
 })

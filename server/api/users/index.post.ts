@@ -4,11 +4,10 @@ import { StaffSchema } from '#shared/schemas/people'
 import { requireRole } from '../../utils/auth'
 import { validateWith } from '../../utils/errors'
 import { createStaff } from '../../services/people-service'
-import { inTransaction } from '../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<StaffAccount> => {
   const user = requireRole(event, ['admin'])
   const body = await readValidatedBody(event, validateWith(StaffSchema))
   setResponseStatus(event, 201)
-  return inTransaction((trx) => createStaff(trx, user, body))
+  return createStaff(user, body)
 })

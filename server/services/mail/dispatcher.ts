@@ -1,7 +1,8 @@
 // One round of the outbox dispatcher: claim due rows (FOR UPDATE SKIP LOCKED, leased), check each
 // again (consent, visit state, a reminder still for this start), send over SMTP, record the result.
 // Failures wait with exponential backoff and jitter; after maxAttempts a row is 'failed'.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
+import { inTransaction } from '../../utils/db-retry'
 import type { Transporter } from 'nodemailer'
 import { retryDelaySeconds, givesUp, type RetryPolicy } from '#shared/domain/outbox-retry'
 import { holdsTime } from '#shared/domain/visit-states'
@@ -62,7 +63,7 @@ function describe(error: unknown): string {
   return String(error)
 }
 
-async function retryOrGiveUp(db: Knex, row: OutboxRow, error: unknown, settings: DispatchSettings, round: DispatchRound): Promise<void> {
+async function retryOrGiveUp(db: Db, row: OutboxRow, error: unknown, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   const message = describe(error)
   if (givesUp(row.attempts, settings.retry)) {
     await markFailed(db, row, message)
@@ -74,7 +75,7 @@ async function retryOrGiveUp(db: Knex, row: OutboxRow, error: unknown, settings:
   }
 }
 
-async function sendOne(db: Knex, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
+async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   let sent: { messageId: string; rendered: ComposedMessage['rendered'] }
   try {
     const context = row.appointment_id === null ? undefined : await loadMailContext(db, row.appointment_id)
@@ -97,8 +98,9 @@ async function sendOne(db: Knex, transporter: Transporter, row: OutboxRow, setti
   else console.warn(`outbox: row ${row.id} was sent but its lease had passed to another process`)
 }
 
-export async function dispatchOnce(db: Knex, transporter: Transporter, settings: DispatchSettings): Promise<DispatchRound> {
-  const rows = await claimDueMessages(db, { limit: settings.batchSize, leaseSeconds: settings.leaseSeconds, lane: settings.lane })
+export async function dispatchOnce(db: Db, transporter: Transporter, settings: DispatchSettings): Promise<DispatchRound> {
+  // Claimed in one short transaction of its own; each send and its update then run outside it.
+  const rows = await inTransaction((trx) => claimDueMessages(trx, { limit: settings.batchSize, leaseSeconds: settings.leaseSeconds, lane: settings.lane }))
   const round: DispatchRound = { claimed: rows.length, sent: 0, skipped: 0, retried: 0, failed: 0 }
   // One at a time over the pooled connection; a round ends well inside the lease.
   for (const row of rows) await sendOne(db, transporter, row, settings, round)

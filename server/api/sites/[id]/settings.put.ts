@@ -5,12 +5,11 @@ import { SiteSettingsSchema } from '#shared/schemas/site-settings'
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../../utils/auth'
 import { numericParam, validateWith } from '../../../utils/errors'
 import { changeSiteSettings } from '../../../services/site-service'
-import { inTransaction } from '../../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<SiteSettings> => {
   const user = requireRole(event, MANAGING_ROLES)
   const id = numericParam(event, 'id')
   requireSiteAccess(user, id)
   const body = await readValidatedBody(event, validateWith(SiteSettingsSchema))
-  return inTransaction((trx) => changeSiteSettings(trx, user, id, body))
+  return changeSiteSettings(user, id, body)
 })

@@ -3,12 +3,11 @@ import { PasswordResetSchema } from '#shared/schemas/people'
 import { requireRole } from '../../../utils/auth'
 import { numericParam, validateWith } from '../../../utils/errors'
 import { resetPassword } from '../../../services/people-service'
-import { inTransaction } from '../../../utils/db-retry'
 
 export default defineEventHandler(async (event): Promise<{ ok: true }> => {
   const user = requireRole(event, ['admin'])
   const id = numericParam(event, 'id')
   const { password } = await readValidatedBody(event, validateWith(PasswordResetSchema))
-  await inTransaction((trx) => resetPassword(trx, user, id, password))
+  await resetPassword(user, id, password)
   return { ok: true }
 })
