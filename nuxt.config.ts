@@ -20,7 +20,8 @@ export default defineNuxtConfig({
     },
   },
   runtimeConfig: {
-    // Every key is overridable by NUXT_* environment variables (see .env.example).
+    // Every key is overridable by NUXT_* environment variables (see .env.example), and checked once at
+    // start-up (server/utils/runtime-config.ts): a wrong value stops the server with the variable's name.
     db: {
       host: '127.0.0.1',
       port: 3307,
@@ -66,7 +67,6 @@ export default defineNuxtConfig({
     },
     // Demo seeding only (server/utils/clock.ts): minutes the booking clock is moved by.
     scheduleClockOffsetMinutes: 0,
-    public: { appName: 'Cuspline' },
   },
   nitro: {
     experimental: { tasks: false },

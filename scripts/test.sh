@@ -16,5 +16,9 @@ bash scripts/with-env.sh tsx scripts/db-seed.ts
 bash scripts/build-if-stale.sh
 log "type-checking (nuxt typecheck)"
 node_modules/.bin/nuxt typecheck
+log "linting (eslint)"
+node_modules/.bin/eslint .
+log "looking for unused files, exports and dependencies (knip)"
+node_modules/.bin/knip
 mkdir -p tests/artifacts
 exec bash scripts/with-env.sh vitest run "$@"

@@ -21,10 +21,13 @@ export async function freePort(): Promise<number> {
   })
 }
 
-async function waitUntilAnswering(url: string, child: ChildProcess, output: () => string): Promise<void> {
+async function waitUntilAnswering(url: string, child: ChildProcess, closed: Promise<unknown>, output: () => string): Promise<void> {
   const deadline = Date.now() + 30_000
   while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`app server exited early:\n${output()}`)
+    if (child.exitCode !== null) {
+      await closed // all it printed has been read
+      throw new Error(`app server exited early with code ${child.exitCode}:\n${output()}`)
+    }
     try {
       const response = await fetch(`${url}/api/me`)
       if (response.status === 401) return
@@ -47,7 +50,8 @@ export async function startAppServer(extraEnv: Record<string, string> = {}, node
   })
   child.stdout?.on('data', (chunk) => { log += chunk })
   child.stderr?.on('data', (chunk) => { log += chunk })
-  await waitUntilAnswering(url, child, () => log)
+  const closed = new Promise((done) => child.once('close', done))
+  await waitUntilAnswering(url, child, closed, () => log)
   return {
     url,
     pid: child.pid!,

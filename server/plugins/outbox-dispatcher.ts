@@ -2,6 +2,7 @@
 // processes may run it at once: rows are claimed with FOR UPDATE SKIP LOCKED, so each goes out once.
 import nodemailer from 'nodemailer'
 import { useDb } from '../utils/db'
+import { useLogger } from '../utils/logger'
 import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { dispatchOnce, type DispatchSettings } from '../services/mail/dispatcher'
 
@@ -32,7 +33,7 @@ export default defineNitroPlugin((nitroApp) => {
       const round = await dispatchOnce(useDb(), transporter, settings)
       busy = round.claimed === settings.batchSize
     } catch (error) {
-      console.error('outbox dispatcher:', error instanceof Error ? error.message : error)
+      useLogger('outbox').error('dispatcher:', error instanceof Error ? error.message : error)
     }
     // A full batch: more may be due, go again at once.
     if (!stopped) timer = setTimeout(loop, busy ? 0 : pollMs)

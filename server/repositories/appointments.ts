@@ -185,11 +185,6 @@ export async function findClashes(db: Db, clash: ClashQuery): Promise<Clashes> {
   return found
 }
 
-export async function countAppointments(db: Db, where: Record<string, unknown>): Promise<number> {
-  const row = await db('appointments').where(where).count({ count: '*' }).first()
-  return Number(row?.count ?? 0)
-}
-
 export interface VisitListFilter {
   siteIds: number[] | 'all'
   siteId?: number

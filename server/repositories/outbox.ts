@@ -123,10 +123,6 @@ export async function markFailed(db: Db, row: OutboxRow, error: string): Promise
   await ours(db, row).update({ state: 'failed', lease_until: null, last_error: error.slice(0, 1000) })
 }
 
-export async function findOutboxRow(db: Db, id: number): Promise<OutboxRow | undefined> {
-  return db<OutboxRow>('outbox').where({ id }).first()
-}
-
 interface ListedRow extends OutboxRow {
   first_name: string | null
   last_name: string | null

@@ -13,7 +13,7 @@ export type SiteCalendarInputs = Omit<ExpandAvailabilityInput, 'fromUtc' | 'toUt
 }
 
 /** DATE columns come back as Date at UTC midnight (timezone 'Z'); the rota speaks 'YYYY-MM-DD'. */
-export function localDateOf(value: Date | string | null): string | null {
+function localDateOf(value: Date | string | null): string | null {
   if (value === null) return null
   return typeof value === 'string' ? value.slice(0, 10) : value.toISOString().slice(0, 10)
 }

@@ -16,8 +16,3 @@ export function useDb(): Knex {
   }
   return instance
 }
-
-export async function closeDb(): Promise<void> {
-  await instance?.destroy()
-  instance = undefined
-}

@@ -1,6 +1,6 @@
 // Every error a user can cause is answered here with a status and a message a person can act on.
 import type { H3Event } from 'h3'
-import { ZodError, type ZodType } from 'zod'
+import type { ZodError, ZodType } from 'zod'
 import { DomainValidationError } from '#shared/domain/errors'
 import { MAX_ID } from '#shared/domain/input-bounds'
 import type { FieldProblem } from '#shared/types/api-errors'

@@ -2,7 +2,7 @@
 import { mkdtempSync, mkdirSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
+import { chromium, type BrowserContext, type Page } from 'playwright-core'
 
 const FLAGS = [
   '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
@@ -61,4 +61,4 @@ export async function signInThroughForm(page: Page, email: string, password = 'c
   await page.getByRole('button', { name: 'Sign in' }).click()
 }
 
-export type { Browser, Page }
+export type { Page }

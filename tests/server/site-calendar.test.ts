@@ -4,7 +4,7 @@
 // changes after bookings in flight.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Knex } from 'knex'
-import { ApiClient, signedInAs } from '../helpers/api-client'
+import { type ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
 import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
 import { createDb, dbSettingsFromEnv } from '../../db/connection'

@@ -1,7 +1,7 @@
 // A site's patient-mail and booking settings over HTTP: defaults, who may change them, every 400,
 // and that bookings made afterwards follow them (notice, reminder hours).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { ApiClient, signedInAs } from '../helpers/api-client'
+import { type ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { bookingFor, createMailAnnex, outboxRowsOf, type MailAnnex } from '../helpers/mail-fixtures'
 import { atAhead, TUESDAY } from '../helpers/dates'

@@ -10,6 +10,7 @@ import { claimDueMessages, markFailed, markRetry, markSent, markSkipped, payload
 import { loadMailContext, type MailContext } from '../../repositories/mail-context'
 import { composeMessage, type ComposedMessage } from './compose'
 import { patientLinks, visitToken } from './links'
+import { useLogger } from '../../utils/logger'
 
 export interface DispatchSettings {
   batchSize: number
@@ -95,7 +96,7 @@ async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, setting
   // Sent: never scheduled again from here. If this update fails, the row stays 'sending' and is
   // claimed again only after its lease (the one window where a message can go out twice).
   if (await markSent(db, row, sent.messageId, sent.rendered)) round.sent += 1
-  else console.warn(`outbox: row ${row.id} was sent but its lease had passed to another process`)
+  else useLogger('outbox').warn(`row ${row.id} was sent but its lease had passed to another process`)
 }
 
 export async function dispatchOnce(db: Db, transporter: Transporter, settings: DispatchSettings): Promise<DispatchRound> {
