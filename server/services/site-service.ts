@@ -1,9 +1,7 @@
 // Creating and changing sites; a slug is made from the name when none is given.
 import type { SessionUser } from '#shared/types/auth'
-import type { SiteDetail } from '#shared/types/sites'
-import type { SiteBody, SitePatch } from '#shared/schemas/sites'
-import type { OperatorySummary } from '#shared/types/sites'
-import type { OperatoryBody, OperatoryPatch } from '#shared/schemas/sites'
+import type { OperatorySummary, SiteDetail } from '#shared/types/sites'
+import type { OperatoryBody, OperatoryPatch, SiteBody, SitePatch } from '#shared/schemas/sites'
 import type { Db } from '../utils/db'
 import { inTransaction } from '../utils/db-retry'
 import { requireSiteAccess } from '../utils/auth'
