@@ -2,6 +2,7 @@
 // reset password. Deactivation and password resets bump session_version, ending old sessions.
 import type { SessionUser } from '#shared/types/auth'
 import type { StaffAccount } from '#shared/types/people'
+import { isProviderRole } from '#shared/utils/access'
 import type { StaffBody, StaffPatch } from '#shared/schemas/people'
 import type { Db } from '../utils/db'
 import { badRequest, conflict, isDuplicateKey, notFound } from '../utils/errors'
@@ -57,7 +58,7 @@ export async function createStaff(trx: Db, actor: SessionUser, staff: StaffBody)
     if (isDuplicateKey(error)) throw conflict(`An account for ${staff.email} already exists.`, { field: 'email' })
     throw error
   }
-  if (staff.role === 'dentist' || staff.role === 'hygienist') {
+  if (isProviderRole(staff.role)) {
     await insertProvider(trx, { userId: id, kind: staff.role, colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
   }
   await writeAudit(trx, { userId: actor.id, action: 'staff_created', entity: 'user', entityId: id, after: { email: staff.email, role: staff.role } })
@@ -77,7 +78,7 @@ export async function changeStaff(trx: Db, actor: SessionUser, id: number, patch
   if (patch.siteIds) await replaceUserSites(trx, id, patch.siteIds)
   // A new role or scope takes effect at once: the session guard reloads the user on every call.
   if (patch.active !== undefined && patch.active !== before.active) await setUserActive(trx, id, patch.active)
-  const becomesProvider = (patch.role === 'dentist' || patch.role === 'hygienist') && (await findProviderIdOfUser(trx, id)) === null
+  const becomesProvider = patch.role !== undefined && isProviderRole(patch.role) && (await findProviderIdOfUser(trx, id)) === null
   if (becomesProvider) await insertProvider(trx, { userId: id, kind: patch.role as 'dentist' | 'hygienist', colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
   await writeAudit(trx, { userId: actor.id, action: 'staff_changed', entity: 'user', entityId: id, before, after: patch })
   return findStaff(trx, id)

@@ -1,6 +1,7 @@
 // Who may do what to one visit, and whether now: the one decision the server enforces and the
 // screens use to offer only what will work. Pure: the caller passes the clock.
 import type { Role } from '../types/auth'
+import { ROLE_GROUPS } from '../utils/access'
 import { canMoveToState, holdsTime, stateTimeProblem, VISIT_STATE_LABELS, type VisitState, type VisitTiming } from './visit-states'
 
 export interface VisitActor {
@@ -20,8 +21,6 @@ export type Verdict =
   | { allowed: true }
   | { allowed: false; status: 403 | 409; reason: string }
 
-const DESK_ROLES: readonly Role[] = ['admin', 'manager', 'front_desk']
-
 export const NOT_YOUR_VISIT = 'Only the front desk, managers and admins of this site, or the visit\'s own provider, may change this visit\'s state.'
 export const DESK_ONLY = 'Only the front desk, managers and admins of this site may move, change the length of or cancel a visit.'
 
@@ -34,7 +33,7 @@ function coversSite(actor: VisitActor, siteId: number): boolean {
 
 /** Front desk, managers and admins of the visit's site. */
 export function isDeskOf(actor: VisitActor, siteId: number): boolean {
-  return DESK_ROLES.includes(actor.role) && coversSite(actor, siteId)
+  return (ROLE_GROUPS.booking as readonly Role[]).includes(actor.role) && coversSite(actor, siteId)
 }
 
 /** The visit's own provider (a dentist or hygienist signed in as that provider). */
