@@ -2,7 +2,7 @@
 // screens use to offer only what will work. Pure: the caller passes the clock.
 import type { Role } from '../types/auth'
 import { ROLE_GROUPS } from '../utils/access'
-import { canMoveToState, holdsTime, stateTimeProblem, VISIT_STATE_LABELS, type VisitState, type VisitTiming } from './visit-states'
+import { canMove, canMoveToState, stateTimeProblem, VISIT_STATE_LABELS, type VisitState, type VisitTiming } from './visit-states'
 
 export interface VisitActor {
   role: Role
@@ -57,7 +57,7 @@ export function mayChangeState(actor: VisitActor, visit: VisitFacts, to: VisitSt
 /** Moving, re-planning, changing the length and cancelling: the desk's work, on a visit that still holds its time. */
 export function mayRebook(actor: VisitActor, visit: Pick<VisitFacts, 'siteId' | 'state'>): Verdict {
   if (!isDeskOf(actor, visit.siteId)) return refused(403, DESK_ONLY)
-  if (!holdsTime(visit.state) || visit.state === 'finished') return refused(409, `A ${VISIT_STATE_LABELS[visit.state].toLowerCase()} visit cannot be moved, changed or cancelled.`)
+  if (!canMove(visit.state)) return refused(409, `A ${VISIT_STATE_LABELS[visit.state].toLowerCase()} visit cannot be moved, changed or cancelled.`)
   return ALLOWED
 }
 
@@ -68,12 +68,16 @@ export interface StateOffer {
 
 /**
  * What a screen offers for one visit: the state moves the actor may make (refused by role: left out;
- * refused by time: shown disabled with the reason), and whether move, length and cancel are offered.
+ * refused by time: shown disabled with the reason), whether move and length are offered (`rebook`) and
+ * whether cancelling is (`cancel`).
  */
-export function visitOffers(actor: VisitActor, visit: VisitFacts, nowMs: number, moves: readonly VisitState[]): { states: StateOffer[]; rebook: Verdict } {
+export function visitOffers(
+  actor: VisitActor, visit: VisitFacts, nowMs: number, moves: readonly VisitState[],
+): { states: StateOffer[]; rebook: Verdict; cancel: Verdict } {
   const states = moves
     .filter((to) => to !== 'cancelled' && canMoveToState(visit.state, to))
     .map((to) => ({ to, verdict: mayChangeState(actor, visit, to, nowMs) }))
     .filter((offer) => offer.verdict.allowed || offer.verdict.status === 409)
-  return { states, rebook: mayRebook(actor, visit) }
+  // A visit in treatment may still be moved or given another length, but no longer cancelled.
+  return { states, rebook: mayRebook(actor, visit), cancel: mayChangeState(actor, visit, 'cancelled', nowMs) }
 }
