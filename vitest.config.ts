@@ -1,3 +1,4 @@
+import { fileURLToPath } from 'node:url'
 import { defineConfig } from 'vitest/config'
 
 // Three projects: pure domain code, the built server over HTTP, and real Chromium.
@@ -7,6 +8,8 @@ export default defineConfig({
     reporters: ['default', './tests/helpers/summary-reporter.ts'],
     projects: [
       {
+        // Composables under test import pure code through Nuxt's #shared alias.
+        resolve: { alias: { '#shared': fileURLToPath(new URL('./shared', import.meta.url)) } },
         test: {
           name: 'unit',
           environment: 'node',

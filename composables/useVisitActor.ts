@@ -2,6 +2,7 @@
 // their own provider record. Screens ask those rules what to offer; the server asks them again.
 // The provider id is looked up once per signed-in user (useState, shared by every component).
 import type { VisitActor } from '#shared/domain/visit-access'
+import { hasRole, ROLE_GROUPS } from '#shared/utils/access'
 import type { ProviderSummary } from '#shared/types/people'
 
 export function useVisitActor() {
@@ -10,7 +11,7 @@ export function useVisitActor() {
   const lookUp = async (userId: number) => {
     if (own.value?.userId === userId) return
     own.value = { userId, providerId: null }
-    if (session.user?.role !== 'dentist' && session.user?.role !== 'hygienist') return
+    if (!hasRole(session.user, ROLE_GROUPS.providers)) return
     const providers = await $fetch<ProviderSummary[]>('/api/providers').catch(() => [])
     if (own.value?.userId === userId) own.value = { userId, providerId: providers.find((provider) => provider.userId === userId)?.id ?? null }
   }

@@ -2,6 +2,7 @@
 // minutes into a day, the numbing segment running now, countdown text. No Vue, no fetching.
 import { DateTime } from 'luxon'
 import type { BoardVisitDto, SegmentDto } from '#shared/types/appointments'
+import { isClosed } from '#shared/domain/visit-states'
 
 export interface UtcRange {
   from: string
@@ -54,7 +55,7 @@ export function numbingSegmentAt(segments: readonly SegmentDto[], nowMs: number)
 
 /** Milliseconds until the patient is ready, or null when the visit is not numbing at `nowMs`. */
 export function msUntilReady(visit: Pick<BoardVisitDto, 'segments' | 'state'>, nowMs: number): number | null {
-  if (visit.state === 'cancelled' || visit.state === 'missed' || visit.state === 'finished') return null
+  if (isClosed(visit.state)) return null
   const segment = numbingSegmentAt(visit.segments, nowMs)
   return segment ? Date.parse(segment.endUtc) - nowMs : null
 }

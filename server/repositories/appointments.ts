@@ -199,6 +199,7 @@ export interface BoardRow extends AppointmentRow {
   patient_first_name: string
   patient_last_name: string
   provider_name: string
+  site_tooth_notation: 'universal' | 'iso'
 }
 
 /** Visits overlapping [from, to) for a site or a provider, with patient and provider names. */
@@ -207,9 +208,10 @@ export async function listVisits(db: Db, filter: VisitListFilter): Promise<{ row
     .join('patients', 'patients.id', 'appointments.patient_id')
     .join('providers', 'providers.id', 'appointments.provider_id')
     .join('users', 'users.id', 'providers.user_id')
+    .join('sites', 'sites.id', 'appointments.site_id')
     .where('appointments.start_utc', '<', new Date(filter.toMs)).where('appointments.end_utc', '>', new Date(filter.fromMs))
     .orderBy(['appointments.start_utc', 'appointments.id'])
-    .select('appointments.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'users.name as provider_name')
+    .select('appointments.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'users.name as provider_name', 'sites.tooth_notation as site_tooth_notation')
   if (filter.siteId !== undefined) query.where('appointments.site_id', filter.siteId)
   if (filter.providerId !== undefined) query.where('appointments.provider_id', filter.providerId)
   if (filter.patientId !== undefined) query.where('appointments.patient_id', filter.patientId)

@@ -9,6 +9,7 @@ import type { BookAppointmentInput, MoveAppointmentInput } from '#shared/schemas
 import { holdsTime, type VisitState } from '#shared/domain/visit-states'
 import { mayChangeState, mayRebook, type Verdict } from '#shared/domain/visit-access'
 import { withChairMinutes } from '#shared/domain/length-override'
+import { isProviderRole } from '#shared/utils/access'
 import { useDb, type Db } from '../utils/db'
 import { badRequest, conflict, isDuplicateKey, notFound, rethrowDomainError } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
@@ -136,7 +137,7 @@ async function liveVisit(db: Db, id: number, user: SessionUser): Promise<Appoint
 
 /** The signed-in user as the visit rules see them: role, sites and their own provider record. */
 async function actorOf(db: Db, user: SessionUser) {
-  const isProvider = user.role === 'dentist' || user.role === 'hygienist'
+  const isProvider = isProviderRole(user.role)
   return { ...user, providerId: isProvider ? await findProviderIdOfUser(db, user.id) : null }
 }
 

@@ -3,6 +3,7 @@
 import type { SessionUser } from '#shared/types/auth'
 import type { ProviderSummary, StaffAccount } from '#shared/types/people'
 import type { ProviderBody, ProviderPatch, StaffBody, StaffPatch } from '#shared/schemas/people'
+import { isProviderRole } from '#shared/utils/access'
 import type { Db } from '../utils/db'
 import { inTransaction } from '../utils/db-retry'
 import { badRequest, conflict, isDuplicateKey, notFound } from '../utils/errors'
@@ -58,7 +59,7 @@ export function createStaff(actor: SessionUser, staff: StaffBody): Promise<Staff
       if (isDuplicateKey(error)) throw conflict(`An account for ${staff.email} already exists.`, { field: 'email' })
       throw error
     }
-    if (staff.role === 'dentist' || staff.role === 'hygienist') {
+    if (isProviderRole(staff.role)) {
       await insertProvider(trx, { userId: id, kind: staff.role, colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
     }
     await writeAudit(trx, { userId: actor.id, action: 'staff_created', entity: 'user', entityId: id, after: { email: staff.email, role: staff.role } })
@@ -80,8 +81,8 @@ export function changeStaff(actor: SessionUser, id: number, patch: StaffPatch): 
     if (patch.siteIds) await replaceUserSites(trx, id, patch.siteIds)
     // A new role or scope takes effect at once: the session guard reloads the user on every call.
     if (patch.active !== undefined && patch.active !== before.active) await setUserActive(trx, id, patch.active)
-    const becomesProvider = (patch.role === 'dentist' || patch.role === 'hygienist') && (await findProviderIdOfUser(trx, id)) === null
-    if (becomesProvider) await insertProvider(trx, { userId: id, kind: patch.role as 'dentist' | 'hygienist', colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
+    const newKind = patch.role !== undefined && isProviderRole(patch.role) ? patch.role : null
+    if (newKind && (await findProviderIdOfUser(trx, id)) === null) await insertProvider(trx, { userId: id, kind: newKind, colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
     await writeAudit(trx, { userId: actor.id, action: 'staff_changed', entity: 'user', entityId: id, before, after: patch })
     return findStaff(trx, id)
   })

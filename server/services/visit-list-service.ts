@@ -13,8 +13,9 @@ function initials(name: string): string {
   return name.replace(/^Dr\.\s*/, '').split(/\s+/).map((part) => part[0] ?? '').join('').slice(0, 3).toUpperCase()
 }
 
-function procedureLine(item: PlanItemSummary): string {
-  const tooth = item.tooth ? ` ${item.tooth.universal}` : ''
+/** "Posterior composite 19 MO" (Universal) or "… 36 MO" (ISO 3950), in the visit's site's notation. */
+function procedureLine(item: PlanItemSummary, notation: 'universal' | 'iso'): string {
+  const tooth = item.tooth ? ` ${notation === 'iso' ? item.tooth.iso : item.tooth.universal}` : ''
   const surfaces = item.surfaces?.length ? ` ${item.surfaces.join('')}` : ''
   return `${item.templateName}${tooth}${surfaces}`
 }
@@ -26,7 +27,7 @@ function toBoardVisit(row: BoardRow, segments: Parameters<typeof toAppointmentDt
     patientName: `${row.patient_first_name} ${row.patient_last_name}`,
     providerName: row.provider_name,
     providerInitials: initials(row.provider_name),
-    procedures: (visit.plan.items ?? []).map(procedureLine),
+    procedures: (visit.plan.items ?? []).map((item) => procedureLine(item, row.site_tooth_notation)),
   }
 }
 

@@ -1,6 +1,7 @@
 // One place that decides who may call what: every route starts with requireUser or requireRole.
 import type { H3Event } from 'h3'
 import type { Role, SessionUser } from '#shared/types/auth'
+import { ROLE_GROUPS } from '#shared/utils/access'
 import { MESSAGES } from './errors'
 
 /** The signed-in user, refreshed from the database by the session guard middleware. */
@@ -28,6 +29,7 @@ export function requireSiteAccess(user: SessionUser, siteId: number): void {
   }
 }
 
-export const STAFF_ROLES: readonly Role[] = ['admin', 'manager', 'front_desk', 'dentist', 'hygienist', 'assistant']
-export const MANAGING_ROLES: readonly Role[] = ['admin', 'manager']
-export const BOOKING_ROLES: readonly Role[] = ['admin', 'manager', 'front_desk']
+// The role groups are defined once, in shared/utils/access.ts (ROLE_GROUPS, which the screens read too).
+export const STAFF_ROLES: readonly Role[] = ROLE_GROUPS.staff
+export const MANAGING_ROLES: readonly Role[] = ROLE_GROUPS.managing
+export const BOOKING_ROLES: readonly Role[] = ROLE_GROUPS.booking

@@ -75,6 +75,15 @@ function localDateSpan(fromMs: number, toMs: number, zone: string): LocalDateSpa
   return { first: addDays(localDateAt(fromMs, zone), -1), last: localDateAt(toMs, zone) }
 }
 
+/**
+ * Whether the site is closed on a local date: on its closed list, or a weekday without opening hours.
+ * The one answer for availability below and for the Rota screen's greyed days.
+ */
+export function isSiteClosedOn(site: Pick<SiteCalendar, 'openingHours' | 'closedDates'>, date: LocalDate): boolean {
+  if (site.closedDates.includes(date)) return true
+  return (site.openingHours[String(isoWeekdayOf(date)) as keyof SiteCalendar['openingHours']] ?? []).length === 0
+}
+
 function openingIntervalsOn(site: SiteCalendar, date: LocalDate): EpochInterval[] {
   const ranges = site.openingHours[String(isoWeekdayOf(date)) as keyof SiteCalendar['openingHours']] ?? []
   return ranges.map((range) => localRangeToEpoch(date, range.start, range.end, site.timeZone))

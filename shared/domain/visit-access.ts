@@ -1,7 +1,8 @@
 // Who may do what to one visit, and whether now: the one decision the server enforces and the
 // screens use to offer only what will work. Pure: the caller passes the clock.
 import type { Role } from '../types/auth'
-import { canMoveToState, holdsTime, stateTimeProblem, VISIT_STATE_LABELS, type VisitState, type VisitTiming } from './visit-states'
+import { ROLE_GROUPS } from '../utils/access'
+import { canMove, canMoveToState, stateTimeProblem, VISIT_STATE_LABELS, type VisitState, type VisitTiming } from './visit-states'
 
 export interface VisitActor {
   role: Role
@@ -20,8 +21,6 @@ export type Verdict =
   | { allowed: true }
   | { allowed: false; status: 403 | 409; reason: string }
 
-const DESK_ROLES: readonly Role[] = ['admin', 'manager', 'front_desk']
-
 export const NOT_YOUR_VISIT = 'Only the front desk, managers and admins of this site, or the visit\'s own provider, may change this visit\'s state.'
 export const DESK_ONLY = 'Only the front desk, managers and admins of this site may move, change the length of or cancel a visit.'
 
@@ -34,7 +33,7 @@ function coversSite(actor: VisitActor, siteId: number): boolean {
 
 /** Front desk, managers and admins of the visit's site. */
 export function isDeskOf(actor: VisitActor, siteId: number): boolean {
-  return DESK_ROLES.includes(actor.role) && coversSite(actor, siteId)
+  return (ROLE_GROUPS.booking as readonly Role[]).includes(actor.role) && coversSite(actor, siteId)
 }
 
 /** The visit's own provider (a dentist or hygienist signed in as that provider). */
@@ -58,7 +57,7 @@ export function mayChangeState(actor: VisitActor, visit: VisitFacts, to: VisitSt
 /** Moving, re-planning, changing the length and cancelling: the desk's work, on a visit that still holds its time. */
 export function mayRebook(actor: VisitActor, visit: Pick<VisitFacts, 'siteId' | 'state'>): Verdict {
   if (!isDeskOf(actor, visit.siteId)) return refused(403, DESK_ONLY)
-  if (!holdsTime(visit.state) || visit.state === 'finished') return refused(409, `A ${VISIT_STATE_LABELS[visit.state].toLowerCase()} visit cannot be moved, changed or cancelled.`)
+  if (!canMove(visit.state)) return refused(409, `A ${VISIT_STATE_LABELS[visit.state].toLowerCase()} visit cannot be moved, changed or cancelled.`)
   return ALLOWED
 }
 
@@ -69,12 +68,16 @@ export interface StateOffer {
 
 /**
  * What a screen offers for one visit: the state moves the actor may make (refused by role: left out;
- * refused by time: shown disabled with the reason), and whether move, length and cancel are offered.
+ * refused by time: shown disabled with the reason), whether move and length are offered (`rebook`) and
+ * whether cancelling is (`cancel`).
  */
-export function visitOffers(actor: VisitActor, visit: VisitFacts, nowMs: number, moves: readonly VisitState[]): { states: StateOffer[]; rebook: Verdict } {
+export function visitOffers(
+  actor: VisitActor, visit: VisitFacts, nowMs: number, moves: readonly VisitState[],
+): { states: StateOffer[]; rebook: Verdict; cancel: Verdict } {
   const states = moves
     .filter((to) => to !== 'cancelled' && canMoveToState(visit.state, to))
     .map((to) => ({ to, verdict: mayChangeState(actor, visit, to, nowMs) }))
     .filter((offer) => offer.verdict.allowed || offer.verdict.status === 409)
-  return { states, rebook: mayRebook(actor, visit) }
+  // A visit in treatment may still be moved or given another length, but no longer cancelled.
+  return { states, rebook: mayRebook(actor, visit), cancel: mayChangeState(actor, visit, 'cancelled', nowMs) }
 }

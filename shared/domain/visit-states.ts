@@ -27,6 +27,20 @@ export function holdsTime(state: VisitState): boolean {
   return state !== 'cancelled' && state !== 'missed'
 }
 
+/** Closed: nothing more happens to the visit (finished, did not come, cancelled). */
+export function isClosed(state: VisitState): boolean {
+  return state === 'finished' || !holdsTime(state)
+}
+
+/**
+ * Whether a visit in this state may still be moved, re-planned or given another length: every open
+ * visit, including one in treatment (its chair time may run over). Who may do it is
+ * `mayRebook` in visit-access.ts, which builds on this.
+ */
+export function canMove(state: VisitState): boolean {
+  return !isClosed(state)
+}
+
 export const VISIT_STATE_LABELS: Record<VisitState, string> = {
   booked: 'Booked',
   confirmed: 'Confirmed',

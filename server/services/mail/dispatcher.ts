@@ -5,7 +5,7 @@ import type { Db } from '../../utils/db'
 import { inTransaction } from '../../utils/db-retry'
 import type { Transporter } from 'nodemailer'
 import { retryDelaySeconds, givesUp, type RetryPolicy } from '#shared/domain/outbox-retry'
-import { holdsTime } from '#shared/domain/visit-states'
+import { isClosed } from '#shared/domain/visit-states'
 import { claimDueMessages, markFailed, markRetry, markSent, markSkipped, payloadOf, type OutboxRow } from '../../repositories/outbox'
 import { loadMailContext, type MailContext } from '../../repositories/mail-context'
 import { composeMessage, type ComposedMessage } from './compose'
@@ -35,7 +35,7 @@ export function reasonToSkip(row: OutboxRow, context: MailContext | undefined, n
   if (!context) return 'the visit no longer exists'
   if (!context.patient.email) return 'the patient has no e-mail address'
   if (!context.patient.emailConsent) return 'the patient has not agreed to e-mail'
-  const live = holdsTime(context.visit.state) && context.visit.state !== 'finished'
+  const live = !isClosed(context.visit.state)
   if (row.kind === 'cancellation') {
     if (context.visit.state !== 'cancelled') return 'the visit is no longer cancelled'
     // A calendar entry for a time gone by needs no removing (mail held up by a long outage, say).
