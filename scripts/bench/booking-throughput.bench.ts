@@ -7,9 +7,8 @@ import { performance } from 'node:perf_hooks'
 import { DateTime } from 'luxon'
 import type { Knex } from 'knex'
 import mysql from 'mysql2/promise'
-import { createDb, dbSettingsFromEnv } from '../../db/connection'
-import { migratorConfig } from '../../db/migration-source'
-import { seedDemo } from '../../seeds/index'
+import { dbSettingsFromEnv } from '../../db/connection'
+import { cpuSeconds, freshBenchDatabase, mondayAhead, percentile } from '../lib/bench'
 
 const DATABASE = 'cuspline_bench'
 const CLIENTS = 16
@@ -17,25 +16,11 @@ const BOOKINGS_PER_CLIENT = 40
 const WARM_UP_PER_CLIENT = 5
 const ZONE = 'America/Chicago'
 const ALL_DAY = [{ start: '00:00', end: '24:00' }]
+const FIRST_DAY = mondayAhead(4, ZONE) // bookings fill the days from here on, on the bench's own always-open site
 
+const HOME_DATABASE = dbSettingsFromEnv().database // an existing database to connect to while creating ours
 process.env.NUXT_DB_DATABASE = DATABASE
 const { startAppServer } = await import('../lib/app-server')
-
-function percentile(values: number[], share: number): number {
-  const sorted = [...values].sort((a, b) => a - b)
-  return sorted[Math.min(sorted.length - 1, Math.floor(share * sorted.length))]!
-}
-
-async function freshDatabase(): Promise<Knex> {
-  const admin = createDb({ ...dbSettingsFromEnv(), database: 'cuspline' })
-  await admin.raw(`DROP DATABASE IF EXISTS \`${DATABASE}\``)
-  await admin.raw(`CREATE DATABASE \`${DATABASE}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`)
-  await admin.destroy()
-  const db = createDb({ ...dbSettingsFromEnv(), database: DATABASE, poolMax: CLIENTS + 2 })
-  await db.migrate.latest(migratorConfig)
-  await seedDemo(db)
-  return db
-}
 
 /** One always-open site with a room, a provider on shift around the clock and patients per client. */
 async function benchSite(db: Knex) {
@@ -59,13 +44,7 @@ async function benchSite(db: Knex) {
 }
 
 function slot(lane: number, index: number): string {
-  return DateTime.fromISO('2027-06-01T00:00', { zone: ZONE }).plus({ days: lane, hours: index * 2 }).toUTC().toISO()!
-}
-
-/** CPU seconds (user + system) a process has used so far, from /proc (Linux). */
-function cpuSeconds(pid: number): number {
-  const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
-  return (Number(fields[11]) + Number(fields[12])) / 100
+  return DateTime.fromISO(`${FIRST_DAY}T00:00`, { zone: ZONE }).plus({ days: lane, hours: index * 2 }).toUTC().toISO()!
 }
 
 /** This checkout's own MariaDB (scripts/db-start.sh writes its pid file), not any other on the machine. */
@@ -193,7 +172,7 @@ async function rawCeiling(site: BenchSite, first: number, count: number) {
   return { perSecond: latencies.length / seconds, p50: percentile(latencies, 0.5), p95: percentile(latencies, 0.95) }
 }
 
-const db = await freshDatabase()
+const db = await freshBenchDatabase(DATABASE, { adminDatabase: HOME_DATABASE, poolMax: CLIENTS + 2 })
 const site = await benchSite(db)
 // BENCH_CPU_PROFILE=dir writes a V8 CPU profile of the app server there.
 // The mail dispatcher is off: sending is background work, not part of booking (the ceiling sends none).

@@ -6,28 +6,17 @@ import { join } from 'node:path'
 import { gzipSync } from 'node:zlib'
 import { DateTime } from 'luxon'
 import type { Knex } from 'knex'
-import { createDb, dbSettingsFromEnv } from '../../db/connection'
-import { migratorConfig } from '../../db/migration-source'
-import { seedDemo } from '../../seeds/index'
+import { dbSettingsFromEnv } from '../../db/connection'
+import { freshBenchDatabase, mondayAhead } from '../lib/bench'
 
 const DATABASE = 'cuspline_bench_board'
-const DAY = '2027-06-07' // a Monday
 const ZONE = 'America/Los_Angeles'
+const DAY = mondayAhead(4, ZONE) // a Monday, when the demo dentist is at Quarry Street
 const RUNS = 7
+const HOME_DATABASE = dbSettingsFromEnv().database // an existing database to connect to while creating ours
 process.env.NUXT_DB_DATABASE = DATABASE
 const { startAppServer } = await import('../lib/app-server')
 const { openBrowser, signInThroughForm } = await import('../../tests/helpers/browser')
-
-async function freshDatabase(): Promise<Knex> {
-  const admin = createDb({ ...dbSettingsFromEnv(), database: 'cuspline' })
-  await admin.raw(`DROP DATABASE IF EXISTS \`${DATABASE}\``)
-  await admin.raw(`CREATE DATABASE \`${DATABASE}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`)
-  await admin.destroy()
-  const db = createDb({ ...dbSettingsFromEnv(), database: DATABASE })
-  await db.migrate.latest(migratorConfig)
-  await seedDemo(db)
-  return db
-}
 
 /** 60 visits in Quarry Street's five rooms: 12 per room, 40 minutes apart, straight into the tables. */
 async function sixtyVisits(db: Knex): Promise<void> {
@@ -54,7 +43,7 @@ async function sixtyVisits(db: Knex): Promise<void> {
   }
 }
 
-const db = await freshDatabase()
+const db = await freshBenchDatabase(DATABASE, { adminDatabase: HOME_DATABASE })
 await sixtyVisits(db)
 const server = await startAppServer({ NUXT_DB_DATABASE: DATABASE })
 const browser = await openBrowser(server.url, { width: 1400, height: 1600 })

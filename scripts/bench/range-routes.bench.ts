@@ -3,13 +3,11 @@
 // the earliest allowed date (2000-01-01). Prints the app's CPU milliseconds per request (target
 // ≤ 50 ms each) and the wall time, plus what a refused far-future query and a refused 20 MB body
 // cost. Uses its own database (cuspline_bench_ranges) and the built app. Figures only, no assertions.
-import { readFileSync } from 'node:fs'
 import { Agent, request } from 'node:http'
 import { performance } from 'node:perf_hooks'
 import type { Knex } from 'knex'
-import { createDb, dbSettingsFromEnv } from '../../db/connection'
-import { migratorConfig } from '../../db/migration-source'
-import { seedDemo } from '../../seeds/index'
+import { dbSettingsFromEnv } from '../../db/connection'
+import { cpuSeconds, freshBenchDatabase, percentile } from '../lib/bench'
 import { DATE_BOUNDS, latestAllowedDate, MAX_WINDOW_DAYS } from '../../shared/domain/input-bounds'
 import { BALANCE_MAX_DAYS } from '../../shared/schemas/balance'
 
@@ -22,30 +20,8 @@ const HOME_DATABASE = dbSettingsFromEnv().database // an existing database to co
 process.env.NUXT_DB_DATABASE = DATABASE
 const { startAppServer } = await import('../lib/app-server')
 
-function percentile(values: number[], share: number): number {
-  const sorted = [...values].sort((a, b) => a - b)
-  return sorted[Math.min(sorted.length - 1, Math.floor(share * sorted.length))]!
-}
-
-/** CPU seconds (user + system) a process has used so far, from /proc (Linux). */
-function cpuSeconds(pid: number): number {
-  const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
-  return (Number(fields[11]) + Number(fields[12])) / 100
-}
-
 function addDays(date: string, days: number): string {
   return new Date(Date.parse(`${date}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10)
-}
-
-async function freshDatabase(): Promise<Knex> {
-  const admin = createDb({ ...dbSettingsFromEnv(), database: HOME_DATABASE })
-  await admin.raw(`DROP DATABASE IF EXISTS \`${DATABASE}\``)
-  await admin.raw(`CREATE DATABASE \`${DATABASE}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`)
-  await admin.destroy()
-  const db = createDb({ ...dbSettingsFromEnv(), database: DATABASE })
-  await db.migrate.latest(migratorConfig)
-  await seedDemo(db)
-  return db
 }
 
 /** The heaviest rota a caller could have stored: daily shifts and blocks since the earliest allowed date. */
@@ -84,7 +60,7 @@ async function signIn(baseURL: string): Promise<string> {
   return login.headers.getSetCookie()[0]!.split(';')[0]!
 }
 
-const db = await freshDatabase()
+const db = await freshBenchDatabase(DATABASE, { adminDatabase: HOME_DATABASE })
 await heavyRota(db)
 const siteId = (await db('sites').where({ slug: 'quarry-street' }).first('id')).id as number
 const providerId = (await db('providers').first('id')).id as number
