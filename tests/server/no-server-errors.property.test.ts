@@ -149,7 +149,7 @@ const NEAR_VALID: Array<Record<string, unknown>> = [
   { name: 'Annex', timeZone: 'America/Denver', openingHours: WEEK, closedDates: [daysFromToday(40)], bookingUnitMinutes: 5 },
   { email: 'new.person@fernhollow.test', name: 'New Person', role: 'front_desk', siteIds: [1], password: 'a-long-test-password' },
   { siteId: 1, name: 'Room 9', capabilities: ['restorative'], sortOrder: 9 },
-  { userId: 1, kind: 'dentist', colour: '#2563eb', capabilities: ['restorative'] },
+  { userId: 1, colour: '#2563eb', capabilities: ['restorative'] },
   { reason: 'Patient asked', rowVersion: 1 }, { state: 'confirmed', rowVersion: 1 }, { password: 'another-long-password' },
 ]
 const nearValidBody = fc.tuple(fc.constantFrom(...NEAR_VALID), fieldName, fc.oneof(leaf, leaf, jsonValue))
