@@ -4,10 +4,7 @@ import { usePolledVisits } from './usePolledVisits'
 
 export function useBoardVisits(siteId: Ref<number | null>, date: Ref<string>, zone: Ref<string>) {
   const scope = computed(() => (siteId.value === null ? null : { siteId: siteId.value }))
-  const range = computed(() => {
-    const { fromUtc, toUtc } = siteDayRange(date.value, zone.value)
-    return { from: fromUtc, to: toUtc }
-  })
+  const range = computed(() => siteDayRange(date.value, zone.value))
   const { visits, loading, reload } = usePolledVisits(scope, range)
   return { visits, loading, reload }
 }

@@ -1,6 +1,6 @@
 import type { OperatorySummary } from '#shared/types/sites'
 
-/** The rooms of one site, cached per site id. */
+/** The operatories (chairs) of one site, cached per site id. */
 export function useOperatories(siteId: Ref<number | null>) {
   return useFetch<OperatorySummary[]>('/api/operatories', {
     key: computed(() => `operatories-${siteId.value}`),

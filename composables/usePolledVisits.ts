@@ -18,7 +18,7 @@ export function usePolledVisits(scope: Ref<VisitScope | null>, range: Ref<UtcRan
   let etag = ''
   let timer: ReturnType<typeof setInterval> | undefined
 
-  const currentKey = () => `${JSON.stringify(scope.value)}|${range.value.from}|${range.value.to}`
+  const currentKey = () => `${JSON.stringify(scope.value)}|${range.value.fromUtc}|${range.value.toUtc}`
 
   async function load(force = false): Promise<void> {
     if (scope.value === null) { loaded.value = true; return }
@@ -26,7 +26,7 @@ export function usePolledVisits(scope: Ref<VisitScope | null>, range: Ref<UtcRan
     loading.value = visits.value.length === 0
     try {
       const response = await $fetch.raw<BoardVisitDto[]>('/api/appointments', {
-        query: { ...scope.value, from: range.value.from, to: range.value.to },
+        query: { ...scope.value, fromUtc: range.value.fromUtc, toUtc: range.value.toUtc },
         headers: force || !etag ? {} : { 'if-none-match': etag },
         ignoreResponseError: true,
       })

@@ -1,4 +1,4 @@
-// Rooms, open times and who is on shift for one site day (the Chairboard's background).
+// Operatories (chairs), open times and who is on shift for one site day (the Chairboard's background).
 import type { AvailabilityResponse } from '#shared/types/rota-api'
 import type { OperatorySummary } from '#shared/types/sites'
 import type { ProviderSummary } from '#shared/types/people'
@@ -6,7 +6,7 @@ import type { ProviderSummary } from '#shared/types/people'
 export function useSiteDay(siteId: Ref<number | null>, date: Ref<string>) {
   const enabled = computed(() => siteId.value !== null)
   const { data: operatories } = useFetch<OperatorySummary[]>('/api/operatories', {
-    key: computed(() => `board-rooms-${siteId.value}`), query: computed(() => ({ siteId: siteId.value })),
+    key: computed(() => `board-operatories-${siteId.value}`), query: computed(() => ({ siteId: siteId.value })),
     immediate: enabled.value, watch: [siteId], default: () => [],
   })
   const { data: providers } = useFetch<ProviderSummary[]>('/api/providers', {
@@ -18,6 +18,6 @@ export function useSiteDay(siteId: Ref<number | null>, date: Ref<string>) {
     query: computed(() => ({ siteId: siteId.value, from: date.value, to: date.value })),
     immediate: enabled.value, watch: [siteId, date], default: () => null,
   })
-  const rooms = computed(() => (operatories.value ?? []).filter((room) => room.active))
-  return { rooms, providers, availability }
+  const activeOperatories = computed(() => (operatories.value ?? []).filter((operatory) => operatory.active))
+  return { operatories: activeOperatories, providers, availability }
 }

@@ -12,10 +12,10 @@ export interface VisitScope {
 export function useVisitList(scope: Ref<VisitScope | null>, range: Ref<UtcRange>) {
   const fetcher = useRequestFetch()
   return useAsyncData<BoardVisitDto[]>(
-    computed(() => `visits-${JSON.stringify(scope.value)}-${range.value.from}-${range.value.to}`),
+    computed(() => `visits-${JSON.stringify(scope.value)}-${range.value.fromUtc}-${range.value.toUtc}`),
     (_nuxtApp, { signal }) => (scope.value === null
       ? Promise.resolve([])
-      : fetcher<BoardVisitDto[]>('/api/appointments', { query: { ...scope.value, from: range.value.from, to: range.value.to }, signal })),
+      : fetcher<BoardVisitDto[]>('/api/appointments', { query: { ...scope.value, fromUtc: range.value.fromUtc, toUtc: range.value.toUtc }, signal })),
     { default: () => [] },
   )
 }

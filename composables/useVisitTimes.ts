@@ -4,22 +4,23 @@ import { DateTime } from 'luxon'
 import type { BoardVisitDto, SegmentDto } from '#shared/types/appointments'
 import { isClosed } from '#shared/domain/visit-states'
 
+/** A UTC range [fromUtc, toUtc) of ISO instants, as GET /api/appointments takes it. */
 export interface UtcRange {
-  from: string
-  to: string
+  fromUtc: string
+  toUtc: string
 }
 
 /** One local date of a zone as the UTC range the API takes. */
 export function localDayRange(date: string, zone: string): UtcRange {
   const start = DateTime.fromISO(date, { zone }).startOf('day')
-  return { from: start.toUTC().toISO()!, to: start.plus({ days: 1 }).toUTC().toISO()! }
+  return { fromUtc: start.toUTC().toISO()!, toUtc: start.plus({ days: 1 }).toUTC().toISO()! }
 }
 
 /** Local dates from..to (inclusive) in every zone at once: a UTC range wide enough for each of them. */
 export function anyZoneRange(fromDate: string, toDate: string): UtcRange {
   const from = DateTime.fromISO(fromDate, { zone: 'UTC' }).minus({ days: 1 })
   const to = DateTime.fromISO(toDate, { zone: 'UTC' }).plus({ days: 2 })
-  return { from: from.toISO()!, to: to.toISO()! }
+  return { fromUtc: from.toISO()!, toUtc: to.toISO()! }
 }
 
 export function localDateOf(utc: string, zone: string): string {

@@ -34,7 +34,7 @@ async function benchSite(db: Knex) {
   for (let lane = 0; lane < CLIENTS; lane += 1) {
     const [operatoryId] = await db('operatories').insert({ site_id: siteId, name: `Bench ${lane}`, capabilities: '["restorative"]' })
     const [userId] = await db('users').insert({ email: `bench-${lane}@fernhollow.test`, name: `Bench ${lane}`, role: 'dentist', password_hash: 'x' })
-    const [providerId] = await db('providers').insert({ user_id: userId, kind: 'dentist', capabilities: '["restorative"]' })
+    const [providerId] = await db('providers').insert({ user_id: userId, capabilities: '["restorative"]' })
     await db('shifts').insert({ provider_id: providerId, site_id: siteId, rrule: 'FREQ=DAILY', valid_from: '2026-01-01', local_start: '00:00', local_end: '24:00' })
     // With an e-mail address and consent, so each booking also queues its invitation and reminders.
     const [patientId] = await db('patients').insert({ first_name: 'Bench', last_name: `Lane ${lane}`, date_of_birth: '1980-01-01', email: `lane-${lane}@bench.test`, email_consent: true })

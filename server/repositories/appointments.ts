@@ -233,3 +233,16 @@ export function groupSegments(segments: SegmentRow[]): Map<number, SegmentRow[]>
   }
   return byVisit
 }
+
+export interface OpenVisitRow { id: number; start_utc: Date; site_name: string; time_zone: string }
+
+/** A provider's open visits (not finished, missed or cancelled) that end after `fromMs`, earliest first. */
+export async function openVisitsOfProvider(db: Db, providerId: number, fromMs: number): Promise<OpenVisitRow[]> {
+  return db('appointments')
+    .join('sites', 'sites.id', 'appointments.site_id')
+    .where('appointments.provider_id', providerId)
+    .where('appointments.end_utc', '>', new Date(fromMs))
+    .whereNotIn('appointments.state', ['finished', 'missed', 'cancelled'])
+    .orderBy(['appointments.start_utc', 'appointments.id'])
+    .select('appointments.id', 'appointments.start_utc', 'sites.name as site_name', 'sites.time_zone')
+}

@@ -1,13 +1,16 @@
 // The provider and the patient of a booking, read together in one round trip.
 import type { Db } from '../utils/db'
 import type { PatientDto } from '#shared/types/appointments'
+import type { ProviderKind } from '#shared/types/people'
+import { ROLE_GROUPS } from '#shared/utils/access'
 import { parseJson } from './json'
 import { toPatientDto, type PatientRow } from './patients'
 
 export interface ProviderDetails {
   id: number
   name: string
-  kind: 'dentist' | 'hygienist'
+  /** users.role */
+  kind: ProviderKind
   capabilities: string[]
   active: boolean
 }
@@ -25,11 +28,11 @@ export async function findBookingParties(db: Db, providerId: number, patientId: 
   const [rows] = await db.raw(`
     SELECT patients.*, provider.* FROM patients
     LEFT JOIN (
-      SELECT providers.id AS provider_id, users.name AS provider_name, providers.kind AS provider_kind,
+      SELECT providers.id AS provider_id, users.name AS provider_name, users.role AS provider_kind,
         providers.capabilities AS provider_capabilities, providers.active AS provider_active
-      FROM providers JOIN users ON users.id = providers.user_id WHERE providers.id = ?
+      FROM providers JOIN users ON users.id = providers.user_id WHERE providers.id = ? AND users.role IN (?, ?)
     ) AS provider ON TRUE
-    WHERE patients.id = ?`, [providerId, patientId])
+    WHERE patients.id = ?`, [providerId, ...ROLE_GROUPS.providers, patientId])
   const row = (rows as Array<PatientRow & PartyColumns>)[0]
   if (!row) {
     const provider = await findProviderDetails(db, providerId)
@@ -44,6 +47,7 @@ export async function findBookingParties(db: Db, providerId: number, patientId: 
 
 export async function findProviderDetails(db: Db, providerId: number): Promise<ProviderDetails | undefined> {
   const row = await db('providers').join('users', 'users.id', 'providers.user_id').where('providers.id', providerId)
-    .first('providers.id', 'users.name', 'providers.kind', 'providers.capabilities', 'providers.active')
+    .whereIn('users.role', ROLE_GROUPS.providers)
+    .first('providers.id', 'users.name', 'users.role as kind', 'providers.capabilities', 'providers.active')
   return row ? { id: row.id, name: row.name, kind: row.kind, capabilities: parseJson<string[]>(row.capabilities, []), active: Boolean(row.active) } : undefined
 }

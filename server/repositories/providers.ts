@@ -1,24 +1,28 @@
 // Providers (dentists and hygienists): one per staff account, scoped to sites through the account.
 import type { Db } from '../utils/db'
-import type { ProviderSummary } from '#shared/types/people'
+import type { ProviderKind, ProviderSummary } from '#shared/types/people'
 import type { ProviderBody, ProviderPatch } from '#shared/schemas/people'
+import { ROLE_GROUPS } from '#shared/utils/access'
 import { parseJson } from './json'
 
 interface ProviderRow {
   id: number
   user_id: number
   name: string
-  kind: 'dentist' | 'hygienist'
+  /** users.role: the one source of a provider's kind. */
+  kind: ProviderKind
   colour: string
   capabilities: string
   active: number
   all_sites: number
 }
 
+/** Provider rows whose account is a dentist or hygienist; the kind is the account's role. */
 function baseQuery(db: Db) {
   return db('providers as p')
     .join('users as u', 'u.id', 'p.user_id')
-    .select<ProviderRow[]>('p.id', 'p.user_id', 'u.name', 'p.kind', 'p.colour', 'p.capabilities', 'p.active', 'u.all_sites')
+    .whereIn('u.role', ROLE_GROUPS.providers)
+    .select<ProviderRow[]>('p.id', 'p.user_id', 'u.name', 'u.role as kind', 'p.colour', 'p.capabilities', 'p.active', 'u.all_sites')
 }
 
 async function withSites(db: Db, rows: ProviderRow[]): Promise<ProviderSummary[]> {
@@ -67,7 +71,6 @@ export async function lockProvider(db: Db, id: number): Promise<boolean> {
 export async function insertProvider(db: Db, provider: ProviderBody): Promise<number> {
   const [id] = await db('providers').insert({
     user_id: provider.userId,
-    kind: provider.kind,
     colour: provider.colour,
     capabilities: JSON.stringify([...new Set(provider.capabilities)]),
   })
@@ -76,7 +79,6 @@ export async function insertProvider(db: Db, provider: ProviderBody): Promise<nu
 
 export async function updateProvider(db: Db, id: number, patch: ProviderPatch): Promise<void> {
   const columns: Record<string, unknown> = {}
-  if (patch.kind !== undefined) columns.kind = patch.kind
   if (patch.colour !== undefined) columns.colour = patch.colour
   if (patch.capabilities !== undefined) columns.capabilities = JSON.stringify([...new Set(patch.capabilities)])
   if (patch.active !== undefined) columns.active = patch.active

@@ -1,6 +1,7 @@
 // Staff accounts and their site scopes.
 import type { Db } from '../utils/db'
 import type { Role, SessionUser } from '#shared/types/auth'
+import { ROLE_GROUPS } from '#shared/utils/access'
 
 export interface UserRow {
   id: number
@@ -82,10 +83,13 @@ export interface StaffRow extends UserRow {
   provider_id: number | null
 }
 
-/** Accounts with their provider id, optionally only those whose scope meets the given sites. */
+/**
+ * Accounts with their provider id (only while the role is a provider role: a former provider's row is
+ * kept for its history but is no longer theirs to show), optionally only those whose scope meets the sites.
+ */
 export async function listStaffRows(db: Db, scope: { allSites: boolean; siteIds: number[] }): Promise<StaffRow[]> {
   const query = db('users as u')
-    .leftJoin('providers as p', 'p.user_id', 'u.id')
+    .leftJoin('providers as p', (join) => join.on('p.user_id', 'u.id').onIn('u.role', ROLE_GROUPS.providers))
     .select<StaffRow[]>('u.*', 'p.id as provider_id')
     .orderBy('u.name')
   if (!scope.allSites) {

@@ -56,7 +56,7 @@ function wallClockOf(zone: string): (instantUtc: string) => string {
 }
 
 function dual(interval: UtcInterval, local: (instantUtc: string) => string): DualInterval {
-  return { ...interval, startLocal: local(interval.startUtc), endLocal: local(interval.endUtc) }
+  return { ...interval, startLocalIso: local(interval.startUtc), endLocalIso: local(interval.endUtc) }
 }
 
 export async function siteAvailability(db: Db, site: SiteDetail, window: UtcWindow): Promise<AvailabilityResponse> {

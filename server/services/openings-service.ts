@@ -58,7 +58,7 @@ function toDto(opening: Opening, search: SiteSearch): OpeningDto {
     siteId: opening.siteId, siteName: search.siteName,
     operatoryId: opening.operatoryId, operatoryName: search.calendar.operatoryDetails.find((room) => room.id === opening.operatoryId)?.name ?? '',
     providerId: opening.providerId, providerName: search.providers.find((provider) => provider.id === opening.providerId)?.name ?? '',
-    startUtc: times.startUtc, endUtc: times.endUtc, startLocal: times.startLocal, timeZone: times.timeZone,
+    startUtc: times.startUtc, endUtc: times.endUtc, startLocalIso: times.startLocalIso, timeZone: times.timeZone,
   }
 }
 

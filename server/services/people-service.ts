@@ -1,5 +1,9 @@
 // Staff accounts: create (with a provider row for dentists and hygienists), change, deactivate,
 // reset password. Deactivation and password resets bump session_version, ending old sessions.
+// A provider's kind is the account's role (no copy on the provider row). When the role stops being a
+// provider role, the provider row is deactivated, or the change is refused (409) while the provider
+// still has open visits ahead; when it becomes a provider role again, the row is reactivated.
+import { DateTime } from 'luxon'
 import type { SessionUser } from '#shared/types/auth'
 import type { ProviderSummary, StaffAccount } from '#shared/types/people'
 import type { ProviderBody, ProviderPatch, StaffBody, StaffPatch } from '#shared/schemas/people'
@@ -12,6 +16,8 @@ import {
   updateUserProfile, type StaffRow,
 } from '../repositories/users'
 import { findProvider, findProviderIdOfUser, insertProvider, updateProvider } from '../repositories/providers'
+import { openVisitsOfProvider, type OpenVisitRow } from '../repositories/appointments'
+import { scheduleNowMs } from '../utils/clock'
 import { existingSiteIds } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
 
@@ -60,7 +66,7 @@ export function createStaff(actor: SessionUser, staff: StaffBody): Promise<Staff
       throw error
     }
     if (isProviderRole(staff.role)) {
-      await insertProvider(trx, { userId: id, kind: staff.role, colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
+      await insertProvider(trx, { userId: id, colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
     }
     await writeAudit(trx, { userId: actor.id, action: 'staff_created', entity: 'user', entityId: id, after: { email: staff.email, role: staff.role } })
     return findStaff(trx, id)
@@ -81,11 +87,40 @@ export function changeStaff(actor: SessionUser, id: number, patch: StaffPatch): 
     if (patch.siteIds) await replaceUserSites(trx, id, patch.siteIds)
     // A new role or scope takes effect at once: the session guard reloads the user on every call.
     if (patch.active !== undefined && patch.active !== before.active) await setUserActive(trx, id, patch.active)
-    const newKind = patch.role !== undefined && isProviderRole(patch.role) ? patch.role : null
-    if (newKind && (await findProviderIdOfUser(trx, id)) === null) await insertProvider(trx, { userId: id, kind: newKind, colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
+    if (patch.role !== undefined) await followRole(trx, id, before, patch.role)
     await writeAudit(trx, { userId: actor.id, action: 'staff_changed', entity: 'user', entityId: id, before, after: patch })
     return findStaff(trx, id)
   })
+}
+
+const NAMED_VISITS = 5
+
+function describeVisits(visits: OpenVisitRow[]): string {
+  const named = visits.slice(0, NAMED_VISITS).map((visit) =>
+    `${DateTime.fromJSDate(visit.start_utc, { zone: visit.time_zone }).toFormat('ccc d LLL yyyy HH:mm')} at ${visit.site_name} (visit ${visit.id})`)
+  const more = visits.length > NAMED_VISITS ? ` and ${visits.length - NAMED_VISITS} more` : ''
+  return `${named.join(', ')}${more}`
+}
+
+/** Keeps the provider row in step with a role change (the role is the provider's kind). */
+async function followRole(trx: Db, userId: number, before: StaffAccount, role: StaffAccount['role']): Promise<void> {
+  const wasProvider = isProviderRole(before.role)
+  const willBeProvider = isProviderRole(role)
+  const providerId = await findProviderIdOfUser(trx, userId)
+  if (wasProvider && !willBeProvider && providerId !== null) {
+    const visits = await openVisitsOfProvider(trx, providerId, scheduleNowMs())
+    if (visits.length > 0) {
+      throw conflict(
+        `${before.name} still has ${visits.length} open visit${visits.length === 1 ? '' : 's'} as a provider: ${describeVisits(visits)}. `
+        + 'Give them to another provider or cancel them before changing the role.',
+        { field: 'role', visitIds: visits.map((visit) => visit.id) },
+      )
+    }
+    await updateProvider(trx, providerId, { active: false })
+  } else if (!wasProvider && willBeProvider) {
+    if (providerId === null) await insertProvider(trx, { userId, colour: DEFAULT_PROVIDER_COLOUR, capabilities: [] })
+    else await updateProvider(trx, providerId, { active: true })
+  }
 }
 
 export function resetPassword(actor: SessionUser, id: number, password: string): Promise<void> {
@@ -99,7 +134,9 @@ export function resetPassword(actor: SessionUser, id: number, password: string):
 /** An existing staff account becomes a provider. */
 export function createProvider(provider: ProviderBody): Promise<ProviderSummary> {
   return inTransaction(async (trx) => {
-    if (!(await findUserById(trx, provider.userId))) throw badRequest('userId', 'is not a staff account')
+    const user = await findUserById(trx, provider.userId)
+    if (!user) throw badRequest('userId', 'is not a staff account')
+    if (!isProviderRole(user.role)) throw badRequest('userId', 'is not a dentist or hygienist: change the role on People first')
     if ((await findProviderIdOfUser(trx, provider.userId)) !== null) throw conflict('This person is already a provider.', { field: 'userId' })
     const id = await insertProvider(trx, provider)
     return (await findProvider(trx, id))!

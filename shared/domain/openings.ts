@@ -196,8 +196,8 @@ export function formatOpening(opening: Pick<Opening, 'startMs' | 'endMs'>, zone:
   return {
     startUtc: new Date(opening.startMs).toISOString(),
     endUtc: new Date(opening.endMs).toISOString(),
-    startLocal: local(opening.startMs),
-    endLocal: local(opening.endMs),
+    startLocalIso: local(opening.startMs),
+    endLocalIso: local(opening.endMs),
     timeZone: zone,
   }
 }

@@ -84,10 +84,10 @@ export const VisitListQuerySchema = z.object({
   siteId: IdSchema.optional(),
   providerId: IdSchema.optional(),
   patientId: IdSchema.optional(),
-  from: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }).superRefine(instantInBounds),
-  to: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }).superRefine(instantInBounds),
+  fromUtc: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }).superRefine(instantInBounds),
+  toUtc: z.string({ error: 'is required' }).datetime({ offset: true, message: 'must be an ISO date-time' }).superRefine(instantInBounds),
   includeCancelled: z.enum(['true', 'false']).default('false'),
 })
   .refine((query) => query.siteId !== undefined || query.providerId !== undefined || query.patientId !== undefined, { message: 'give siteId, providerId or patientId', path: ['siteId'] })
-  .refine((query) => Date.parse(query.to) > Date.parse(query.from), { message: 'must be after from', path: ['to'] })
-  .refine((query) => Date.parse(query.to) - Date.parse(query.from) <= 43 * 86_400_000, { message: 'at most 6 weeks at once', path: ['to'] })
+  .refine((query) => Date.parse(query.toUtc) > Date.parse(query.fromUtc), { message: 'must be after fromUtc', path: ['toUtc'] })
+  .refine((query) => Date.parse(query.toUtc) - Date.parse(query.fromUtc) <= 43 * 86_400_000, { message: 'at most 6 weeks at once', path: ['toUtc'] })

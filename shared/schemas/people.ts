@@ -36,14 +36,12 @@ const categories = z.array(z.enum(TEMPLATE_CATEGORIES, { error: `must be one of 
 
 export const ProviderSchema = z.object({
   userId: IdSchema,
-  kind: z.enum(['dentist', 'hygienist'], { error: 'must be dentist or hygienist' }),
   colour: ColourSchema.default('#2563eb'),
   capabilities: categories.default([]),
 })
 export type ProviderBody = z.infer<typeof ProviderSchema>
 
 export const ProviderPatchSchema = z.object({
-  kind: z.enum(['dentist', 'hygienist'], { error: 'must be dentist or hygienist' }).optional(),
   colour: ColourSchema.optional(),
   capabilities: categories.optional(),
   active: z.boolean({ error: 'must be yes or no' }).optional(),

@@ -61,7 +61,7 @@ export interface OpeningDto {
   providerName: string
   startUtc: string
   endUtc: string
-  startLocal: string
+  startLocalIso: string
   timeZone: string
 }
 

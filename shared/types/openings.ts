@@ -118,7 +118,7 @@ export interface FormattedOpeningTimes {
   startUtc: string
   endUtc: string
   /** ISO local date-time with the site's offset, e.g. '2026-03-09T08:00:00-07:00'. */
-  startLocal: string
-  endLocal: string
+  startLocalIso: string
+  endLocalIso: string
   timeZone: string
 }

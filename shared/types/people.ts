@@ -1,5 +1,6 @@
 // Staff accounts and providers as the People screen and the API see them.
 import type { SessionUser } from './auth'
+import type { ROLE_GROUPS } from '../utils/access'
 
 /** A staff account as the People screen lists it: the signed-in user's fields plus its state. */
 export interface StaffAccount extends SessionUser {
@@ -9,12 +10,14 @@ export interface StaffAccount extends SessionUser {
   providerId: number | null
 }
 
-export type ProviderKind = 'dentist' | 'hygienist'
+/** A provider's kind is the role of its account (users.role), never stored apart. */
+export type ProviderKind = (typeof ROLE_GROUPS)['providers'][number]
 
 export interface ProviderSummary {
   id: number
   userId: number
   name: string
+  /** The account's role. */
   kind: ProviderKind
   colour: string
   /** Template categories this provider performs. */

@@ -39,8 +39,8 @@ export interface BlockDto {
 export interface DualInterval {
   startUtc: string
   endUtc: string
-  startLocal: string
-  endLocal: string
+  startLocalIso: string
+  endLocalIso: string
 }
 
 export interface AvailabilityResponse {

@@ -29,11 +29,11 @@ describe('Sites & rooms', () => {
     await page.getByTestId('site-rows').getByRole('button', { name: 'Fernhollow Aspen Gulch' }).click()
     await page.getByRole('button', { name: 'Add room' }).click()
     const name = `Test room ${randomUUID().slice(0, 4)}`
-    const form = page.getByTestId('room-form')
+    const form = page.getByTestId('operatory-form')
     await form.getByLabel('Room name').fill(name)
     await form.getByLabel('imaging').check()
     await form.getByRole('button', { name: 'Add room' }).click()
-    await expect.poll(() => page.getByTestId('room-rows').getByText(name).count()).toBe(1)
+    await expect.poll(() => page.getByTestId('operatory-rows').getByText(name).count()).toBe(1)
     const stored = await testDb()('operatories').where({ name }).first()
     expect(stored.site_id).toBe(await siteIdBySlug('aspen-gulch'))
     await screenshot(page, 'sites-aspen-rooms')

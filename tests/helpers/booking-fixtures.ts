@@ -34,7 +34,7 @@ export async function createAnnex(options: { rooms: number; providers?: number; 
   for (let index = 0; index < (options.providers ?? 1); index += 1) {
     const [userId] = await db('users').insert({ email: `test-dentist-${tag}-${index}@fernhollow.test`, name: `Dr. Annex ${tag}-${index}`, role: 'dentist', password_hash: hash })
     await db('user_sites').insert({ user_id: userId, site_id: siteId })
-    const [providerId] = await db('providers').insert({ user_id: userId, kind: 'dentist', capabilities: '["restorative","exam","surgical","preventive","prosthodontic"]' })
+    const [providerId] = await db('providers').insert({ user_id: userId, capabilities: '["restorative","exam","surgical","preventive","prosthodontic"]' })
     await db('shifts').insert({ provider_id: providerId, site_id: siteId, rrule: 'FREQ=DAILY', valid_from: '2026-01-01', local_start: '00:00', local_end: '24:00' })
     providerIds.push(providerId as number)
   }

@@ -37,7 +37,7 @@ export async function createStaff(role: 'dentist' | 'hygienist' | 'assistant' | 
   for (const siteId of siteIds) await db('user_sites').insert({ user_id: userId, site_id: siteId })
   let providerId: number | null = null
   if (options.provider) {
-    const [id] = await db('providers').insert({ user_id: userId, kind: role === 'hygienist' ? 'hygienist' : 'dentist', capabilities: '["restorative","exam","surgical","preventive","prosthodontic"]' })
+    const [id] = await db('providers').insert({ user_id: userId, capabilities: '["restorative","exam","surgical","preventive","prosthodontic"]' })
     providerId = id as number
   }
   return { email, userId: userId as number, providerId }

@@ -11,6 +11,6 @@ export async function providerIdByEmail(email: string): Promise<number> {
 export async function createTestProvider(siteSlugs: string[], name = 'Dr. Test Provider') {
   const user = await createTestUser({ role: 'dentist', siteSlugs })
   await testDb()('users').where({ id: user.id }).update({ name })
-  const [providerId] = await testDb()('providers').insert({ user_id: user.id, kind: 'dentist', colour: '#0f766e', capabilities: JSON.stringify(['restorative']) })
+  const [providerId] = await testDb()('providers').insert({ user_id: user.id, colour: '#0f766e', capabilities: JSON.stringify(['restorative']) })
   return { ...user, name, providerId: providerId as number }
 }

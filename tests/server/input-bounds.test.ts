@@ -75,7 +75,7 @@ describe('dates and windows on range routes', () => {
   })
 
   it('visit list: year 9999 instants are a 400 naming from', async () => {
-    expect400(await desk.get(`/api/appointments?siteId=${quarryId}&from=9999-12-25T00:00:00Z&to=9999-12-31T00:00:00Z`), 'from')
+    expect400(await desk.get(`/api/appointments?siteId=${quarryId}&fromUtc=9999-12-25T00:00:00Z&toUtc=9999-12-31T00:00:00Z`), 'fromUtc')
   })
 
   it('shifts, time off and blocks refuse dates outside the bounds', async () => {

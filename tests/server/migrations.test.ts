@@ -116,8 +116,9 @@ describe('demo seed', () => {
       { email: 'hygienist@fernhollow.test', role: 'hygienist' },
       { email: 'manager@fernhollow.test', role: 'manager' },
     ])
-    const providers = await db('providers').groupBy('kind').orderBy('kind').select('kind').count({ count: '*' })
-    expect(providers.map((row) => [(row as { kind: string }).kind, Number(row.count)])).toEqual([['dentist', 4], ['hygienist', 3]])
+    // A provider's kind is its account's role (migration 20261203120100).
+    const providers = await db('providers').join('users', 'users.id', 'providers.user_id').groupBy('users.role').orderBy('users.role').select('users.role').count({ count: '*' })
+    expect(providers.map((row) => [(row as { role: string }).role, Number(row.count)])).toEqual([['dentist', 4], ['hygienist', 3]])
     const patients = await db('patients').count({ count: '*' }).first()
     expect(Number(patients!.count)).toBe(300)
     const foreignEmails = await db('patients').whereNotNull('email').whereNot('email', 'like', '%@fernhollow.test')

@@ -108,7 +108,7 @@ const leaf = fc.oneof(
 
 const FIELD_NAMES = [
   'siteId', 'siteIds', 'providerId', 'patientId', 'operatoryId', 'userId', 'templateId', 'appointmentId', 'preferredSiteId',
-  'from', 'to', 'startUtc', 'validFrom', 'validUntil', 'startDate', 'endDate', 'untilDate', 'dateOfBirth', 'closedDates',
+  'from', 'to', 'fromUtc', 'toUtc', 'startUtc', 'validFrom', 'validUntil', 'startDate', 'endDate', 'untilDate', 'dateOfBirth', 'closedDates',
   'localStart', 'localEnd', 'rrule', 'timeZone', 'openingHours', 'quietHours', 'items', 'steps', 'anaesthesia', 'lengthOverride',
   'note', 'reason', 'name', 'firstName', 'lastName', 'email', 'phone', 'password', 'q', 'code', 'slug', 'address', 'whatToBring',
   'rowVersion', 'state', 'role', 'kind', 'category', 'capability', 'capabilities', 'colour', 'limit', 'sortOrder', 'chairMinutes',
@@ -149,7 +149,7 @@ const NEAR_VALID: Array<Record<string, unknown>> = [
   { name: 'Annex', timeZone: 'America/Denver', openingHours: WEEK, closedDates: [daysFromToday(40)], bookingUnitMinutes: 5 },
   { email: 'new.person@fernhollow.test', name: 'New Person', role: 'front_desk', siteIds: [1], password: 'a-long-test-password' },
   { siteId: 1, name: 'Room 9', capabilities: ['restorative'], sortOrder: 9 },
-  { userId: 1, kind: 'dentist', colour: '#2563eb', capabilities: ['restorative'] },
+  { userId: 1, colour: '#2563eb', capabilities: ['restorative'] },
   { reason: 'Patient asked', rowVersion: 1 }, { state: 'confirmed', rowVersion: 1 }, { password: 'another-long-password' },
 ]
 const nearValidBody = fc.tuple(fc.constantFrom(...NEAR_VALID), fieldName, fc.oneof(leaf, leaf, jsonValue))
@@ -177,7 +177,7 @@ function toJson(value: unknown): string {
   return JSON.stringify(value).replaceAll(JSON.stringify(BIG), '9007199254740993')
 }
 
-const QUERY_KEYS = ['siteId', 'providerId', 'patientId', 'appointmentId', 'from', 'to', 'q', 'limit', 'state', 'token',
+const QUERY_KEYS = ['siteId', 'providerId', 'patientId', 'appointmentId', 'from', 'to', 'fromUtc', 'toUtc', 'q', 'limit', 'state', 'token',
   'includeInactive', 'includeCancelled', 'quietBelow', 'tightFrom', '__proto__', 'constructor', 'siteId[]', 'from[x]'] as const
 const queryValue = fc.oneof(
   { weight: 6, arbitrary: anyString.map(percentEncode) },

@@ -24,7 +24,7 @@ describe('POST /api/openings', () => {
       expect(opening.timeZone).toBe('America/Los_Angeles')
       const local = DateTime.fromISO(opening.startUtc, { zone: 'America/Los_Angeles' })
       expect(local.minute % 5).toBe(0)
-      expect(opening.startLocal).toBe(local.toISO({ suppressMilliseconds: true }))
+      expect(opening.startLocalIso).toBe(local.toISO({ suppressMilliseconds: true }))
     }
     const starts = response.body.openings.map((opening: { startUtc: string }) => opening.startUtc)
     expect([...starts].sort()).toEqual(starts)

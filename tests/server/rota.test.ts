@@ -188,10 +188,10 @@ describe('availability', () => {
     const mine = response.body.providers.find((p: { providerId: number }) => p.providerId === dentist)
     // 07:30–16:30 with the site's lunch block 12:00–12:45 taken out.
     expect(mine.intervals).toEqual([
-      { startUtc: '2026-02-02T15:30:00.000Z', endUtc: '2026-02-02T20:00:00.000Z', startLocal: '2026-02-02T07:30:00-08:00', endLocal: '2026-02-02T12:00:00-08:00' },
-      { startUtc: '2026-02-02T20:45:00.000Z', endUtc: '2026-02-03T00:30:00.000Z', startLocal: '2026-02-02T12:45:00-08:00', endLocal: '2026-02-02T16:30:00-08:00' },
+      { startUtc: '2026-02-02T15:30:00.000Z', endUtc: '2026-02-02T20:00:00.000Z', startLocalIso: '2026-02-02T07:30:00-08:00', endLocalIso: '2026-02-02T12:00:00-08:00' },
+      { startUtc: '2026-02-02T20:45:00.000Z', endUtc: '2026-02-03T00:30:00.000Z', startLocalIso: '2026-02-02T12:45:00-08:00', endLocalIso: '2026-02-02T16:30:00-08:00' },
     ])
-    expect(response.body.blocks).toContainEqual(expect.objectContaining({ reason: 'Lunch', startLocal: '2026-02-02T12:00:00-08:00', endUtc: '2026-02-02T20:45:00.000Z' }))
+    expect(response.body.blocks).toContainEqual(expect.objectContaining({ reason: 'Lunch', startLocalIso: '2026-02-02T12:00:00-08:00', endUtc: '2026-02-02T20:45:00.000Z' }))
     expect(response.body.operatories).toHaveLength(5)
   })
 
@@ -199,7 +199,7 @@ describe('availability', () => {
     const dentist = await providerIdByEmail('dentist@fernhollow.test')
     const response = await deskQuarry.get(`/api/availability?siteId=${quarry}&from=2026-06-01T00:00:00-07:00&to=2026-06-02T00:00:00-07:00`)
     const mine = response.body.providers.find((p: { providerId: number }) => p.providerId === dentist)
-    expect(mine.intervals[0]).toEqual({ startUtc: '2026-06-01T14:30:00.000Z', endUtc: '2026-06-01T19:00:00.000Z', startLocal: '2026-06-01T07:30:00-07:00', endLocal: '2026-06-01T12:00:00-07:00' })
+    expect(mine.intervals[0]).toEqual({ startUtc: '2026-06-01T14:30:00.000Z', endUtc: '2026-06-01T19:00:00.000Z', startLocalIso: '2026-06-01T07:30:00-07:00', endLocalIso: '2026-06-01T12:00:00-07:00' })
   })
 
   it.each([
@@ -220,7 +220,7 @@ describe('availability', () => {
     expect(off.status).toBe(201)
     const response = await manager.get(`/api/availability?siteId=${aspen}&from=2026-04-06&to=2026-04-07`)
     const mine = response.body.providers.find((p: { providerId: number }) => p.providerId === provider.providerId)
-    expect(new Set(mine.intervals.map((i: { startLocal: string }) => i.startLocal.slice(0, 10)))).toEqual(new Set(['2026-04-06']))
+    expect(new Set(mine.intervals.map((i: { startLocalIso: string }) => i.startLocalIso.slice(0, 10)))).toEqual(new Set(['2026-04-06']))
   })
 })
 
@@ -254,7 +254,7 @@ describe('exceptions and blocks', () => {
     const availability = await manager.get(`/api/availability?siteId=${aspen}&from=2026-04-01&to=2026-04-01`)
     const chair = availability.body.operatories.find((o: { operatoryId: number }) => o.operatoryId === room.id)
     // Aspen Gulch opens 08:00; the block holds this chair until 09:00 (MDT, UTC−06:00).
-    expect(chair.intervals[0].startLocal).toBe('2026-04-01T09:00:00-06:00')
+    expect(chair.intervals[0].startLocalIso).toBe('2026-04-01T09:00:00-06:00')
 
     const noReason = await manager.post('/api/blocks', { ...body, reason: ' ' })
     expect(noReason.body.data).toMatchObject({ field: 'reason', reason: 'is required' })

@@ -21,7 +21,7 @@ async function listedProcedures(notation: 'universal' | 'iso'): Promise<string[]
   expect(booked.status).toBe(201)
   const from = encodeURIComponent(utcAt(`${date}T00:00`, annex.timeZone))
   const to = encodeURIComponent(utcAt(`${date}T23:59`, annex.timeZone))
-  const listed = await admin.get(`/api/appointments?siteId=${annex.siteId}&from=${from}&to=${to}`)
+  const listed = await admin.get(`/api/appointments?siteId=${annex.siteId}&fromUtc=${from}&toUtc=${to}`)
   expect(listed.status).toBe(200)
   return listed.body.find((visit: { id: number }) => visit.id === booked.body.id).procedures
 }

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event): Promise<BoardVisitDto[] | null>
   const user = requireRole(event, STAFF_ROLES)
   const query = await getValidatedQuery(event, validateWith(VisitListQuerySchema))
   const visits = await visitsFor({
-    siteId: query.siteId, providerId: query.providerId, patientId: query.patientId, fromMs: Date.parse(query.from), toMs: Date.parse(query.to),
+    siteId: query.siteId, providerId: query.providerId, patientId: query.patientId, fromMs: Date.parse(query.fromUtc), toMs: Date.parse(query.toUtc),
     includeCancelled: query.includeCancelled === 'true',
   }, user)
   const etag = `"${createHash('sha1').update(JSON.stringify(visits)).digest('base64url')}"`

@@ -15,12 +15,12 @@ const SEGMENTS = [
 describe('local days', () => {
   it('turns a Los Angeles date into its UTC range, across the spring-forward night (23 hours)', () => {
     // 2027-03-14 is the second Sunday of March: US daylight saving starts (Energy Policy Act of 2005).
-    expect(localDayRange('2027-03-14', 'America/Los_Angeles')).toEqual({ from: '2027-03-14T08:00:00.000Z', to: '2027-03-15T07:00:00.000Z' })
+    expect(localDayRange('2027-03-14', 'America/Los_Angeles')).toEqual({ fromUtc: '2027-03-14T08:00:00.000Z', toUtc: '2027-03-15T07:00:00.000Z' })
     expect(minutesIntoDay('2027-03-15T17:00:00Z', 'America/Los_Angeles', '2027-03-15')).toBe(10 * 60)
   })
 
   it('asks wide enough to cover the same local dates in every zone', () => {
-    expect(anyZoneRange('2027-03-15', '2027-03-21')).toEqual({ from: '2027-03-14T00:00:00.000Z', to: '2027-03-23T00:00:00.000Z' })
+    expect(anyZoneRange('2027-03-15', '2027-03-21')).toEqual({ fromUtc: '2027-03-14T00:00:00.000Z', toUtc: '2027-03-23T00:00:00.000Z' })
   })
 
   it('places a visit on its site-local date, never the browser’s', () => {

@@ -209,8 +209,8 @@ describe('findOpenings: time rules', () => {
     expect(formatOpening(result.openings[0]!, DENVER)).toEqual({
       startUtc: '2026-01-12T15:10:00.000Z',
       endUtc: '2026-01-12T16:20:00.000Z',
-      startLocal: '2026-01-12T08:10:00-07:00',
-      endLocal: '2026-01-12T09:20:00-07:00',
+      startLocalIso: '2026-01-12T08:10:00-07:00',
+      endLocalIso: '2026-01-12T09:20:00-07:00',
       timeZone: DENVER,
     })
   })
@@ -341,7 +341,7 @@ describe('findOpenings: daylight-saving days in Los Angeles', () => {
 
   function nightOpenings(date: string): string[] {
     const result = findOpenings(query({ plan: half, sites: [nightSite(date)], fromMs: Date.parse(`${date}T00:00:00Z`), toMs: Date.parse(`${date}T23:00:00Z`), limit: 1000 }))
-    return result.openings.map((o) => formatOpening(o, LOS_ANGELES).startLocal)
+    return result.openings.map((o) => formatOpening(o, LOS_ANGELES).startLocalIso)
   }
 
   it('never offers a local time that does not exist on 8 March 2026', () => {
