@@ -1,7 +1,7 @@
 // Visits of one site day, kept fresh by polling with ETags (a 304 costs almost nothing), so other
 // people's bookings appear within a few seconds without reloading.
 import type { BoardVisitDto } from '#shared/types/appointments'
-import { siteDayRange } from '#shared/utils/board-columns'
+import { localDayRange } from '#shared/utils/local-date'
 
 const POLL_MS = 2_500
 
@@ -16,11 +16,11 @@ export function useBoardVisits(siteId: Ref<number | null>, date: Ref<string>, zo
   async function load(force = false): Promise<void> {
     if (siteId.value === null) return
     const key = currentKey()
-    const { fromUtc, toUtc } = siteDayRange(date.value, zone.value)
+    const { from, to } = localDayRange(date.value, zone.value)
     loading.value = visits.value.length === 0
     try {
       const response = await $fetch.raw<BoardVisitDto[]>('/api/appointments', {
-        query: { siteId: siteId.value, from: fromUtc, to: toUtc },
+        query: { siteId: siteId.value, from, to },
         headers: force || !etag ? {} : { 'if-none-match': etag },
         ignoreResponseError: true,
       })

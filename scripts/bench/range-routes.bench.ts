@@ -12,6 +12,7 @@ import { migratorConfig } from '../../db/migration-source'
 import { seedDemo } from '../../seeds/index'
 import { DATE_BOUNDS, latestAllowedDate, MAX_WINDOW_DAYS } from '../../shared/domain/input-bounds'
 import { BALANCE_MAX_DAYS } from '../../shared/schemas/balance'
+import { addDays } from '../../shared/utils/local-date'
 
 const DATABASE = 'cuspline_bench_ranges'
 const ROUNDS = 20
@@ -31,10 +32,6 @@ function percentile(values: number[], share: number): number {
 function cpuSeconds(pid: number): number {
   const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
   return (Number(fields[11]) + Number(fields[12])) / 100
-}
-
-function addDays(date: string, days: number): string {
-  return new Date(Date.parse(`${date}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10)
 }
 
 async function freshDatabase(): Promise<Knex> {

@@ -3,7 +3,7 @@ import type { Db } from '../utils/db'
 import type { BlockBody } from '#shared/schemas/rota'
 import type { BlockInput } from '#shared/types/rota'
 import type { BlockDto } from '#shared/types/rota-api'
-import { describeRule } from '#shared/domain/recurrence'
+import { describeRule } from '#shared/domain/recurrence/describe'
 import { dateColumn, nullableDateColumn } from './local-dates'
 
 interface BlockRow {

@@ -3,7 +3,7 @@ import type { Db } from '../utils/db'
 import type { ShiftBody } from '#shared/schemas/rota'
 import type { ShiftInput } from '#shared/types/rota'
 import type { ShiftDto } from '#shared/types/rota-api'
-import { describeRule } from '#shared/domain/recurrence'
+import { describeRule } from '#shared/domain/recurrence/describe'
 import { dateColumn, nullableDateColumn } from './local-dates'
 
 interface ShiftRow {

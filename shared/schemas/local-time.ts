@@ -2,7 +2,7 @@
 // rota, site and block schema so that each 400 reads the same way.
 import { z } from 'zod'
 import { IANAZone } from 'luxon'
-import { validateRule } from '../domain/recurrence'
+import { validateRule } from '../domain/recurrence/rules'
 import { dateInBounds } from './common'
 
 const TIME_PATTERN = /^([01]\d|2[0-3]):[0-5]\d$/
