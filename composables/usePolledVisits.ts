@@ -5,7 +5,7 @@
 // (My day, while a state change it shows ahead of the server is on its way).
 import type { BoardVisitDto } from '#shared/types/appointments'
 import type { VisitScope } from './useVisitList'
-import type { UtcRange } from './useVisitTimes'
+import type { UtcRange } from '#shared/utils/local-date'
 
 export const VISIT_POLL_MS = 2_500
 

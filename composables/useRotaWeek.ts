@@ -1,20 +1,10 @@
-// The Rota grid's week: which Monday, and the entries of one site or one provider for it.
-import { DateTime } from 'luxon'
+// The Rota grid's week: the entries of one site or one provider for the week starting `weekStart`.
 import type { RotaView } from '#shared/types/rota-api'
-import { addDays, isoWeekdayOf } from '#shared/domain/recurrence'
+import { addDays } from '#shared/utils/local-date'
 
 export interface RotaScope {
   siteId?: number
   providerId?: number
-}
-
-export function mondayOf(date: string): string {
-  return addDays(date, 1 - isoWeekdayOf(date))
-}
-
-/** Today on the site's wall clock (never the browser's own zone). */
-export function todayIn(zone: string): string {
-  return DateTime.now().setZone(zone).toISODate() ?? DateTime.utc().toISODate()!
 }
 
 export function useRotaWeek(scope: Ref<RotaScope | null>, weekStart: Ref<string>) {

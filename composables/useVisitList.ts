@@ -2,7 +2,7 @@
 // range. The key follows the scope, so a scope that is only known later (the signed-in provider)
 // still fetches; a null scope is an empty list.
 import type { BoardVisitDto } from '#shared/types/appointments'
-import type { UtcRange } from './useVisitTimes'
+import type { UtcRange } from '#shared/utils/local-date'
 
 export interface VisitScope {
   siteId?: number

@@ -21,9 +21,12 @@ export function createDb(settings: DbSettings): Knex {
       user: settings.user,
       password: settings.password,
       database: settings.database,
-      // DATETIME columns hold UTC; mysql2 must neither add nor remove the machine's offset.
+      // DATETIME columns hold UTC instants; mysql2 must neither add nor remove the machine's offset.
       timezone: 'Z',
-      dateStrings: false,
+      // DATE columns hold site-local calendar dates: they come back as 'YYYY-MM-DD' as stored, never
+      // as a Date (which would be an instant). DATETIME and TIMESTAMP still come back as Dates.
+      // mysql2 takes a list of types here (its ConnectionOptions); knex's own typing says boolean.
+      dateStrings: ['DATE'] as unknown as boolean,
       supportBigNumbers: true,
       charset: 'utf8mb4',
     },

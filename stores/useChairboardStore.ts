@@ -1,7 +1,7 @@
 // The Chairboard's shared state: which day is shown, which visit is selected, and the booking
 // drawer (open, and the slot it was opened from).
 import { defineStore } from 'pinia'
-import { shiftDate, todayAt } from '#shared/utils/board-columns'
+import { addDays, todayIn } from '#shared/utils/local-date'
 
 export interface DrawerSlot {
   operatoryId: number | null
@@ -11,14 +11,14 @@ export interface DrawerSlot {
 export const useChairboardStore = defineStore('chairboard', () => {
   const session = useSessionStore()
   const zone = computed(() => session.selectedSite?.timeZone ?? 'UTC')
-  const date = ref<string>(todayAt(zone.value))
+  const date = ref<string>(todayIn(zone.value))
   const selectedVisitId = ref<number | null>(null)
   const drawerOpen = ref(false)
   const drawerSlot = ref<DrawerSlot>({ operatoryId: null, startUtc: null })
   const notice = ref<{ kind: 'error' | 'info'; text: string } | null>(null)
 
-  function goToday() { date.value = todayAt(zone.value) }
-  function step(days: number) { date.value = shiftDate(date.value, days) }
+  function goToday() { date.value = todayIn(zone.value) }
+  function step(days: number) { date.value = addDays(date.value, days) }
   function openDrawer(slot: DrawerSlot) {
     drawerSlot.value = slot
     drawerOpen.value = true

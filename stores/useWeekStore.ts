@@ -1,8 +1,7 @@
 // Which week, provider and chair the week views show; kept while moving between the provider
 // week and the operatory week.
 import { defineStore } from 'pinia'
-import { addDays } from '#shared/domain/recurrence'
-import { mondayOf } from '~/composables/useRotaWeek'
+import { addDays, mondayOf } from '#shared/utils/local-date'
 
 export const useWeekStore = defineStore('week', () => {
   /** Monday of the week shown, a local date. Null until a page sets it from its site's today. */

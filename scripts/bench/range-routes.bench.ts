@@ -10,6 +10,7 @@ import { dbSettingsFromEnv } from '../../db/connection'
 import { cpuSeconds, freshBenchDatabase, percentile } from '../lib/bench'
 import { DATE_BOUNDS, latestAllowedDate, MAX_WINDOW_DAYS } from '../../shared/domain/input-bounds'
 import { BALANCE_MAX_DAYS } from '../../shared/schemas/balance'
+import { addDays } from '../../shared/utils/local-date'
 
 const DATABASE = 'cuspline_bench_ranges'
 const ROUNDS = 20
@@ -20,9 +21,6 @@ const HOME_DATABASE = dbSettingsFromEnv().database // an existing database to co
 process.env.NUXT_DB_DATABASE = DATABASE
 const { startAppServer } = await import('../lib/app-server')
 
-function addDays(date: string, days: number): string {
-  return new Date(Date.parse(`${date}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10)
-}
 
 /** The heaviest rota a caller could have stored: daily shifts and blocks since the earliest allowed date. */
 async function heavyRota(db: Knex): Promise<void> {

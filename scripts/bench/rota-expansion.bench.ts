@@ -3,7 +3,7 @@
 // No assertions; figures only. The window crosses the 8 March 2026 DST change.
 
 import { performance } from 'node:perf_hooks'
-import { buildMonthlyNthWeekdayRule, buildWeeklyRule } from '../../shared/domain/recurrence'
+import { buildMonthlyNthWeekdayRule, buildWeeklyRule } from '../../shared/domain/recurrence/build'
 import { expandAvailabilityMs, findFirstShiftClash } from '../../shared/domain/rota'
 import type {
   BlockInput,

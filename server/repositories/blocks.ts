@@ -3,19 +3,18 @@ import type { Db } from '../utils/db'
 import type { BlockBody } from '#shared/schemas/rota'
 import type { BlockInput } from '#shared/types/rota'
 import type { BlockDto } from '#shared/types/rota-api'
-import { describeRule } from '#shared/domain/recurrence'
-import { dateColumn, nullableDateColumn } from './local-dates'
+import { describeRule } from '#shared/domain/recurrence/describe'
 
 interface BlockRow {
   id: number
   site_id: number
   operatory_id: number | null
   provider_id: number | null
-  start_date: Date | string
+  start_date: string
   local_start: string
   local_end: string
   rrule: string | null
-  until_date: Date | string | null
+  until_date: string | null
   reason: string
 }
 
@@ -25,12 +24,12 @@ function toDto(row: BlockRow): BlockDto {
     siteId: row.site_id,
     operatoryId: row.operatory_id,
     providerId: row.provider_id,
-    startDate: dateColumn(row.start_date),
+    startDate: row.start_date,
     localStart: row.local_start,
     localEnd: row.local_end,
     rrule: row.rrule,
     ruleText: row.rrule === null ? null : describeRule(row.rrule),
-    untilDate: nullableDateColumn(row.until_date),
+    untilDate: row.until_date,
     reason: row.reason,
   }
 }

@@ -6,7 +6,8 @@ export interface PatientRow {
   id: number
   first_name: string
   last_name: string
-  date_of_birth: Date | string
+  /** DATE: 'YYYY-MM-DD' (db/connection.ts) */
+  date_of_birth: string
   email: string | null
   phone: string | null
   preferred_site_id: number | null
@@ -18,13 +19,9 @@ function escapeLike(text: string): string {
   return text.replace(/[\\%_]/g, '\\$&')
 }
 
-function isoDate(value: Date | string): string {
-  return typeof value === 'string' ? value.slice(0, 10) : value.toISOString().slice(0, 10)
-}
-
 export function toPatientDto(row: PatientRow): PatientDto {
   return {
-    id: row.id, firstName: row.first_name, lastName: row.last_name, dateOfBirth: isoDate(row.date_of_birth),
+    id: row.id, firstName: row.first_name, lastName: row.last_name, dateOfBirth: row.date_of_birth,
     email: row.email, phone: row.phone, preferredSiteId: row.preferred_site_id, emailConsent: Boolean(row.email_consent),
   }
 }

@@ -3,15 +3,14 @@ import type { Db } from '../utils/db'
 import type { ShiftExceptionBody } from '#shared/schemas/rota'
 import type { ShiftExceptionInput, ShiftExceptionKind } from '#shared/types/rota'
 import type { ShiftExceptionDto } from '#shared/types/rota-api'
-import { dateColumn } from './local-dates'
 
 interface ExceptionRow {
   id: number
   provider_id: number
   site_id: number | null
   kind: ShiftExceptionKind
-  start_date: Date | string
-  end_date: Date | string
+  start_date: string
+  end_date: string
   local_start: string | null
   local_end: string | null
   reason: string
@@ -23,8 +22,8 @@ function toDto(row: ExceptionRow): ShiftExceptionDto {
     providerId: row.provider_id,
     kind: row.kind,
     siteId: row.site_id,
-    startDate: dateColumn(row.start_date),
-    endDate: dateColumn(row.end_date),
+    startDate: row.start_date,
+    endDate: row.end_date,
     localStart: row.local_start,
     localEnd: row.local_end,
     reason: row.reason,

@@ -3,16 +3,15 @@ import type { Db } from '../utils/db'
 import type { ShiftBody } from '#shared/schemas/rota'
 import type { ShiftInput } from '#shared/types/rota'
 import type { ShiftDto } from '#shared/types/rota-api'
-import { describeRule } from '#shared/domain/recurrence'
-import { dateColumn, nullableDateColumn } from './local-dates'
+import { describeRule } from '#shared/domain/recurrence/describe'
 
 interface ShiftRow {
   id: number
   provider_id: number
   site_id: number
   rrule: string
-  valid_from: Date | string
-  valid_until: Date | string | null
+  valid_from: string
+  valid_until: string | null
   local_start: string
   local_end: string
   note: string
@@ -25,8 +24,8 @@ function toDto(row: ShiftRow): ShiftDto {
     siteId: row.site_id,
     rrule: row.rrule,
     ruleText: describeRule(row.rrule),
-    validFrom: dateColumn(row.valid_from),
-    validUntil: nullableDateColumn(row.valid_until),
+    validFrom: row.valid_from,
+    validUntil: row.valid_until,
     localStart: row.local_start,
     localEnd: row.local_end,
     note: row.note,

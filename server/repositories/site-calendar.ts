@@ -12,12 +12,6 @@ export type SiteCalendarInputs = Omit<ExpandAvailabilityInput, 'fromUtc' | 'toUt
   operatoryDetails: Array<{ id: number; name: string; capabilities: string[]; active: boolean }>
 }
 
-/** DATE columns come back as Date at UTC midnight (timezone 'Z'); the rota speaks 'YYYY-MM-DD'. */
-function localDateOf(value: Date | string | null): string | null {
-  if (value === null) return null
-  return typeof value === 'string' ? value.slice(0, 10) : value.toISOString().slice(0, 10)
-}
-
 type SiteRow = Record<string, unknown> & { id: number; time_zone: string; opening_hours: unknown; closed_dates: unknown; settings: unknown; booking_unit_minutes: number; calendar_version: number }
 type CalendarTables = Pick<SiteCalendarInputs, 'operatories' | 'operatoryDetails' | 'shifts' | 'exceptions' | 'blocks'>
 
@@ -39,15 +33,15 @@ async function loadCalendarTables(db: Db, siteId: number): Promise<CalendarTable
     operatoryDetails: operatories.map((row) => ({ id: row.id, name: row.name, capabilities: parseJson<string[]>(row.capabilities, []), active: Boolean(row.active) })),
     shifts: shifts.map((row) => ({
       id: row.id, providerId: row.provider_id, siteId: row.site_id, rrule: row.rrule,
-      startDate: localDateOf(row.valid_from)!, untilDate: localDateOf(row.valid_until), localStart: row.local_start, localEnd: row.local_end,
+      startDate: row.valid_from, untilDate: row.valid_until, localStart: row.local_start, localEnd: row.local_end,
     })),
     exceptions: exceptions.map((row) => ({
       id: row.id, providerId: row.provider_id, kind: row.kind, siteId: row.site_id,
-      startDate: localDateOf(row.start_date)!, endDate: localDateOf(row.end_date)!, localStart: row.local_start, localEnd: row.local_end, reason: row.reason,
+      startDate: row.start_date, endDate: row.end_date, localStart: row.local_start, localEnd: row.local_end, reason: row.reason,
     })),
     blocks: blocks.map((row) => ({
-      id: row.id, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id, date: localDateOf(row.start_date)!,
-      localStart: row.local_start, localEnd: row.local_end, rrule: row.rrule, untilDate: localDateOf(row.until_date), reason: row.reason,
+      id: row.id, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id, date: row.start_date,
+      localStart: row.local_start, localEnd: row.local_end, rrule: row.rrule, untilDate: row.until_date, reason: row.reason,
     })),
   }
 }

@@ -5,7 +5,7 @@
 // local time, never the other way round: local times that do not exist (spring forward) are then
 // never produced, and the hour that happens twice (fall back) is offered twice, once per offset.
 import type { PartOfDay } from '../types/openings'
-import { DAY_MS, offsetMinutesAt } from './recurrence'
+import { DAY_MS, firstOffsetChange, offsetMinutesAt } from '../utils/local-date'
 
 const MINUTE_MS = 60_000
 const NOON_MINUTE = 12 * 60
@@ -18,19 +18,6 @@ function positiveModulo(value: number, divisor: number): number {
 function alignUp(t: number, offsetMinutes: number, unitMs: number): number {
   const remainder = positiveModulo(t + offsetMinutes * MINUTE_MS, unitMs)
   return remainder === 0 ? t : t + (unitMs - remainder)
-}
-
-/** The first instant in (loMs, hiMs] whose offset differs from the offset at loMs (hiMs's does). */
-function firstOffsetChange(zone: string, loMs: number, hiMs: number): number {
-  const before = offsetMinutesAt(zone, loMs)
-  let lo = loMs
-  let hi = hiMs
-  while (hi - lo > 1) {
-    const mid = Math.floor((lo + hi) / 2)
-    if (offsetMinutesAt(zone, mid) === before) lo = mid
-    else hi = mid
-  }
-  return hi
 }
 
 /**

@@ -5,7 +5,8 @@
 import type { RotaEntry } from '../types/rota-api'
 import type { BlockInput, LocalDate, ShiftExceptionInput, ShiftInput, SiteCalendar } from '../types/rota'
 import { toUtcInterval } from './intervals'
-import { eachLocalDate, isoWeekdayOf, occurrenceDates, wallMidnightMs, wallToUtcMs, DAY_MS } from './recurrence'
+import { eachLocalDate, isoWeekdayOf, wallMidnightMs, wallToUtcMs, DAY_MS } from '../utils/local-date'
+import { occurrenceDates } from './recurrence/occurrences'
 import { localRangeToEpoch } from './rota'
 
 export interface RotaWeekInput {

@@ -40,10 +40,10 @@ import {
   isoWeekdayOf,
   localDateAt,
   minutesOfDay,
-  occurrenceDates,
   wallMidnightMs,
   wallToUtcMs,
-} from './recurrence'
+} from '../utils/local-date'
+import { occurrenceDates } from './recurrence/occurrences'
 
 const MINUTE_MS = 60_000
 

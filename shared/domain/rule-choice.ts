@@ -1,7 +1,8 @@
 // The Rota form's plain choices ("every Monday and Wednesday", "every other Friday", "the first
 // Monday of each month") turned into an RRULE and back, so nobody has to type one.
 import type { IsoWeekday } from '../types/rota'
-import { buildMonthlyNthWeekdayRule, buildWeeklyRule, validateRule } from './recurrence'
+import { buildMonthlyNthWeekdayRule, buildWeeklyRule } from './recurrence/build'
+import { validateRule } from './recurrence/rules'
 
 export type RuleChoice =
   | { mode: 'weekly'; weekdays: IsoWeekday[]; interval: number }

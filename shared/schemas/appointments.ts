@@ -3,6 +3,7 @@ import { ChairTimeItemSchema } from './templates'
 import { VISIT_STATES } from '../domain/visit-states'
 import { inclusiveDays, MAX_ID, MAX_WINDOW_DAYS } from '../domain/input-bounds'
 import { dateInBounds, IdSchema, instantInBounds, plainText } from './common'
+import { calendarDate } from './local-time'
 
 const id = (what: string) => z.number({ error: `must be a ${what} id` }).int(`must be a ${what} id`).positive(`must be a ${what} id`).max(MAX_ID, `must be a ${what} id`)
 const rowVersion = z.number({ error: 'must be the version you last saw' }).int('must be a whole number').positive('must be positive').max(MAX_ID, `must be at most ${MAX_ID}`)
@@ -54,7 +55,7 @@ export const PatientSearchSchema = z.object({
 export const NewPatientSchema = z.object({
   firstName: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long')),
   lastName: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long')),
-  dateOfBirth: z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 1980-04-30')
+  dateOfBirth: calendarDate('must be a date such as 1980-04-30')
     .refine((date) => date >= '1900-01-01', 'must be 1900-01-01 or later'),
   email: plainText(z.string({ error: 'must be text' }).trim().toLowerCase().max(254, 'is too long').email('is not an e-mail address')).nullable().optional(),
   phone: z.string().trim().regex(/^[0-9+()\-. ]{7,25}$/, 'is not a phone number').nullable().optional(),
@@ -63,7 +64,7 @@ export const NewPatientSchema = z.object({
 }).refine((patient) => !patient.emailConsent || Boolean(patient.email), { message: 'needs an e-mail address', path: ['emailConsent'] })
 export type NewPatientInput = z.infer<typeof NewPatientSchema>
 
-const localDate = z.string({ error: 'is required' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 2027-01-11').superRefine(dateInBounds)
+const localDate = calendarDate('must be a date such as 2027-01-11').superRefine(dateInBounds)
 
 export const OpeningsRequestSchema = z.object({
   items: planItems,

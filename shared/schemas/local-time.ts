@@ -2,33 +2,43 @@
 // rota, site and block schema so that each 400 reads the same way.
 import { z } from 'zod'
 import { IANAZone } from 'luxon'
-import { validateRule } from '../domain/recurrence'
+import { validateRule } from '../domain/recurrence/rules'
 import { dateInBounds } from './common'
 
-const TIME_PATTERN = /^([01]\d|2[0-3]):[0-5]\d$/
-const DATE_PATTERN = /^(\d{4})-(\d{2})-(\d{2})$/
+/** 'HH:mm', 00:00 to 23:59 (zod's ISO time without seconds). */
+const TimeOfDay = z.iso.time({ precision: -1 })
+const IsoDate = z.iso.date()
+const DATE_SHAPE = /^\d{4}-\d{2}-\d{2}$/
 
-/** A real calendar date: rejects 2026-02-30 as well as '2026-2-3'. */
-export function isCalendarDate(value: string): boolean {
-  const match = DATE_PATTERN.exec(value)
-  if (!match) return false
-  const [year, month, day] = [Number(match[1]), Number(match[2]), Number(match[3])]
-  const probe = new Date(Date.UTC(year, month - 1, day))
-  return probe.getUTCFullYear() === year && probe.getUTCMonth() === month - 1 && probe.getUTCDate() === day
+/**
+ * A real calendar date 'YYYY-MM-DD' (zod's ISO date, so 2026-02-30 is refused). Its messages say
+ * which is wrong: the shape (`shapeMessage`) or a date that does not exist.
+ */
+export function calendarDate(shapeMessage: string) {
+  return z.iso.date({
+    error: (issue) => {
+      if (issue.code === 'invalid_type') return 'is required'
+      return typeof issue.input === 'string' && DATE_SHAPE.test(issue.input) ? 'is not a real calendar date' : shapeMessage
+    },
+  })
 }
 
-export const LocalTimeSchema = z.string({ error: 'is required' }).regex(TIME_PATTERN, 'must be a time such as 07:30 (HH:mm, 24-hour)')
+/** True for a 'YYYY-MM-DD' date that exists. */
+export function isLocalDate(value: string): boolean {
+  return IsoDate.safeParse(value).success
+}
+
+export const LocalTimeSchema = z.iso.time({
+  precision: -1,
+  error: (issue) => (issue.code === 'invalid_type' ? 'is required' : 'must be a time such as 07:30 (HH:mm, 24-hour)'),
+})
 
 /** An end time may also be 24:00 (midnight at the end of the day). */
 export const LocalEndTimeSchema = z
   .string({ error: 'is required' })
-  .refine((value) => value === '24:00' || TIME_PATTERN.test(value), 'must be a time such as 16:00 (HH:mm, 24-hour)')
+  .refine((value) => value === '24:00' || TimeOfDay.safeParse(value).success, 'must be a time such as 16:00 (HH:mm, 24-hour)')
 
-export const LocalDateSchema = z
-  .string({ error: 'is required' })
-  .regex(DATE_PATTERN, 'must be a date such as 2026-03-09 (YYYY-MM-DD)')
-  .refine(isCalendarDate, 'is not a real calendar date')
-  .superRefine(dateInBounds)
+export const LocalDateSchema = calendarDate('must be a date such as 2026-03-09 (YYYY-MM-DD)').superRefine(dateInBounds)
 
 export const TimeZoneSchema = z
   .string({ error: 'is required' })

@@ -2,7 +2,7 @@
 import { z } from 'zod'
 import { IdSchema, instantInBounds, plainText } from './common'
 import { inclusiveDays, MAX_WINDOW_DAYS } from '../domain/input-bounds'
-import { dateNotBefore, endAfterStart, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, RruleSchema } from './local-time'
+import { dateNotBefore, endAfterStart, isLocalDate, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, RruleSchema } from './local-time'
 
 const note = plainText(z.string({ error: 'must be text' }).trim().max(200, 'is too long'))
 const reasonRequired = plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(200, 'is too long'))
@@ -92,7 +92,7 @@ const instantOrDate = z
   .string({ error: 'is required' })
   .trim()
   .refine(
-    (value) => (/^\d{4}-\d{2}-\d{2}$/.test(value) ? LocalDateSchema.safeParse(value).success : /^\d{4}-\d{2}-\d{2}T[\d:.]+(Z|[+-]\d{2}:\d{2})$/i.test(value) && !Number.isNaN(Date.parse(value))),
+    (value) => (isLocalDate(value) ? LocalDateSchema.safeParse(value).success : /^\d{4}-\d{2}-\d{2}T[\d:.]+(Z|[+-]\d{2}:\d{2})$/i.test(value) && !Number.isNaN(Date.parse(value))),
     'must be a date (YYYY-MM-DD) or an ISO instant with Z or an offset',
   )
   .superRefine((value, ctx) => {

@@ -19,17 +19,3 @@ export function fromColumnTime(drawn: Date, zone: string, boardDate: string): { 
   const wall = DateTime.fromISO(boardDate, { zone }).set({ hour: floating.hour, minute: floating.minute, second: 0, millisecond: 0 })
   return { columnIndex, startUtc: wall.toUTC().toISO({ suppressMilliseconds: true })! }
 }
-
-/** The UTC range of one local day at the site (23 or 25 hours on daylight-saving days). */
-export function siteDayRange(boardDate: string, zone: string): { fromUtc: string; toUtc: string } {
-  const start = DateTime.fromISO(boardDate, { zone }).startOf('day')
-  return { fromUtc: start.toUTC().toISO()!, toUtc: start.plus({ days: 1 }).toUTC().toISO()! }
-}
-
-export function todayAt(zone: string, now = DateTime.now()): string {
-  return now.setZone(zone).toISODate()!
-}
-
-export function shiftDate(date: string, days: number): string {
-  return DateTime.fromISO(date, { zone: 'utc' }).plus({ days }).toISODate()!
-}

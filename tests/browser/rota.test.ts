@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
 import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from '../helpers/browser'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { createTestProvider } from '../helpers/rota'
+import { addDays } from '../../shared/utils/local-date'
 
 let browser: BrowserSession
 let provider: Awaited<ReturnType<typeof createTestProvider>>
@@ -70,7 +71,7 @@ describe('Rota', () => {
     const stored = await testDb()('shifts').where({ provider_id: provider.providerId }).first()
     const saguaro = await siteIdBySlug('saguaro-flats')
     await testDb()('shifts').insert({ provider_id: provider.providerId, site_id: saguaro, rrule: 'FREQ=WEEKLY;BYDAY=TU', valid_from: '2026-01-06', valid_until: null, local_start: '07:00', local_end: '12:00' })
-    const firstTuesday = new Date(stored.valid_from.getTime() + 86_400_000).toISOString().slice(0, 10)
+    const firstTuesday = addDays(stored.valid_from, 1)
     await form.getByLabel('Starts at').fill('08:00')
     await form.getByRole('button', { name: 'Save changes' }).click()
     await expect.poll(() => form.getByTestId('form-problem').textContent())

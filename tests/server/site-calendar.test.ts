@@ -84,6 +84,18 @@ describe('database sessions', () => {
     await second.destroy()
   })
 
+  it('read DATE columns as the stored calendar date and DATETIME columns as UTC instants', async () => {
+    await second.transaction(async (trx) => {
+      // A session zone far from UTC: neither kind of column may move with it.
+      await trx.raw("SET time_zone = '+09:00'")
+      const [rows] = await trx.raw("SELECT CAST('2026-03-08' AS DATE) AS day, CAST('2026-03-08 02:30:00' AS DATETIME) AS instant")
+      expect(rows[0].day).toBe('2026-03-08')
+      expect(rows[0].instant).toEqual(new Date('2026-03-08T02:30:00Z'))
+    })
+    const shift = await testDb()('shifts').first('valid_from')
+    expect(shift.valid_from).toMatch(/^\d{4}-\d{2}-\d{2}$/)
+  })
+
   it('run transactions at READ COMMITTED by default (the booking transaction relies on it)', async () => {
     await second.transaction(async (trx) => {
       const [rows] = await trx.raw('SELECT @@tx_isolation AS level')

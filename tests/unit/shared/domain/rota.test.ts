@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { buildWeeklyRule } from '../../../../shared/domain/recurrence'
+import { buildWeeklyRule } from '../../../../shared/domain/recurrence/build'
 import { expandAvailability, expandAvailabilityMs, findFirstShiftClash } from '../../../../shared/domain/rota'
 import type {
   BlockInput,

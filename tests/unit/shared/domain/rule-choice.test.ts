@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { describeRule, occurrenceDates } from '../../../../shared/domain/recurrence'
+import { describeRule } from '../../../../shared/domain/recurrence/describe'
+import { occurrenceDates } from '../../../../shared/domain/recurrence/occurrences'
 import { choiceFromRule, ruleFromChoice } from '../../../../shared/domain/rule-choice'
 import { rotaEntries } from '../../../../shared/domain/rota-week'
 

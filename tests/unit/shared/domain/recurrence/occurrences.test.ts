@@ -1,25 +1,10 @@
 import fc from 'fast-check'
 import ICAL from 'ical.js'
 import { describe, expect, it } from 'vitest'
-import {
-  addDays,
-  buildMonthlyNthWeekdayRule,
-  buildWeeklyRule,
-  describeRule,
-  eachLocalDate,
-  isoWeekdayOf,
-  localDateAt,
-  localToUtc,
-  occurrenceDates,
-  occurrenceDatesViaRRule,
-  offsetMinutesAt,
-  validateRule,
-} from '../../../../shared/domain/recurrence'
+import { occurrenceDates, occurrenceDatesViaRRule } from '../../../../../shared/domain/recurrence/occurrences'
+import { addDays, localDateAt, localToUtc } from '../../../../../shared/utils/local-date'
 
 const NEW_YORK = 'America/New_York'
-const LOS_ANGELES = 'America/Los_Angeles'
-const DENVER = 'America/Denver'
-const PHOENIX = 'America/Phoenix'
 
 /** 09:00 in New York as UTC: EDT (−04:00) → 13:00Z, EST (−05:00) → 14:00Z. */
 const edt = (date: string): string => `${date}T13:00:00.000Z`
@@ -248,139 +233,5 @@ describe('occurrenceDates window and bounds', () => {
       }),
       { numRuns: 300 },
     )
-  })
-})
-
-describe('localToUtc across 2026 DST (IANA tz database; 15 U.S.C. §260a)', () => {
-  it('converts ordinary times with the offset of the day', () => {
-    expect(localToUtc('2026-03-06', '08:00', LOS_ANGELES)).toBe('2026-03-06T16:00:00.000Z') // PST −08:00
-    expect(localToUtc('2026-03-09', '08:00', LOS_ANGELES)).toBe('2026-03-09T15:00:00.000Z') // PDT −07:00
-    expect(localToUtc('2026-11-02', '08:00', LOS_ANGELES)).toBe('2026-11-02T16:00:00.000Z') // PST again
-    expect(localToUtc('2026-03-06', '08:00', DENVER)).toBe('2026-03-06T15:00:00.000Z') // MST −07:00
-    expect(localToUtc('2026-03-09', '08:00', DENVER)).toBe('2026-03-09T14:00:00.000Z') // MDT −06:00
-    expect(localToUtc('2026-07-01', '08:00', PHOENIX)).toBe('2026-07-01T15:00:00.000Z') // MST all year
-  })
-
-  it('moves a nonexistent 02:30 on 8 March forward by the gap (RFC 5545 §3.3.5: offset before the gap)', () => {
-    expect(localToUtc('2026-03-08', '01:59', LOS_ANGELES)).toBe('2026-03-08T09:59:00.000Z') // 01:59 PST
-    expect(localToUtc('2026-03-08', '02:00', LOS_ANGELES)).toBe('2026-03-08T10:00:00.000Z') // = 03:00 PDT
-    expect(localToUtc('2026-03-08', '02:30', LOS_ANGELES)).toBe('2026-03-08T10:30:00.000Z') // = 03:30 PDT
-    expect(localToUtc('2026-03-08', '03:00', LOS_ANGELES)).toBe('2026-03-08T10:00:00.000Z') // 03:00 PDT
-    expect(localToUtc('2026-03-08', '02:30', DENVER)).toBe('2026-03-08T09:30:00.000Z') // = 03:30 MDT
-    expect(localToUtc('2026-03-08', '02:30', PHOENIX)).toBe('2026-03-08T09:30:00.000Z') // no DST: exists
-  })
-
-  it('reads an ambiguous 01:30 on 1 November as the first, daylight one (RFC 5545 §3.3.5)', () => {
-    expect(localToUtc('2026-11-01', '01:30', LOS_ANGELES)).toBe('2026-11-01T08:30:00.000Z') // 01:30 PDT, not 09:30Z PST
-    expect(localToUtc('2026-11-01', '01:30', DENVER)).toBe('2026-11-01T07:30:00.000Z') // 01:30 MDT
-    expect(localToUtc('2026-11-01', '02:00', LOS_ANGELES)).toBe('2026-11-01T10:00:00.000Z') // 02:00 PST, after the repeat
-    expect(localToUtc('2026-11-01', '01:30', PHOENIX)).toBe('2026-11-01T08:30:00.000Z') // no DST: once
-  })
-
-  it('matches the RFC 5545 §3.3.5 worked examples for New York, 2007 (from memory)', () => {
-    expect(localToUtc('2007-11-04', '01:30', NEW_YORK)).toBe('2007-11-04T05:30:00.000Z') // 01:30 EDT (−04:00)
-    expect(localToUtc('2007-03-11', '02:30', NEW_YORK)).toBe('2007-03-11T07:30:00.000Z') // 03:30 EDT
-  })
-
-  it('knows the offsets and local dates either side of the changes', () => {
-    expect(offsetMinutesAt(LOS_ANGELES, Date.UTC(2026, 2, 8, 9, 59))).toBe(-480)
-    expect(offsetMinutesAt(LOS_ANGELES, Date.UTC(2026, 2, 8, 10, 0))).toBe(-420) // 02:00 PST → 03:00 PDT
-    expect(offsetMinutesAt(LOS_ANGELES, Date.UTC(2026, 10, 1, 8, 59))).toBe(-420)
-    expect(offsetMinutesAt(LOS_ANGELES, Date.UTC(2026, 10, 1, 9, 0))).toBe(-480) // 02:00 PDT → 01:00 PST
-    expect(offsetMinutesAt(PHOENIX, Date.UTC(2026, 6, 1))).toBe(-420)
-    expect(localDateAt(Date.UTC(2026, 2, 9, 6, 59), LOS_ANGELES)).toBe('2026-03-08')
-    expect(localDateAt(Date.UTC(2026, 2, 9, 7, 0), LOS_ANGELES)).toBe('2026-03-09')
-  })
-
-  it('rejects unknown zones and malformed local values', () => {
-    expect(() => localToUtc('2026-03-08', '09:00', 'Mars/Olympus_Mons')).toThrow(RangeError)
-    expect(() => localToUtc('2026-02-30', '09:00', LOS_ANGELES)).toThrow(RangeError)
-    expect(() => localToUtc('2026-03-08', '9:00', LOS_ANGELES)).toThrow(RangeError)
-    expect(() => localToUtc('2026-03-08', '24:30', LOS_ANGELES)).toThrow(RangeError)
-  })
-})
-
-describe('local calendar helpers', () => {
-  it('steps dates and weekdays on the calendar, not by 24-hour instants', () => {
-    expect(addDays('2026-03-07', 2)).toBe('2026-03-09')
-    expect(addDays('2026-03-01', -1)).toBe('2026-02-28')
-    expect(isoWeekdayOf('2026-03-09')).toBe(1) // a Monday
-    expect(isoWeekdayOf('2026-03-08')).toBe(7) // a Sunday
-    expect(eachLocalDate('2026-10-31', '2026-11-02')).toEqual(['2026-10-31', '2026-11-01', '2026-11-02'])
-  })
-})
-
-describe('validateRule', () => {
-  it('accepts the rules the UI builds and the RFC examples', () => {
-    expect(validateRule('FREQ=WEEKLY;BYDAY=MO,WE')).toBeNull()
-    expect(validateRule('RRULE:FREQ=MONTHLY;BYDAY=1MO')).toBeNull()
-    expect(validateRule('FREQ=MONTHLY;COUNT=3;BYDAY=TU,WE,TH;BYSETPOS=3')).toBeNull()
-  })
-
-  it.each([
-    ['DTSTART:20260105T090000\nRRULE:FREQ=WEEKLY', /DTSTART/],
-    ['FREQ=WEEKLY;DTSTART=20260105', /DTSTART/],
-    ['FREQ=WEEKLY;COUNT=5;UNTIL=20260301T000000Z', /COUNT or by UNTIL/], // RFC 5545 §3.3.10
-    ['FREQ=WEEKLY;UNTIL=20260301', /until date/],
-    ['FREQ=SECONDLY', /more often than daily/],
-    ['FREQ=MINUTELY;INTERVAL=15', /more often than daily/],
-    ['FREQ=HOURLY', /more often than daily/],
-    ['FREQ=FORTNIGHTLY', /not a known frequency/],
-    ['BYDAY=MO', /needs a FREQ/],
-    ['', /empty/],
-    ['FREQ=WEEKLY;FREQ=DAILY', /each named once/],
-    ['FREQ=DAILY;BYHOUR=9', /BYHOUR/],
-    ['FREQ=WEEKLY;INTERVAL=0', /INTERVAL/],
-    ['FREQ=WEEKLY;BYDAY=1MO', /monthly or yearly/], // RFC 5545 §3.3.10
-    ['FREQ=WEEKLY;BYDAY=MON', /not a weekday/],
-    ['FREQ=WEEKLY;X-NAME=1', /not a supported rule part/],
-  ])('rejects %j', (rule, reason) => {
-    expect(validateRule(rule)).toMatch(reason)
-  })
-})
-
-describe('rule builders and descriptions', () => {
-  it('builds weekly rules from ISO weekdays, sorted and without repeats', () => {
-    expect(buildWeeklyRule({ weekdays: [3, 1, 3] })).toBe('FREQ=WEEKLY;BYDAY=MO,WE')
-    expect(buildWeeklyRule({ weekdays: [5], interval: 2 })).toBe('FREQ=WEEKLY;INTERVAL=2;BYDAY=FR')
-    expect(() => buildWeeklyRule({ weekdays: [] })).toThrow(RangeError)
-    expect(() => buildWeeklyRule({ weekdays: [1], interval: 0 })).toThrow(RangeError)
-  })
-
-  it('builds monthly nth-weekday rules', () => {
-    expect(buildMonthlyNthWeekdayRule({ nth: 1, weekday: 1 })).toBe('FREQ=MONTHLY;BYDAY=1MO')
-    expect(buildMonthlyNthWeekdayRule({ nth: -1, weekday: 5, interval: 3 })).toBe('FREQ=MONTHLY;INTERVAL=3;BYDAY=-1FR')
-    expect(() => buildMonthlyNthWeekdayRule({ nth: 0, weekday: 1 })).toThrow(RangeError)
-    expect(validateRule(buildMonthlyNthWeekdayRule({ nth: 4, weekday: 7 }))).toBeNull()
-  })
-
-  it('built rules produce the expected dates', () => {
-    // 2026-01: Mondays 5, 12, 19, 26 → first Monday 5 Jan; February's is the 2nd.
-    expect(occurrenceDates(buildMonthlyNthWeekdayRule({ nth: 1, weekday: 1 }), '2026-01-01', null, '2026-01-01', '2026-02-28')).toEqual([
-      '2026-01-05', '2026-02-02',
-    ])
-  })
-
-  it.each([
-    ['FREQ=WEEKLY;BYDAY=MO,WE', 'every Monday and Wednesday'],
-    ['FREQ=WEEKLY;INTERVAL=2;BYDAY=FR', 'every other Friday'],
-    ['FREQ=WEEKLY;INTERVAL=3;BYDAY=TU,TH', 'every 3 weeks on Tuesday and Thursday'],
-    ['FREQ=WEEKLY;BYDAY=MO,TU,WE,TH,FR', 'every weekday'],
-    ['FREQ=WEEKLY;BYDAY=MO,WE,FR', 'every Monday, Wednesday and Friday'],
-    ['FREQ=WEEKLY', 'every week'],
-    ['FREQ=DAILY', 'every day'],
-    ['FREQ=DAILY;INTERVAL=2', 'every other day'],
-    ['FREQ=MONTHLY;BYDAY=1MO', 'the first Monday of each month'],
-    ['FREQ=MONTHLY;BYDAY=-1FR', 'the last Friday of each month'],
-    ['FREQ=MONTHLY;INTERVAL=2;BYDAY=1SU,-1SU', 'the first and last Sunday of every other month'],
-    ['FREQ=MONTHLY;COUNT=6;BYDAY=-2MO', 'the second to last Monday of each month, 6 times'],
-    ['FREQ=MONTHLY;BYMONTHDAY=15', 'the 15th of each month'],
-    ['FREQ=MONTHLY;BYMONTHDAY=1,-1', 'the 1st and last day of each month'],
-    ['FREQ=MONTHLY;BYDAY=MO,TU,WE,TH,FR;BYSETPOS=-1', 'the last weekday of each month'],
-    ['FREQ=MONTHLY;BYDAY=TU,WE,TH;BYSETPOS=3', 'the third Tuesday, Wednesday or Thursday of each month'],
-    ['FREQ=YEARLY;COUNT=10;BYMONTH=6,7', 'every June and July, 10 times'],
-    ['FREQ=HOURLY', 'an unreadable rule'],
-  ])('describes %s as "%s"', (rule, text) => {
-    expect(describeRule(rule)).toBe(text)
   })
 })
