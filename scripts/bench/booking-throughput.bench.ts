@@ -68,7 +68,10 @@ type BenchSite = Awaited<ReturnType<typeof benchSite>>
 
 async function signIn(baseURL: string): Promise<string> {
   const login = await fetch(`${baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@fernhollow.test', password: 'cuspline-demo' }) })
-  return login.headers.getSetCookie()[0]!.split(';')[0]!
+  // Sign-in may first clear an older session cookie: keep the last one that carries a value.
+  const cookies = login.headers.getSetCookie().map((line) => line.split(';')[0]!).filter((pair) => !pair.endsWith('='))
+  if (login.status !== 200 || cookies.length === 0) throw new Error(`sign-in answered ${login.status} with no session cookie`)
+  return cookies[cookies.length - 1]!
 }
 
 // node:http on kept-alive sockets: a lighter load generator than fetch, so more of the two cores
@@ -101,7 +104,8 @@ function get(url: string, cookie: string): Promise<number> {
 async function signedInGets(baseURL: string, cookies: string[], perClient: number) {
   await Promise.all(cookies.map(async (cookie) => {
     for (let index = 0; index < perClient; index += 1) {
-      if ((await get(`${baseURL}/api/me`, cookie)) !== 200) throw new Error('GET /api/me did not answer 200')
+      const status = await get(`${baseURL}/api/me`, cookie)
+      if (status !== 200) throw new Error(`GET /api/me answered ${status}, not 200`)
     }
   }))
   return {}
@@ -178,7 +182,10 @@ const site = await benchSite(db)
 // The mail dispatcher is off: sending is background work, not part of booking (the ceiling sends none).
 const server = await startAppServer({ NUXT_DB_DATABASE: DATABASE, NUXT_OUTBOX_DISPATCHER: 'false' }, process.env.BENCH_CPU_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROFILE}`] : [])
 try {
-  const cookies = await Promise.all(site.lanes.map(() => signIn(server.url)))
+  // One after another: sign-in counts attempts in flight per (account, address), and 16 at once would
+  // look like a guessing run (429).
+  const cookies: string[] = []
+  for (const _lane of site.lanes) cookies.push(await signIn(server.url))
   // A few bookings first so both sides run warm (JIT, pools, buffer pool); these are not counted.
   await rawCeiling(site, 0, WARM_UP_PER_CLIENT)
   await httpRun(server.url, site, cookies, 0, WARM_UP_PER_CLIENT)
