@@ -13,7 +13,7 @@ import { inTransaction } from '../utils/db-retry'
 import { badRequest, conflict, isDuplicateKey, notFound } from '../utils/errors'
 import {
   findUserById, insertUser, listStaffRows, replaceUserSites, setPasswordHash, setUserActive, siteIdsByUser,
-  updateUserProfile, type StaffRow,
+  toSessionUser, updateUserProfile, type StaffRow,
 } from '../repositories/users'
 import { findProvider, findProviderIdOfUser, insertProvider, updateProvider } from '../repositories/providers'
 import { openVisitsOfProvider, type OpenVisitRow } from '../repositories/appointments'
@@ -25,12 +25,7 @@ const DEFAULT_PROVIDER_COLOUR = '#2563eb'
 
 function toAccount(row: StaffRow, siteIds: number[]): StaffAccount {
   return {
-    id: row.id,
-    email: row.email,
-    name: row.name,
-    role: row.role,
-    allSites: Boolean(row.all_sites),
-    siteIds,
+    ...toSessionUser(row, siteIds),
     active: Boolean(row.active),
     lastSignInAt: row.last_sign_in_at ? new Date(row.last_sign_in_at).toISOString() : null,
     providerId: row.provider_id,
