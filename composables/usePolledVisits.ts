@@ -1,9 +1,9 @@
-// Visits of one site or one provider over a UTC range, kept fresh by polling GET /api/appointments
+// Visits of one site or one provider over a UTC range, kept fresh by polling GET /api/visits
 // with its ETag (a 304 costs almost nothing), so other people's bookings and moves appear within a
 // few seconds without reloading. The one polling mechanism for visits: the Chairboard (through
 // useBoardVisits) and My day use it. Polls only while the tab is visible; `paused` holds them off
 // (My day, while a state change it shows ahead of the server is on its way).
-import type { BoardVisitDto } from '#shared/types/appointments'
+import type { BoardVisitDto } from '#shared/types/visits'
 import type { VisitScope } from './useVisitList'
 import type { UtcRange } from '#shared/utils/local-date'
 
@@ -25,7 +25,7 @@ export function usePolledVisits(scope: Ref<VisitScope | null>, range: Ref<UtcRan
     const key = currentKey()
     loading.value = visits.value.length === 0
     try {
-      const response = await $fetch.raw<BoardVisitDto[]>('/api/appointments', {
+      const response = await $fetch.raw<BoardVisitDto[]>('/api/visits', {
         query: { ...scope.value, fromUtc: range.value.fromUtc, toUtc: range.value.toUtc },
         headers: force || !etag ? {} : { 'if-none-match': etag },
         ignoreResponseError: true,

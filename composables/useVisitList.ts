@@ -1,7 +1,7 @@
-// Visits of one site or one provider over a UTC range (GET /api/appointments), cached per scope and
+// Visits of one site or one provider over a UTC range (GET /api/visits), cached per scope and
 // range. The key follows the scope, so a scope that is only known later (the signed-in provider)
 // still fetches; a null scope is an empty list.
-import type { BoardVisitDto } from '#shared/types/appointments'
+import type { BoardVisitDto } from '#shared/types/visits'
 import type { UtcRange } from '#shared/utils/local-date'
 
 export interface VisitScope {
@@ -15,7 +15,7 @@ export function useVisitList(scope: Ref<VisitScope | null>, range: Ref<UtcRange>
     computed(() => `visits-${JSON.stringify(scope.value)}-${range.value.fromUtc}-${range.value.toUtc}`),
     (_nuxtApp, { signal }) => (scope.value === null
       ? Promise.resolve([])
-      : fetcher<BoardVisitDto[]>('/api/appointments', { query: { ...scope.value, fromUtc: range.value.fromUtc, toUtc: range.value.toUtc }, signal })),
+      : fetcher<BoardVisitDto[]>('/api/visits', { query: { ...scope.value, fromUtc: range.value.fromUtc, toUtc: range.value.toUtc }, signal })),
     { default: () => [] },
   )
 }

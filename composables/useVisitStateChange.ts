@@ -1,6 +1,6 @@
 // Move a visit along its states from a screen: the change shows at once and is rolled back, with a
 // message, when the server refuses it.
-import type { AppointmentDto, BoardVisitDto } from '#shared/types/appointments'
+import type { VisitDto, BoardVisitDto } from '#shared/types/visits'
 import { VISIT_STATE_LABELS, type VisitState } from '#shared/domain/visit-states'
 import { apiErrorBody, apiErrorMessage } from '#shared/utils/api-errors'
 
@@ -25,7 +25,7 @@ export function useVisitStateChange(visits: Ref<BoardVisitDto[] | null | undefin
     pendingId.value = visitId
     patch(visitId, { state: to })
     try {
-      const saved = await $fetch<AppointmentDto>(`/api/appointments/${visitId}/state`, {
+      const saved = await $fetch<VisitDto>(`/api/visits/${visitId}/state`, {
         method: 'POST', body: { state: to, rowVersion: before.rowVersion },
       })
       patch(visitId, { state: saved.state, rowVersion: saved.rowVersion })

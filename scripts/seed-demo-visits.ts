@@ -65,7 +65,7 @@ try {
         const found = await post<{ openings: Opening[] }>('/api/openings', { items, siteIds: [site.id], from: date, to: date, limit: 25, partOfDay: faker.helpers.arrayElement(['morning', 'afternoon', 'any']) })
         const opening = found.status === 200 ? faker.helpers.arrayElement(found.body.openings.length ? found.body.openings.slice(0, 6) : [null]) : null
         if (!opening) continue
-        const result = await post('/api/appointments', { ...opening, patientId: faker.helpers.arrayElement(patientIds), items, note: '' })
+        const result = await post('/api/visits', { ...opening, patientId: faker.helpers.arrayElement(patientIds), items, note: '' })
         if (result.status === 201) { booked += 1; bookedToday += 1 }
       }
     }
@@ -135,7 +135,7 @@ async function settleVisits(demoSites: Array<{ id: number; time_zone: string }>)
       for (const visit of byClock.get(clock)!) {
         const moves = movesFor(visit, clock)
         for (const move of moves) {
-          const result = await post(`/api/appointments/${visit.id}/${move.path}`, move.body)
+          const result = await post(`/api/visits/${visit.id}/${move.path}`, move.body)
           if (result.status !== 200) throw new Error(`demo visit ${visit.id}: ${move.path} ${JSON.stringify(move.body)} answered ${result.status} ${JSON.stringify(result.body)}`)
         }
         if (moves.length) settled += 1

@@ -119,7 +119,7 @@ async function httpRun(baseURL: string, site: BenchSite, cookies: string[], firs
   await Promise.all(site.lanes.map(async (lane, laneIndex) => {
     for (let index = first; index < first + count; index += 1) {
       const begin = performance.now()
-      const status = await post(`${baseURL}/api/appointments`, cookies[laneIndex]!,
+      const status = await post(`${baseURL}/api/visits`, cookies[laneIndex]!,
         JSON.stringify({ siteId: site.siteId, ...lane, startUtc: slot(laneIndex, index), items: [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MO' }] }))
       if (status !== 201) failures += 1
       latencies.push(performance.now() - begin)

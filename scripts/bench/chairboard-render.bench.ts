@@ -61,7 +61,7 @@ try {
   for (let run = 0; run < RUNS; run += 1) {
     await browser.page.goto('/chairboard')
     await browser.page.locator('td.fc-timegrid-col').first().waitFor()
-    const response = browser.page.waitForResponse((answer) => answer.url().includes('/api/appointments?') && answer.status() === 200)
+    const response = browser.page.waitForResponse((answer) => answer.url().includes('/api/visits?') && answer.status() === 200)
     await browser.page.locator('#board-date').fill(DAY)
     await (await response).finished()
     const arrived = performance.now()

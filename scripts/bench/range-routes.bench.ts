@@ -75,7 +75,7 @@ try {
     { name: `GET /api/availability, ${MAX_WINDOW_DAYS} days to ${last}`, method: 'GET', path: `/api/availability?siteId=${siteId}&from=${addDays(last, -(MAX_WINDOW_DAYS - 1))}&to=${last}`, expect: 200 },
     { name: `POST /api/openings, all sites, ${MAX_WINDOW_DAYS} days to ${last}, limit 500`, method: 'POST', path: '/api/openings', body: JSON.stringify({ items, from: addDays(last, -(MAX_WINDOW_DAYS - 1)), to: last, limit: 500 }), expect: 200 },
     { name: `GET /api/balance, all sites, ${BALANCE_MAX_DAYS} days to ${last}`, method: 'GET', path: `/api/balance?from=${addDays(last, -(BALANCE_MAX_DAYS - 1))}&to=${last}`, expect: 200 },
-    { name: 'GET /api/appointments, one site, 43 days to the last allowed date', method: 'GET', path: `/api/appointments?siteId=${siteId}&fromUtc=${addDays(last, -42)}T00:00:00Z&toUtc=${last}T23:59:59Z`, expect: 200 },
+    { name: 'GET /api/visits, one site, 43 days to the last allowed date', method: 'GET', path: `/api/visits?siteId=${siteId}&fromUtc=${addDays(last, -42)}T00:00:00Z&toUtc=${last}T23:59:59Z`, expect: 200 },
     { name: 'GET /api/rota, year 9999 (refused, 400)', method: 'GET', path: `/api/rota?siteId=${siteId}&from=9999-12-25&to=9999-12-31`, expect: 400 },
   ]
 

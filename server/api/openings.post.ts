@@ -1,6 +1,6 @@
 // POST /api/openings: free times that fit a visit plan, across the caller's sites.
-import { OpeningsRequestSchema } from '#shared/schemas/appointments'
-import type { OpeningsResponse } from '#shared/types/appointments'
+import { OpeningsRequestSchema } from '#shared/schemas/visits'
+import type { OpeningsResponse } from '#shared/types/visits'
 import { BOOKING_ROLES, requireRole } from '../utils/auth'
 import { validateWith } from '../utils/errors'
 import { searchOpenings } from '../services/openings-service'

@@ -1,6 +1,6 @@
 // The provider and the patient of a booking, read together in one round trip.
 import type { Db } from '../utils/db'
-import type { PatientDto } from '#shared/types/appointments'
+import type { PatientDto } from '#shared/types/visits'
 import type { ProviderKind } from '#shared/types/people'
 import { ROLE_GROUPS } from '#shared/utils/access'
 import { parseJson } from './json'

@@ -1,6 +1,6 @@
 // Patients: search for booking and quick registration.
 import type { Db } from '../utils/db'
-import type { PatientDto } from '#shared/types/appointments'
+import type { PatientDto } from '#shared/types/visits'
 
 export interface PatientRow {
   id: number

@@ -1,7 +1,7 @@
 // The checks every booking, move and re-plan passes inside its transaction, after the locks.
 import { DateTime } from 'luxon'
 import type { VisitPlan } from '#shared/types/chair-time'
-import type { BookingConflict, PatientDto } from '#shared/types/appointments'
+import type { BookingConflict, PatientDto } from '#shared/types/visits'
 import type { EpochInterval } from '#shared/types/rota'
 import type { StoredTemplate } from '#shared/types/templates'
 import { expandAvailabilityMs } from '#shared/domain/rota'
@@ -10,7 +10,7 @@ import { badRequest, conflict } from '../utils/errors'
 import { scheduleNowMs } from '../utils/clock'
 import type { SiteCalendarInputs } from '../repositories/site-calendar'
 import { findBookingParties } from '../repositories/booking-parties'
-import { findClashes, type NewSegment, type SegmentClash } from '../repositories/appointments'
+import { findClashes, type NewSegment, type SegmentClash } from '../repositories/visits'
 
 const MINUTE = 60_000
 const DAY = 86_400_000
@@ -24,7 +24,7 @@ export interface BookingRequest {
   patientId: number
   startMs: number
   /** The visit being moved, so it does not collide with itself. */
-  exceptAppointmentId: number | null
+  exceptVisitId: number | null
 }
 
 export function visitEnd(plan: VisitPlan, startMs: number): number {
@@ -114,7 +114,7 @@ export async function assertBookable(db: Db, request: BookingRequest): Promise<{
   }
 
   const clashes = await findClashes(db, {
-    operatoryId: room.id, startMs, endMs, providerId: provider.id, handsOn, patientId: request.patientId, exceptAppointmentId: request.exceptAppointmentId,
+    operatoryId: room.id, startMs, endMs, providerId: provider.id, handsOn, patientId: request.patientId, exceptVisitId: request.exceptVisitId,
   })
   if (clashes.operatory) throw clashError('operatory', room.id, room.name, clashes.operatory, zone, 'is already taken')
   if (clashes.provider) throw clashError('provider', provider.id, provider.name, clashes.provider, zone, 'is already working with another patient')

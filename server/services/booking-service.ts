@@ -3,9 +3,9 @@
 // visit, its segments, an audit row and the patient's outbox e-mail, then commits.
 import { createHash, randomUUID } from 'node:crypto'
 import type { SessionUser } from '#shared/types/auth'
-import type { AppointmentDto, PatientDto } from '#shared/types/appointments'
+import type { VisitDto, PatientDto } from '#shared/types/visits'
 import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
-import type { BookAppointmentInput, MoveAppointmentInput } from '#shared/schemas/appointments'
+import type { BookVisitInput, MoveVisitInput } from '#shared/schemas/visits'
 import { holdsTime, type VisitState } from '#shared/domain/visit-states'
 import { mayChangeState, mayRebook, type Verdict } from '#shared/domain/visit-access'
 import { withChairMinutes } from '#shared/domain/length-override'
@@ -15,7 +15,7 @@ import { badRequest, conflict, isDuplicateKey, notFound, rethrowDomainError } fr
 import { requireSiteAccess } from '../utils/auth'
 import { inTransaction } from '../utils/db-retry'
 import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
-import { findAppointment, findAppointmentRow, insertAppointment, newAppointmentDto, replaceSegments, updateAppointmentIfVersion, type AppointmentRow } from '../repositories/appointments'
+import { findVisit, findVisitRow, insertVisit, newVisitDto, replaceSegments, updateVisitIfVersion, type VisitRow } from '../repositories/visits'
 import { lockForBooking } from '../repositories/booking-locks'
 import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
 import { enqueueMessages } from '../repositories/outbox'
@@ -67,24 +67,24 @@ async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: Visi
   ])
 }
 
-async function queueCancellationMail(db: Db, row: AppointmentRow): Promise<void> {
+async function queueCancellationMail(db: Db, row: VisitRow): Promise<void> {
   await dropQueuedReminders(db, row.id)
   if (!mayMail(await findPatient(db, row.patient_id))) return
   await enqueueMessages(db, [{ kind: 'cancellation', appointmentId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { appointmentId: row.id } }])
 }
 
-async function loaded(db: Db, id: number): Promise<AppointmentDto> {
-  const visit = await findAppointment(db, id)
+async function loaded(db: Db, id: number): Promise<VisitDto> {
+  const visit = await findVisit(db, id)
   if (!visit) throw notFound('No such visit.')
   return visit
 }
 
-export async function bookAppointment(input: BookAppointmentInput, user: SessionUser, idempotencyKey?: string): Promise<AppointmentDto> {
+export async function bookVisit(input: BookVisitInput, user: SessionUser, idempotencyKey?: string): Promise<VisitDto> {
   requireSiteAccess(user, input.siteId)
   const db = useDb()
   const requestHash = createHash('sha256').update(JSON.stringify(input)).digest('hex')
   if (idempotencyKey) {
-    const prior = await findAnswer<AppointmentDto>(db, user.id, idempotencyKey)
+    const prior = await findAnswer<VisitDto>(db, user.id, idempotencyKey)
     if (prior?.response) return replayed(prior.requestHash, requestHash, prior.response)
   }
   const startMs = startOf(input.startUtc)
@@ -97,39 +97,39 @@ export async function bookAppointment(input: BookAppointmentInput, user: Session
       const calendar = await bookingCalendar(trx, input.siteId)
       const { plan, templates } = await planItems(trx, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
       assertStartAllowed(startMs, calendar)
-      const { patient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptAppointmentId: null })
+      const { patient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null })
       const newVisit = {
         siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
         startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId: user.id,
       }
-      const id = await insertAppointment(trx, newVisit)
+      const id = await insertVisit(trx, newVisit)
       const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
       await replaceSegments(trx, id, segments, { isNew: true })
-      await writeAudit(trx, { userId: user.id, action: 'visit_booked', entity: 'appointment', entityId: id, after: input })
+      await writeAudit(trx, { userId: user.id, action: 'visit_booked', entity: 'visit', entityId: id, after: input })
       await queueVisitMail(trx, 'invitation', { appointmentId: id, startMs, calendar, patient })
-      const visit = newAppointmentDto(id, newVisit, segments)
+      const visit = newVisitDto(id, newVisit, segments)
       if (idempotencyKey) await storeAnswer(trx, user.id, idempotencyKey, 201, visit, id)
       return visit
     })
   } catch (error) {
     // Another request with the same key committed first: answer what it answered.
     if (idempotencyKey && isDuplicateKey(error)) {
-      const prior = await findAnswer<AppointmentDto>(db, user.id, idempotencyKey)
+      const prior = await findAnswer<VisitDto>(db, user.id, idempotencyKey)
       if (prior?.response) return replayed(prior.requestHash, requestHash, prior.response)
     }
     throw error
   }
 }
 
-function replayed(storedHash: string, requestHash: string, response: AppointmentDto): AppointmentDto {
+function replayed(storedHash: string, requestHash: string, response: VisitDto): VisitDto {
   if (storedHash !== requestHash) {
     throw conflict('This Idempotency-Key was already used for a different booking request.', { field: 'Idempotency-Key' })
   }
   return response
 }
 
-async function liveVisit(db: Db, id: number, user: SessionUser): Promise<AppointmentRow> {
-  const row = await findAppointmentRow(db, id)
+async function liveVisit(db: Db, id: number, user: SessionUser): Promise<VisitRow> {
+  const row = await findVisitRow(db, id)
   if (!row) throw notFound('No such visit.')
   requireSiteAccess(user, row.site_id)
   return row
@@ -153,7 +153,7 @@ function staleVersion() {
 }
 
 /** The stored plan, unless new items were given: template edits never change a booked visit. */
-async function planForMove(db: Db, row: AppointmentRow, input: MoveAppointmentInput, calendar: SiteCalendarInputs) {
+async function planForMove(db: Db, row: VisitRow, input: MoveVisitInput, calendar: SiteCalendarInputs) {
   if (input.items) return planItems(db, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
   const plan = parseJson<VisitPlan>(row.plan, {} as VisitPlan)
   const templates = (await Promise.all((plan.items ?? []).map((item) => findTemplateByCode(db, item.templateCode, item.templateVersion))))
@@ -161,7 +161,7 @@ async function planForMove(db: Db, row: AppointmentRow, input: MoveAppointmentIn
   return { plan, templates }
 }
 
-export async function moveAppointment(id: number, input: MoveAppointmentInput, user: SessionUser): Promise<AppointmentDto> {
+export async function moveVisit(id: number, input: MoveVisitInput, user: SessionUser): Promise<VisitDto> {
   const db = useDb()
   const row = await liveVisit(db, id, user)
   enforce(mayRebook(await actorOf(db, user), { siteId: row.site_id, state: row.state }), { field: 'state' })
@@ -176,20 +176,20 @@ export async function moveAppointment(id: number, input: MoveAppointmentInput, u
     const planned = await planForMove(trx, row, input, calendar)
     const plan = input.lengthOverride ? withLength(planned.plan, input.lengthOverride) : planned.plan
     if (input.startUtc) assertStartAllowed(startMs, calendar)
-    const { patient } = await assertBookable(trx, { calendar, plan, templates: planned.templates, operatoryId, providerId, patientId: row.patient_id, startMs, exceptAppointmentId: id })
-    const changed = await updateAppointmentIfVersion(trx, id, input.rowVersion, {
+    const { patient } = await assertBookable(trx, { calendar, plan, templates: planned.templates, operatoryId, providerId, patientId: row.patient_id, startMs, exceptVisitId: id })
+    const changed = await updateVisitIfVersion(trx, id, input.rowVersion, {
       operatory_id: operatoryId, provider_id: providerId, start_utc: new Date(startMs), end_utc: new Date(visitEnd(plan, startMs)),
       plan: JSON.stringify(plan), ical_sequence: row.ical_sequence + 1, updated_by: user.id, ...(input.note === undefined ? {} : { note: input.note }),
     })
     if (!changed) throw staleVersion()
     await replaceSegments(trx, id, placeSegments(plan, startMs, operatoryId, providerId))
-    await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'appointment', entityId: id, before: { start: row.start_utc, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
+    await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'visit', entityId: id, before: { start: row.start_utc, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
     await queueVisitMail(trx, 'update', { appointmentId: id, startMs, calendar, patient })
     return loaded(trx, id)
   })
 }
 
-function withLength(plan: VisitPlan, override: NonNullable<MoveAppointmentInput['lengthOverride']>): VisitPlan {
+function withLength(plan: VisitPlan, override: NonNullable<MoveVisitInput['lengthOverride']>): VisitPlan {
   try {
     return withChairMinutes(plan, override.chairMinutes, override.reason)
   } catch (error) {
@@ -197,7 +197,7 @@ function withLength(plan: VisitPlan, override: NonNullable<MoveAppointmentInput[
   }
 }
 
-export async function changeVisitState(id: number, to: VisitState, user: SessionUser, reason?: string, seenVersion?: number): Promise<AppointmentDto> {
+export async function changeVisitState(id: number, to: VisitState, user: SessionUser, reason?: string, seenVersion?: number): Promise<VisitDto> {
   return inTransaction(async (trx) => {
     const row = await liveVisit(trx, id, user)
     const site = await findSite(trx, row.site_id)
@@ -205,14 +205,14 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
     enforce(mayChangeState(await actorOf(trx, user), visit, to, scheduleNowMs()), { field: 'state', from: row.state, to })
     if (seenVersion !== undefined && seenVersion !== row.row_version) throw staleVersion()
     const releases = !holdsTime(to)
-    const changed = await updateAppointmentIfVersion(trx, id, row.row_version, {
+    const changed = await updateVisitIfVersion(trx, id, row.row_version, {
       state: to, updated_by: user.id,
       ...(to === 'cancelled' ? { cancel_reason: reason ?? '', ical_sequence: row.ical_sequence + 1 } : {}),
     })
     if (!changed) throw staleVersion()
     // A cancelled or missed visit gives its chair and provider back.
     if (releases) await replaceSegments(trx, id, [])
-    await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'appointment', entityId: id, before: { state: row.state }, after: { state: to, reason } })
+    await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'visit', entityId: id, before: { state: row.state }, after: { state: to, reason } })
     if (to === 'cancelled') await queueCancellationMail(trx, row)
     return loaded(trx, id)
   })

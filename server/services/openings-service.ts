@@ -1,10 +1,10 @@
 // Openings: where and when a visit plan fits, across the sites a user may book for.
 import { DateTime } from 'luxon'
 import type { SessionUser } from '#shared/types/auth'
-import type { OpeningDto, OpeningsResponse } from '#shared/types/appointments'
+import type { OpeningDto, OpeningsResponse } from '#shared/types/visits'
 import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
 import type { Opening, OpeningsSite } from '#shared/types/openings'
-import type { OpeningsRequest } from '#shared/schemas/appointments'
+import type { OpeningsRequest } from '#shared/schemas/visits'
 import { expandAvailabilityMs } from '#shared/domain/rota'
 import { findOpenings, formatOpening } from '#shared/domain/openings'
 import { useDb, type Db } from '../utils/db'

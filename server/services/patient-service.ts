@@ -1,7 +1,7 @@
 // Registering and opening patients. Records are group-wide; every opening is audited.
 import type { SessionUser } from '#shared/types/auth'
-import type { PatientDto } from '#shared/types/appointments'
-import type { NewPatientInput } from '#shared/schemas/appointments'
+import type { PatientDto } from '#shared/types/visits'
+import type { NewPatientInput } from '#shared/schemas/visits'
 import { requireSiteAccess } from '../utils/auth'
 import { useDb } from '../utils/db'
 import { inTransaction } from '../utils/db-retry'

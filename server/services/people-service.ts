@@ -16,7 +16,7 @@ import {
   toSessionUser, updateUserProfile, type StaffRow,
 } from '../repositories/users'
 import { findProvider, findProviderIdOfUser, insertProvider, updateProvider } from '../repositories/providers'
-import { openVisitsOfProvider, type OpenVisitRow } from '../repositories/appointments'
+import { openVisitsOfProvider, type OpenVisitRow } from '../repositories/visits'
 import { scheduleNowMs } from '../utils/clock'
 import { existingSiteIds } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'

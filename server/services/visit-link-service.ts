@@ -9,7 +9,7 @@ import { inTransaction } from '../utils/db-retry'
 import { hasValidSignature, readVisitToken } from '../utils/visit-token'
 import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { confirmVisit, loadMailContext, recordCancelRequest, type MailContext } from '../repositories/mail-context'
-import { replaceSegments, updateAppointmentIfVersion } from '../repositories/appointments'
+import { replaceSegments, updateVisitIfVersion } from '../repositories/visits'
 import { writeAudit } from '../repositories/audit-log'
 import { enqueueMessage } from '../repositories/outbox'
 import { visitFacts } from './mail/visit-facts'
@@ -43,7 +43,7 @@ function toPublicVisit(context: MailContext, token: string): PublicVisitDto {
     startUtc: visit.startUtc.toISOString(), endUtc: visit.endUtc.toISOString(), whenLocal: facts.whenLocal, minutes: facts.minutes,
     state: visit.state, cancelRequested: visit.cancelRequestedAt !== null, cancelPolicy: facts.settings.patientCancel,
     canConfirm: visit.state === 'booked', canCancel: upcoming && visit.cancelRequestedAt === null,
-    icsUrl: `/api/appointments/${visit.id}/ics?token=${encodeURIComponent(token)}`,
+    icsUrl: `/api/visits/${visit.id}/ics?token=${encodeURIComponent(token)}`,
   }
 }
 
@@ -57,14 +57,14 @@ export async function confirmByPatient(token: string): Promise<PublicVisitDto> {
     if (context.visit.state === 'confirmed') return
     if (context.visit.state !== 'booked') throw conflict(`A ${context.visit.state} visit cannot be confirmed.`, { field: 'state' })
     if (!(await confirmVisit(trx, context.visit.id, context.visit.rowVersion))) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
-    await writeAudit(trx, { userId: null, action: 'visit_confirmed', entity: 'appointment', entityId: context.visit.id, before: { state: 'booked' }, after: { state: 'confirmed', by: 'patient link' } })
+    await writeAudit(trx, { userId: null, action: 'visit_confirmed', entity: 'visit', entityId: context.visit.id, before: { state: 'booked' }, after: { state: 'confirmed', by: 'patient link' } })
   })
   return publicVisit(token)
 }
 
 async function cancelAtOnce(db: Db, context: MailContext): Promise<void> {
   const { visit } = context
-  const changed = await updateAppointmentIfVersion(db, visit.id, visit.rowVersion, {
+  const changed = await updateVisitIfVersion(db, visit.id, visit.rowVersion, {
     state: 'cancelled', cancel_reason: PATIENT_CANCEL_REASON, ical_sequence: visit.icalSequence + 1, cancel_requested_at: new Date(),
   })
   if (!changed) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
@@ -86,7 +86,7 @@ export async function requestCancelByPatient(token: string): Promise<PublicVisit
     const atOnce = mailSettingsOf(context.site.settings).patientCancel === 'cancel'
     if (atOnce) await cancelAtOnce(trx, context)
     else await recordCancelRequest(trx, visit.id)
-    await writeAudit(trx, { userId: null, action: atOnce ? 'visit_cancelled' : 'visit_cancel_requested', entity: 'appointment', entityId: visit.id, before: { state: visit.state }, after: { by: 'patient link', reason: PATIENT_CANCEL_REASON } })
+    await writeAudit(trx, { userId: null, action: atOnce ? 'visit_cancelled' : 'visit_cancel_requested', entity: 'visit', entityId: visit.id, before: { state: visit.state }, after: { by: 'patient link', reason: PATIENT_CANCEL_REASON } })
   })
   return publicVisit(token)
 }

@@ -1,10 +1,10 @@
 // Visits for the Chairboard, My day and week views.
 import type { SessionUser } from '#shared/types/auth'
-import type { BoardVisitDto } from '#shared/types/appointments'
+import type { BoardVisitDto } from '#shared/types/visits'
 import type { PlanItemSummary } from '#shared/types/chair-time'
 import { useDb } from '../utils/db'
 import { requireSiteAccess } from '../utils/auth'
-import { groupSegments, listVisits, toAppointmentDto, type BoardRow, type VisitListFilter } from '../repositories/appointments'
+import { groupSegments, listVisits, toVisitDto, type BoardRow, type VisitListFilter } from '../repositories/visits'
 
 /** The repository's filter without the caller's site scope, which comes from the session. */
 export type VisitListRequest = Omit<VisitListFilter, 'siteIds'>
@@ -20,8 +20,8 @@ function procedureLine(item: PlanItemSummary, notation: 'universal' | 'iso'): st
   return `${item.templateName}${tooth}${surfaces}`
 }
 
-function toBoardVisit(row: BoardRow, segments: Parameters<typeof toAppointmentDto>[1]): BoardVisitDto {
-  const visit = toAppointmentDto(row, segments)
+function toBoardVisit(row: BoardRow, segments: Parameters<typeof toVisitDto>[1]): BoardVisitDto {
+  const visit = toVisitDto(row, segments)
   return {
     ...visit,
     patientName: `${row.patient_first_name} ${row.patient_last_name}`,

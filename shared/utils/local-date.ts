@@ -248,7 +248,7 @@ export function mondayOf(date: LocalDate): LocalDate {
   return addDays(date, 1 - isoWeekdayOf(date))
 }
 
-/** A UTC range [fromUtc, toUtc) of ISO instants, as GET /api/appointments takes it. */
+/** A UTC range [fromUtc, toUtc) of ISO instants, as GET /api/visits takes it. */
 export interface UtcRange {
   fromUtc: string
   toUtc: string

@@ -1,7 +1,7 @@
 // Pure helpers for drawing visits on a site's local clock (My day, week views): a visit placed on a
 // week grid, the numbing segment running now, countdown text. No Vue, no fetching; the local date
 // and time arithmetic itself is in local-date.ts.
-import type { BoardVisitDto, SegmentDto } from '../types/appointments'
+import type { BoardVisitDto, SegmentDto } from '../types/visits'
 import { isClosed } from '../domain/visit-states'
 import { localDateAt, minutesIntoDay } from './local-date'
 

@@ -16,7 +16,7 @@ beforeAll(async () => {
   const chair = await testDb()('operatories').where({ site_id: quarry }).orderBy('sort_order').first('id')
   const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist@fernhollow.test').first('providers.id')
   const patient = await testDb()('patients').orderBy('id').offset(170).first('id')
-  const booked = await manager.post('/api/appointments', { siteId: quarry, operatoryId: chair.id, providerId: dentist.id, patientId: patient.id, startUtc: utcAt(`${DAY}T09:00`, 'America/Los_Angeles'), items: FILLING })
+  const booked = await manager.post('/api/visits', { siteId: quarry, operatoryId: chair.id, providerId: dentist.id, patientId: patient.id, startUtc: utcAt(`${DAY}T09:00`, 'America/Los_Angeles'), items: FILLING })
   expect(booked.status).toBe(201)
   browser = await openBrowser(inject('baseURL'), { width: 1400, height: 1400 })
 })

@@ -20,12 +20,12 @@ beforeAll(async () => {
   annex = await createAnnex({ rooms: 2, providers: 1, patients: 1, timeZone: middayZone() })
   desk = await createStaff('front_desk', [annex.siteId])
   const admin = await signedInAs('admin@fernhollow.test')
-  const booked = await admin.post('/api/appointments', {
+  const booked = await admin.post('/api/visits', {
     siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], patientId: annex.patientIds[0], items: FILLING, startUtc: startIn(30),
   })
   expect(booked.status, JSON.stringify(booked.body)).toBe(201)
   for (const state of ['arrived', 'treating']) {
-    const marked = await admin.post(`/api/appointments/${booked.body.id}/state`, { state })
+    const marked = await admin.post(`/api/visits/${booked.body.id}/state`, { state })
     expect(marked.status, JSON.stringify(marked.body)).toBe(200)
   }
   const patient = await testDb()('patients').where({ id: annex.patientIds[0] }).first('first_name', 'last_name')

@@ -102,8 +102,8 @@ describe('Chairboard', () => {
     const dentist3 = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist.three@fernhollow.test').first('providers.id')
     const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist@fernhollow.test').first('providers.id')
     const [mover, blocker] = await testDb()('patients').orderBy('id').offset(130).limit(2)
-    const moving = await api.post('/api/appointments', { patientId: mover.id, siteId: quarry, operatoryId: rooms[0], providerId: dentist3.id, startUtc: utcAt(`${DAY}T13:00`, ZONE), items: [{ templateCode: 'EXAM-EMER' }] })
-    const busy = await api.post('/api/appointments', { patientId: blocker.id, siteId: quarry, operatoryId: rooms[1], providerId: dentist.id, startUtc: utcAt(`${DAY}T13:00`, ZONE), items: FILLING })
+    const moving = await api.post('/api/visits', { patientId: mover.id, siteId: quarry, operatoryId: rooms[0], providerId: dentist3.id, startUtc: utcAt(`${DAY}T13:00`, ZONE), items: [{ templateCode: 'EXAM-EMER' }] })
+    const busy = await api.post('/api/visits', { patientId: blocker.id, siteId: quarry, operatoryId: rooms[1], providerId: dentist.id, startUtc: utcAt(`${DAY}T13:00`, ZONE), items: FILLING })
     expect([moving.status, busy.status]).toEqual([201, 201])
 
     await openBoardOn(page)
@@ -138,8 +138,8 @@ describe('Chairboard', () => {
     const dentist3 = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist.three@fernhollow.test').first('providers.id')
     const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist@fernhollow.test').first('providers.id')
     const [mover, blocker] = await testDb()('patients').orderBy('id').offset(150).limit(2)
-    const moving = await api.post('/api/appointments', { patientId: mover.id, siteId: quarry, operatoryId: rooms[0].id, providerId: dentist3.id, startUtc: utcAt(`${DAY}T14:00`, ZONE), items: [{ templateCode: 'EXAM-EMER' }] })
-    const busy = await api.post('/api/appointments', { patientId: blocker.id, siteId: quarry, operatoryId: rooms[1].id, providerId: dentist.id, startUtc: utcAt(`${DAY}T10:30`, ZONE), items: FILLING })
+    const moving = await api.post('/api/visits', { patientId: mover.id, siteId: quarry, operatoryId: rooms[0].id, providerId: dentist3.id, startUtc: utcAt(`${DAY}T14:00`, ZONE), items: [{ templateCode: 'EXAM-EMER' }] })
+    const busy = await api.post('/api/visits', { patientId: blocker.id, siteId: quarry, operatoryId: rooms[1].id, providerId: dentist.id, startUtc: utcAt(`${DAY}T10:30`, ZONE), items: FILLING })
     expect([moving.status, busy.status], JSON.stringify([moving.body, busy.body])).toEqual([201, 201])
 
     await openBoardOn(page)
@@ -174,7 +174,7 @@ describe('Chairboard', () => {
     const rooms = await testDb()('operatories').where({ site_id: quarry }).orderBy('sort_order').pluck('id')
     const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('users.email', 'dentist@fernhollow.test').first('providers.id')
     const patient = await testDb()('patients').orderBy('id').offset(140).first()
-    const booked = await api.post('/api/appointments', { patientId: patient.id, siteId: quarry, operatoryId: rooms[2], providerId: dentist.id, startUtc: utcAt(`${DAY}T15:00`, ZONE), items: FILLING })
+    const booked = await api.post('/api/visits', { patientId: patient.id, siteId: quarry, operatoryId: rooms[2], providerId: dentist.id, startUtc: utcAt(`${DAY}T15:00`, ZONE), items: FILLING })
     expect(booked.status).toBe(201)
     // It appears without a reload, because the board polls (how soon is for benchmarks, not asserted here).
     const block = await visitBlock(page, patient.first_name)

@@ -32,7 +32,7 @@ describe('My day, live', () => {
     await page.getByTestId('myday-empty').waitFor()
 
     const admin = await signedInAs('admin@fernhollow.test')
-    const booked = await admin.post('/api/appointments', {
+    const booked = await admin.post('/api/visits', {
       siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], patientId: annex.patientIds[0], items: FILLING, startUtc: startIn(60),
     })
     expect(booked.status, JSON.stringify(booked.body)).toBe(201)

@@ -18,7 +18,7 @@ let invitationId: number
 beforeAll(async () => {
   annex = await createMailAnnex({ patients: 1 })
   const manager = await signedInAs('manager@fernhollow.test')
-  const booked = await manager.post('/api/appointments', bookingFor(annex, 0, atAhead(2, MONDAY, '10:30', 'America/Los_Angeles')))
+  const booked = await manager.post('/api/visits', bookingFor(annex, 0, atAhead(2, MONDAY, '10:30', 'America/Los_Angeles')))
   expect(booked.status).toBe(201)
   visitId = booked.body.id
   invitationId = (await outboxRowsOf(visitId)).find((row) => row.kind === 'invitation')!.id

@@ -22,7 +22,7 @@ describe('Patients screen', () => {
     // The screen lists the next six weeks: next week's Tuesday (or its Thursday, should the Tuesday be a
     // closed day), when the demo dentist is at Quarry Street; the Week test books that week's first opening.
     const weekday = [TUESDAY, THURSDAY].find((day) => weekdayAhead(1, day, 'America/Los_Angeles') <= daysFromToday(42, 'America/Los_Angeles'))!
-    const booked = await api.post('/api/appointments', { patientId: patient.body.id, siteId: quarry, operatoryId: chair.id, providerId: dentist.id, startUtc: atAhead(1, weekday, '10:30', 'America/Los_Angeles'), items: FILLING })
+    const booked = await api.post('/api/visits', { patientId: patient.body.id, siteId: quarry, operatoryId: chair.id, providerId: dentist.id, startUtc: atAhead(1, weekday, '10:30', 'America/Los_Angeles'), items: FILLING })
     expect(booked.status).toBe(201)
 
     const { page } = browser

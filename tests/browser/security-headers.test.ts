@@ -56,7 +56,7 @@ describe('Content-Security-Policy in the browser', () => {
     const desk = await createTestUser({ role: 'front_desk', siteSlugs: [slug] })
     const day = weekdayAhead(2, TUESDAY, annex.timeZone)
     const manager = await signedInAs('manager@fernhollow.test')
-    expect((await manager.post('/api/appointments', bookingFor(annex, 0, utcAt(`${day}T09:00`, annex.timeZone)))).status).toBe(201)
+    expect((await manager.post('/api/visits', bookingFor(annex, 0, utcAt(`${day}T09:00`, annex.timeZone)))).status).toBe(201)
 
     const { page } = browser
     await signInThroughForm(page, desk.email, desk.password)
@@ -75,7 +75,7 @@ describe('Content-Security-Policy in the browser', () => {
     const annex = await createAnnex({ rooms: 1, patients: 1, timeZone: 'America/Denver' })
     const manager = await signedInAs('manager@fernhollow.test')
     const startUtc = utcAt(`${weekdayAhead(3, WEDNESDAY, annex.timeZone)}T10:00`, annex.timeZone)
-    const booked = await manager.post('/api/appointments', bookingFor(annex, 0, startUtc))
+    const booked = await manager.post('/api/visits', bookingFor(annex, 0, startUtc))
     expect(booked.status).toBe(201)
     const row = await testDb()('appointments').where({ id: booked.body.id }).first('ical_uid')
     const token = signVisitToken(process.env.NUXT_MAIL_LINK_SECRET!, { id: booked.body.id, icalUid: row.ical_uid, expiresAtMs: new Date(startUtc).getTime() + 86_400_000 })

@@ -19,7 +19,7 @@ beforeAll(async () => {
   dentistEmail = (await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('providers.id', annex.providerIds[0]).first('users.email')).email
   const admin = await signedInAs('admin@fernhollow.test')
   for (const index of [0, 1]) {
-    const booked = await admin.post('/api/appointments', {
+    const booked = await admin.post('/api/visits', {
       siteId: annex.siteId, operatoryId: annex.operatoryIds[index], providerId: annex.providerIds[index], patientId: annex.patientIds[index], items: FILLING, startUtc: startIn(30),
     })
     expect(booked.status, JSON.stringify(booked.body)).toBe(201)

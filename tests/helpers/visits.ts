@@ -14,7 +14,7 @@ export async function bookFirstOpening(client: ApiClient, options: { siteId: num
   if (search.status !== 200 || !search.body.openings.length) throw new Error(`no opening: ${search.status} ${JSON.stringify(search.body.reasons ?? search.body)}`)
   const opening = search.body.openings[0]
   const patient = await testDb()('patients').orderBy('id').offset(options.patientOffset).first('id', 'first_name', 'last_name')
-  const booked = await client.post('/api/appointments', {
+  const booked = await client.post('/api/visits', {
     patientId: patient.id, siteId: options.siteId, operatoryId: opening.operatoryId, providerId: options.providerId,
     startUtc: opening.startUtc, items: FILLING, note: options.note ?? '',
   })

@@ -42,7 +42,7 @@ describe('balance', () => {
   })
 
   it('adds up to the booked visit: the chair for all of it, the provider for hands-on work', async () => {
-    const booked = await manager.post('/api/appointments', {
+    const booked = await manager.post('/api/visits', {
       siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], patientId: annex.patientIds[0],
       startUtc: utcAt(`${DAY}T09:00`, annex.timeZone), items: FILLING,
     })

@@ -37,7 +37,7 @@ describe('booking a visit', () => {
   it('books a two-surface filling with its segments, an audit row and an outbox row', async () => {
     const startUtc = atAhead(2, MONDAY, '09:00', QUARRY_ZONE) // a Monday: the demo dentist is at Quarry Street
     const consenting = await testDb()('patients').whereNotNull('email').where({ email_consent: true }).first('id')
-    const response = await manager.post('/api/appointments', booking({ startUtc, patientId: consenting.id, operatoryId: quarry.chair3 }))
+    const response = await manager.post('/api/visits', booking({ startUtc, patientId: consenting.id, operatoryId: quarry.chair3 }))
     expect(response.status).toBe(201)
     expect(response.body).toMatchObject({ state: 'booked', rowVersion: 1, startUtc: new Date(startUtc).toISOString() })
     const kinds = response.body.segments.map((segment: { kind: string }) => segment.kind)
@@ -49,15 +49,15 @@ describe('booking a visit', () => {
   })
 
   it('books a second patient in another chair during the first one\'s numbing wait, not during hands-on work', async () => {
-    const first = await manager.post('/api/appointments', booking({ startUtc: atAhead(3, MONDAY, '09:00', QUARRY_ZONE), patientId: quarry.patients[1] }))
+    const first = await manager.post('/api/visits', booking({ startUtc: atAhead(3, MONDAY, '09:00', QUARRY_ZONE), patientId: quarry.patients[1] }))
     expect(first.status).toBe(201)
     const numbing = first.body.segments.find((segment: { kind: string }) => segment.kind === 'numbing')
     expect(numbing).toBeTruthy()
     // A sealant's hands-on minutes fit inside the 10-minute onset wait of the first patient's block.
     const sealant = [{ templateCode: 'SEAL', tooth: '3' }]
-    const during = await manager.post('/api/appointments', booking({ startUtc: atAhead(3, MONDAY, '09:05', QUARRY_ZONE), operatoryId: quarry.hygieneA, patientId: quarry.patients[2], items: sealant }))
+    const during = await manager.post('/api/visits', booking({ startUtc: atAhead(3, MONDAY, '09:05', QUARRY_ZONE), operatoryId: quarry.hygieneA, patientId: quarry.patients[2], items: sealant }))
     expect(during.status).toBe(201)
-    const overlapping = await manager.post('/api/appointments', booking({ startUtc: atAhead(3, MONDAY, '09:10', QUARRY_ZONE), operatoryId: quarry.hygieneB, patientId: quarry.patients[3], items: sealant }))
+    const overlapping = await manager.post('/api/visits', booking({ startUtc: atAhead(3, MONDAY, '09:10', QUARRY_ZONE), operatoryId: quarry.hygieneB, patientId: quarry.patients[3], items: sealant }))
     expect(overlapping.status).toBe(409)
     expect(overlapping.body.data.conflict).toMatchObject({ resource: 'provider', id: quarry.dentist })
     expect(overlapping.body.message).toMatch(/already working with another patient/)
@@ -65,10 +65,10 @@ describe('booking a visit', () => {
 
   it('refuses a second visit for a patient who already has one then', async () => {
     const startUtc = atAhead(4, MONDAY, '10:00', QUARRY_ZONE)
-    expect((await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[4] }))).status).toBe(201)
+    expect((await manager.post('/api/visits', booking({ startUtc, patientId: quarry.patients[4] }))).status).toBe(201)
     // Another room and another provider: only the patient is double-booked.
     const hygienist = await providerIdOf('hygienist.two@fernhollow.test')
-    const again = await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[4], operatoryId: quarry.hygieneA, providerId: hygienist, items: [{ templateCode: 'SEAL', tooth: '3' }] }))
+    const again = await manager.post('/api/visits', booking({ startUtc, patientId: quarry.patients[4], operatoryId: quarry.hygieneA, providerId: hygienist, items: [{ templateCode: 'SEAL', tooth: '3' }] }))
     expect(again.status).toBe(409)
     expect(again.body.data.conflict).toMatchObject({ resource: 'patient', id: quarry.patients[4] })
   })
@@ -81,70 +81,70 @@ describe('booking a visit', () => {
     ['patientId', { startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE), patientId: 99999999 }, /no such patient/],
     ['items.0.surfaces', { startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE), items: [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MOX' }] }, /X/],
   ])('answers 400 naming %s', async (field, change, reason) => {
-    const response = await manager.post('/api/appointments', booking(change))
+    const response = await manager.post('/api/visits', booking(change))
     expect(response.status).toBe(400)
     expect(response.body.data.field).toBe(field)
     expect(response.body.data.reason).toMatch(reason)
   })
 
   it('refuses a chair without the equipment (a filling in a hygiene room)', async () => {
-    const response = await manager.post('/api/appointments', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE), operatoryId: quarry.hygieneA }))
+    const response = await manager.post('/api/visits', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE), operatoryId: quarry.hygieneA }))
     expect(response.status).toBe(400)
     expect(response.body.data.field).toBe('operatoryId')
   })
 
   it('answers 409 outside opening hours and when the provider is not on shift', async () => {
-    const lateEvening = await manager.post('/api/appointments', booking({ startUtc: atAhead(6, MONDAY, '19:00', QUARRY_ZONE) }))
+    const lateEvening = await manager.post('/api/visits', booking({ startUtc: atAhead(6, MONDAY, '19:00', QUARRY_ZONE) }))
     expect(lateEvening.status).toBe(409)
     expect(lateEvening.body.data.conflict.resource).toBe('operatory')
     // Wednesdays the demo dentist works at Saguaro Flats, not Quarry Street.
-    const wednesday = await manager.post('/api/appointments', booking({ startUtc: atAhead(6, WEDNESDAY, '09:00', QUARRY_ZONE) }))
+    const wednesday = await manager.post('/api/visits', booking({ startUtc: atAhead(6, WEDNESDAY, '09:00', QUARRY_ZONE) }))
     expect(wednesday.status).toBe(409)
     expect(wednesday.body.data.conflict.resource).toBe('provider')
   })
 
   it('keeps front desk to its own sites and signed-out callers out', async () => {
     const desk = await signedInAs('desk.aspen@fernhollow.test')
-    expect((await desk.post('/api/appointments', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE) }))).status).toBe(403)
+    expect((await desk.post('/api/visits', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE) }))).status).toBe(403)
     const hygienist = await signedInAs('hygienist@fernhollow.test')
-    expect((await hygienist.post('/api/appointments', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE) }))).status).toBe(403)
-    expect((await new ApiClient().post('/api/appointments', booking({}))).status).toBe(401)
+    expect((await hygienist.post('/api/visits', booking({ startUtc: atAhead(6, MONDAY, '09:00', QUARRY_ZONE) }))).status).toBe(403)
+    expect((await new ApiClient().post('/api/visits', booking({}))).status).toBe(401)
   })
 })
 
 describe('moving, states and cancelling', () => {
   it('moves with the current row version, refuses a stale one and a busy chair', async () => {
-    const a = await manager.post('/api/appointments', booking({ startUtc: atAhead(5, MONDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[5] }))
-    const b = await manager.post('/api/appointments', booking({ startUtc: atAhead(5, MONDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[6], operatoryId: quarry.chair2, providerId: quarry.dentist, items: [{ templateCode: 'EXAM-EMER' }] }))
+    const a = await manager.post('/api/visits', booking({ startUtc: atAhead(5, MONDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[5] }))
+    const b = await manager.post('/api/visits', booking({ startUtc: atAhead(5, MONDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[6], operatoryId: quarry.chair2, providerId: quarry.dentist, items: [{ templateCode: 'EXAM-EMER' }] }))
     expect(a.status).toBe(201)
     expect([201, 409]).toContain(b.status)
-    const moved = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 1, startUtc: atAhead(5, MONDAY, '14:30', QUARRY_ZONE) })
+    const moved = await manager.patch(`/api/visits/${a.body.id}`, { rowVersion: 1, startUtc: atAhead(5, MONDAY, '14:30', QUARRY_ZONE) })
     expect(moved.status).toBe(200)
     expect(moved.body).toMatchObject({ rowVersion: 2, icalSequence: 1, startUtc: new Date(atAhead(5, MONDAY, '14:30', QUARRY_ZONE)).toISOString() })
-    const stale = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 1, startUtc: atAhead(5, MONDAY, '15:00', QUARRY_ZONE) })
+    const stale = await manager.patch(`/api/visits/${a.body.id}`, { rowVersion: 1, startUtc: atAhead(5, MONDAY, '15:00', QUARRY_ZONE) })
     expect(stale.status).toBe(409)
     expect(stale.body.data.field).toBe('rowVersion')
 
-    const blocker = await manager.post('/api/appointments', booking({ startUtc: atAhead(5, MONDAY, '14:30', QUARRY_ZONE), patientId: quarry.patients[7], operatoryId: quarry.chair3, providerId: await otherQuarryDentist(), items: [{ templateCode: 'EXAM-EMER' }] }))
+    const blocker = await manager.post('/api/visits', booking({ startUtc: atAhead(5, MONDAY, '14:30', QUARRY_ZONE), patientId: quarry.patients[7], operatoryId: quarry.chair3, providerId: await otherQuarryDentist(), items: [{ templateCode: 'EXAM-EMER' }] }))
     expect(blocker.status).toBe(201)
-    const ontoBusy = await manager.patch(`/api/appointments/${a.body.id}`, { rowVersion: 2, operatoryId: quarry.chair3 })
+    const ontoBusy = await manager.patch(`/api/visits/${a.body.id}`, { rowVersion: 2, operatoryId: quarry.chair3 })
     expect(ontoBusy.status).toBe(409)
     expect(ontoBusy.body.data.conflict).toMatchObject({ resource: 'operatory', id: quarry.chair3, appointmentId: blocker.body.id })
-    const unchanged = await manager.get(`/api/appointments/${a.body.id}`)
+    const unchanged = await manager.get(`/api/visits/${a.body.id}`)
     expect(unchanged.body).toMatchObject({ operatoryId: quarry.chair1, rowVersion: 2 })
   })
 
   it('changes a visit\'s length by hand only with a reason, and never below the work itself', async () => {
-    const visit = await manager.post('/api/appointments', booking({ startUtc: atAhead(6, THURSDAY, '08:00', QUARRY_ZONE), patientId: quarry.patients[11] }))
+    const visit = await manager.post('/api/visits', booking({ startUtc: atAhead(6, THURSDAY, '08:00', QUARRY_ZONE), patientId: quarry.patients[11] }))
     expect(visit.status).toBe(201)
     const minutes = (Date.parse(visit.body.endUtc) - Date.parse(visit.body.startUtc)) / 60_000
-    const noReason = await manager.patch(`/api/appointments/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: minutes + 15, reason: '' } })
+    const noReason = await manager.patch(`/api/visits/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: minutes + 15, reason: '' } })
     expect(noReason.status).toBe(400)
     expect(noReason.body.data.field).toBe('lengthOverride.reason')
-    const tooShort = await manager.patch(`/api/appointments/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: 10, reason: 'in a hurry' } })
+    const tooShort = await manager.patch(`/api/visits/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: 10, reason: 'in a hurry' } })
     expect(tooShort.status).toBe(400)
     expect(tooShort.body.data.field).toBe('lengthOverride.chairMinutes')
-    const longer = await manager.patch(`/api/appointments/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: minutes + 15, reason: 'anxious patient' } })
+    const longer = await manager.patch(`/api/visits/${visit.body.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: minutes + 15, reason: 'anxious patient' } })
     expect(longer.status).toBe(200)
     expect((Date.parse(longer.body.endUtc) - Date.parse(longer.body.startUtc)) / 60_000).toBe(minutes + 15)
     expect(longer.body.plan.lengthOverride).toEqual({ chairMinutes: minutes + 15, reason: 'anxious patient' })
@@ -153,23 +153,23 @@ describe('moving, states and cancelling', () => {
 
   it('allows only the glossary\'s state transitions and frees the time on cancel', async () => {
     const startUtc = atAhead(5, THURSDAY, '10:00', QUARRY_ZONE) // a Thursday
-    const visit = await manager.post('/api/appointments', booking({ startUtc, patientId: quarry.patients[8] }))
+    const visit = await manager.post('/api/visits', booking({ startUtc, patientId: quarry.patients[8] }))
     expect(visit.status).toBe(201)
     const id = visit.body.id
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'finished' })).status).toBe(409)
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'confirmed', rowVersion: 99 })).status).toBe(409)
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'confirmed', rowVersion: 1 })).body.state).toBe('confirmed')
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'booked' })).body.state).toBe('booked')
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'treating' })).status).toBe(409)
+    expect((await manager.post(`/api/visits/${id}/state`, { state: 'finished' })).status).toBe(409)
+    expect((await manager.post(`/api/visits/${id}/state`, { state: 'confirmed', rowVersion: 99 })).status).toBe(409)
+    expect((await manager.post(`/api/visits/${id}/state`, { state: 'confirmed', rowVersion: 1 })).body.state).toBe('confirmed')
+    expect((await manager.post(`/api/visits/${id}/state`, { state: 'booked' })).body.state).toBe('booked')
+    expect((await manager.post(`/api/visits/${id}/state`, { state: 'treating' })).status).toBe(409)
     // Arrived, in treatment and did not come follow the visit's day: tests/server/visit-state-rules.test.ts.
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'arrived' })).status).toBe(409)
-    expect((await manager.post(`/api/appointments/${id}/state`, { state: 'asleep' })).status).toBe(400)
+    expect((await manager.post(`/api/visits/${id}/state`, { state: 'arrived' })).status).toBe(409)
+    expect((await manager.post(`/api/visits/${id}/state`, { state: 'asleep' })).status).toBe(400)
 
-    const other = await manager.post('/api/appointments', booking({ startUtc: atAhead(5, THURSDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[9] }))
-    expect((await manager.post(`/api/appointments/${other.body.id}/cancel`, {})).status).toBe(400)
-    const cancelled = await manager.post(`/api/appointments/${other.body.id}/cancel`, { reason: 'Patient is travelling' })
+    const other = await manager.post('/api/visits', booking({ startUtc: atAhead(5, THURSDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[9] }))
+    expect((await manager.post(`/api/visits/${other.body.id}/cancel`, {})).status).toBe(400)
+    const cancelled = await manager.post(`/api/visits/${other.body.id}/cancel`, { reason: 'Patient is travelling' })
     expect(cancelled.body).toMatchObject({ state: 'cancelled', cancelReason: 'Patient is travelling', segments: [] })
-    expect((await manager.post('/api/appointments', booking({ startUtc: atAhead(5, THURSDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[10] }))).status).toBe(201)
+    expect((await manager.post('/api/visits', booking({ startUtc: atAhead(5, THURSDAY, '13:00', QUARRY_ZONE), patientId: quarry.patients[10] }))).status).toBe(201)
   })
 })
 
@@ -199,7 +199,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
     const startUtc = atAhead(2, MONDAY, '09:00', annex.timeZone)
     const clients = await Promise.all(Array.from({ length: 5 }, () => signedInAs('admin@fernhollow.test')))
     const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
-      clients[index % 5]!.post('/api/appointments', annexBooking(index, { startUtc, providerId: annex.providerIds[index % 3] }))))
+      clients[index % 5]!.post('/api/visits', annexBooking(index, { startUtc, providerId: annex.providerIds[index % 3] }))))
     expect(statuses(responses)).toEqual({ 201: 1, 409: 49 })
     expect(await visitsAt(annex.operatoryIds[0]!, startUtc)).toBe(1)
   })
@@ -207,7 +207,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
   it('50 simultaneous bookings in 50 chairs that all need one provider hands-on: exactly one wins', async () => {
     const startUtc = atAhead(2, TUESDAY, '09:00', annex.timeZone)
     const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
-      manager.post('/api/appointments', annexBooking(50 + index, { startUtc, operatoryId: annex.operatoryIds[index] }))))
+      manager.post('/api/visits', annexBooking(50 + index, { startUtc, operatoryId: annex.operatoryIds[index] }))))
     expect(statuses(responses)).toEqual({ 201: 1, 409: 49 })
     const booked = await testDb()('appointments').where({ provider_id: annex.providerIds[0], start_utc: new Date(startUtc) }).count({ count: '*' }).first()
     expect(Number(booked!.count)).toBe(1)
@@ -218,7 +218,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
     const onSecond = new ApiClient(second.url)
     await onSecond.signIn('manager@fernhollow.test')
     const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
-      (index % 2 ? onSecond : manager).post('/api/appointments', annexBooking(100 + index, { startUtc, operatoryId: annex.operatoryIds[1] }))))
+      (index % 2 ? onSecond : manager).post('/api/visits', annexBooking(100 + index, { startUtc, operatoryId: annex.operatoryIds[1] }))))
     expect(statuses(responses)).toEqual({ 201: 1, 409: 49 })
     expect(await visitsAt(annex.operatoryIds[1]!, startUtc)).toBe(1)
   })
@@ -227,14 +227,14 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
     const startUtc = atAhead(2, THURSDAY, '09:00', annex.timeZone)
     const body = annexBooking(0, { startUtc, operatoryId: annex.operatoryIds[2] })
     const headers = { 'idempotency-key': `test-key-${annex.siteId}` }
-    const [first, second] = await Promise.all([manager.post('/api/appointments', body, { headers }), manager.post('/api/appointments', body, { headers })])
+    const [first, second] = await Promise.all([manager.post('/api/visits', body, { headers }), manager.post('/api/visits', body, { headers })])
     expect(first.status).toBe(201)
     expect(second.status).toBe(201)
     expect(second.body.id).toBe(first.body.id)
-    const third = await manager.post('/api/appointments', body, { headers })
+    const third = await manager.post('/api/visits', body, { headers })
     expect(third.body.id).toBe(first.body.id)
     expect(await visitsAt(annex.operatoryIds[2]!, startUtc)).toBe(1)
-    const reused = await manager.post('/api/appointments', { ...body, operatoryId: annex.operatoryIds[3] }, { headers })
+    const reused = await manager.post('/api/visits', { ...body, operatoryId: annex.operatoryIds[3] }, { headers })
     expect(reused.status).toBe(409)
   })
 
@@ -282,7 +282,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
       const release = await holdChair(annex.operatoryIds[4]!)
       try {
         const started = Date.now()
-        const response = await onImpatient.post('/api/appointments', annexBooking(1, { startUtc, operatoryId: annex.operatoryIds[4] }))
+        const response = await onImpatient.post('/api/visits', annexBooking(1, { startUtc, operatoryId: annex.operatoryIds[4] }))
         expect(response.status).toBe(503)
         expect(response.body.message).toBe('The schedule is very busy right now. Please try again.')
         // Three attempts of about one second each: it did wait and retry, not fail at once.
@@ -296,7 +296,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
     it('books once the lock is let go during a retry', async () => {
       const startUtc = atAhead(2, FRIDAY, '11:00', annex.timeZone)
       const release = await holdChair(annex.operatoryIds[5]!)
-      const pending = onImpatient.post('/api/appointments', annexBooking(2, { startUtc, operatoryId: annex.operatoryIds[5] }))
+      const pending = onImpatient.post('/api/visits', annexBooking(2, { startUtc, operatoryId: annex.operatoryIds[5] }))
       await waitForLockRetry(annex.operatoryIds[5]!)
       await release()
       expect((await pending).status).toBe(201)

@@ -20,7 +20,7 @@ beforeAll(async () => {
   desk = await signedInAs('desk.quarry@fernhollow.test')
   quarryId = await siteIdBySlug('quarry-street')
   annex = await createAnnex({ rooms: 2, patients: 4 })
-  const booked = await admin.post('/api/appointments', {
+  const booked = await admin.post('/api/visits', {
     patientId: annex.patientIds[3], siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0],
     startUtc: `${weekdayAhead(4, MONDAY, annex.timeZone)}T15:00:00Z`, items: FILLING,
   })
@@ -75,7 +75,7 @@ describe('dates and windows on range routes', () => {
   })
 
   it('visit list: year 9999 instants are a 400 naming from', async () => {
-    expect400(await desk.get(`/api/appointments?siteId=${quarryId}&fromUtc=9999-12-25T00:00:00Z&toUtc=9999-12-31T00:00:00Z`), 'fromUtc')
+    expect400(await desk.get(`/api/visits?siteId=${quarryId}&fromUtc=9999-12-25T00:00:00Z&toUtc=9999-12-31T00:00:00Z`), 'fromUtc')
   })
 
   it('shifts, time off and blocks refuse dates outside the bounds', async () => {
@@ -88,20 +88,20 @@ describe('dates and windows on range routes', () => {
   })
 })
 
-describe('appointment starts', () => {
-  it('POST /api/appointments with startUtc 9999-12-31T23:50:00Z is a 400 naming startUtc', async () => {
-    expect400(await desk.post('/api/appointments', {
+describe('visit starts', () => {
+  it('POST /api/visits with startUtc 9999-12-31T23:50:00Z is a 400 naming startUtc', async () => {
+    expect400(await desk.post('/api/visits', {
       patientId: annex.patientIds[0], siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0],
       startUtc: '9999-12-31T23:50:00Z', items: FILLING,
     }), 'startUtc')
   })
 
-  it('PATCH /api/appointments/:id with startUtc 9999-12-31T23:50:00Z is a 400 naming startUtc', async () => {
-    expect400(await admin.patch(`/api/appointments/${visit.id}`, { rowVersion: visit.rowVersion, startUtc: '9999-12-31T23:50:00Z' }), 'startUtc')
+  it('PATCH /api/visits/:id with startUtc 9999-12-31T23:50:00Z is a 400 naming startUtc', async () => {
+    expect400(await admin.patch(`/api/visits/${visit.id}`, { rowVersion: visit.rowVersion, startUtc: '9999-12-31T23:50:00Z' }), 'startUtc')
   })
 
   it('a start more than three years ahead is a 400 naming startUtc', async () => {
-    expect400(await desk.post('/api/appointments', {
+    expect400(await desk.post('/api/visits', {
       patientId: annex.patientIds[0], siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0],
       startUtc: tooLateInstant(), items: FILLING,
     }), 'startUtc')
@@ -167,7 +167,7 @@ describe('request body size', () => {
   })
 
   it('a chunked body over 256 KiB is a 413 on every API route, signed in or not', async () => {
-    for (const path of ['/api/auth/login', '/api/appointments', '/api/visit/x/confirm']) {
+    for (const path of ['/api/auth/login', '/api/visits', '/api/visit/x/confirm']) {
       const response = await rawRequest({
         method: 'POST', path, headers: { 'content-type': 'application/json', 'transfer-encoding': 'chunked', cookie: desk.cookie },
         write: (req) => {
@@ -212,7 +212,7 @@ describe('names and free text refuse line breaks and control characters', () => 
   }
 
   it('a cancel reason and a block reason with a line break are 400', async () => {
-    expect400(await admin.post(`/api/appointments/${visit.id}/cancel`, { reason: 'Patient asked\r\nX-Injected: yes' }), 'reason')
+    expect400(await admin.post(`/api/visits/${visit.id}/cancel`, { reason: 'Patient asked\r\nX-Injected: yes' }), 'reason')
     expect400(await admin.post('/api/blocks', { siteId: quarryId, startDate: weekdayAhead(3, MONDAY), localStart: '08:00', localEnd: '09:00', reason: 'Meeting\n' + 'x\u0085' }), 'reason')
   })
 
@@ -229,9 +229,9 @@ describe('idempotency keys', () => {
     const day = weekdayAhead(5, MONDAY, annex.timeZone)
     const base = { patientId: annex.patientIds[1], siteId: annex.siteId, providerId: annex.providerIds[0], items: FILLING }
     const key = `Case-Key-${annex.siteId}-abc`
-    const first = await admin.post('/api/appointments', { ...base, operatoryId: annex.operatoryIds[0], startUtc: `${day}T15:00:00Z` }, { headers: { 'idempotency-key': key } })
+    const first = await admin.post('/api/visits', { ...base, operatoryId: annex.operatoryIds[0], startUtc: `${day}T15:00:00Z` }, { headers: { 'idempotency-key': key } })
     expect(first.status, JSON.stringify(first.body)).toBe(201)
-    const second = await admin.post('/api/appointments', { ...base, patientId: annex.patientIds[2], operatoryId: annex.operatoryIds[1], startUtc: `${day}T18:00:00Z` }, { headers: { 'idempotency-key': key.toLowerCase() } })
+    const second = await admin.post('/api/visits', { ...base, patientId: annex.patientIds[2], operatoryId: annex.operatoryIds[1], startUtc: `${day}T18:00:00Z` }, { headers: { 'idempotency-key': key.toLowerCase() } })
     expect(second.status, JSON.stringify(second.body)).toBe(201)
     expect(second.body.id).not.toBe(first.body.id)
     const keys = await testDb()('idempotency_keys').whereIn('idempotency_key', [key, key.toLowerCase()]).pluck('idempotency_key')

@@ -43,7 +43,7 @@ describe('invitation, update and cancellation', () => {
 
   it('sends an invitation whose calendar part is a METHOD:REQUEST event for the booked chair time', async () => {
     const startUtc = atAhead(2, MONDAY, '10:00', ZONE)
-    const booked = await manager.post('/api/appointments', bookingFor(annex, 0, startUtc))
+    const booked = await manager.post('/api/visits', bookingFor(annex, 0, startUtc))
     expect(booked.status).toBe(201)
     visitId = booked.body.id
     uid = booked.body.icalUid
@@ -65,7 +65,7 @@ describe('invitation, update and cancellation', () => {
     // RFC 5546 §3.2.2: ORGANIZER and at least one ATTENDEE.
     expect(String(vevent.getFirstPropertyValue('organizer')).toLowerCase()).toBe(`mailto:${annex.siteEmail}`)
     expect(vevent.getAllProperties('attendee').map((attendee) => String(attendee.getFirstValue()).toLowerCase())).toContain(`mailto:${annex.emails[0]}`)
-    // DTSTART is the appointment's UTC start (UTC form, so no VTIMEZONE is needed; RFC 5546 §3.2.2).
+    // DTSTART is the visit's UTC start (UTC form, so no VTIMEZONE is needed; RFC 5546 §3.2.2).
     const row = await testDb()('appointments').where({ id: visitId }).first()
     const dtstart = vevent.getFirstPropertyValue('dtstart') as { toJSDate: () => Date }
     expect(dtstart.toJSDate().toISOString()).toBe(row.start_utc.toISOString())
@@ -103,8 +103,8 @@ describe('invitation, update and cancellation', () => {
   })
 
   it('sends an update with the same UID and a higher SEQUENCE when the visit moves (RFC 5546 §2.1.4, §2.1.5)', async () => {
-    const visit = await manager.get(`/api/appointments/${visitId}`)
-    const moved = await manager.patch(`/api/appointments/${visitId}`, { rowVersion: visit.body.rowVersion, startUtc: atAhead(2, TUESDAY, '14:00', ZONE) })
+    const visit = await manager.get(`/api/visits/${visitId}`)
+    const moved = await manager.patch(`/api/visits/${visitId}`, { rowVersion: visit.body.rowVersion, startUtc: atAhead(2, TUESDAY, '14:00', ZONE) })
     expect(moved.status).toBe(200)
     const update = await arrived(visitId, 'update', annex.emails[0]!)
     expect(calendarMethodParam(update)).toBe('REQUEST')
@@ -128,7 +128,7 @@ describe('invitation, update and cancellation', () => {
 
   it('sends METHOD:CANCEL with the same UID, STATUS:CANCELLED, a higher SEQUENCE and no VALARM on cancel (RFC 5546 §3.2.5)', async () => {
     const before = await testDb()('appointments').where({ id: visitId }).first()
-    const cancelled = await manager.post(`/api/appointments/${visitId}/cancel`, { reason: 'Patient is travelling' })
+    const cancelled = await manager.post(`/api/visits/${visitId}/cancel`, { reason: 'Patient is travelling' })
     expect(cancelled.status).toBe(200)
     const cancellation = await arrived(visitId, 'cancellation', annex.emails[0]!)
     expect(calendarMethodParam(cancellation)).toBe('CANCEL')
@@ -149,7 +149,7 @@ describe('invitation, update and cancellation', () => {
 describe('consent', () => {
   it('queues nothing for a patient without e-mail consent', async () => {
     await testDb()('patients').where({ id: annex.patientIds[1] }).update({ email_consent: false })
-    const booked = await manager.post('/api/appointments', bookingFor(annex, 1, atAhead(3, MONDAY, '10:00', ZONE)))
+    const booked = await manager.post('/api/visits', bookingFor(annex, 1, atAhead(3, MONDAY, '10:00', ZONE)))
     expect(booked.status).toBe(201)
     expect(await outboxRowsOf(booked.body.id)).toHaveLength(0)
   })
@@ -157,7 +157,7 @@ describe('consent', () => {
   it('checks consent again at send time: withdrawn after booking, the message is skipped', async () => {
     // Booked on a mail lane no process serves, so nothing is sent before consent is withdrawn.
     const held = await createMailAnnex({ patients: 1, mailLane: `held-${annex.siteId}` })
-    const booked = await manager.post('/api/appointments', bookingFor(held, 0, atAhead(3, MONDAY, '13:00', ZONE)))
+    const booked = await manager.post('/api/visits', bookingFor(held, 0, atAhead(3, MONDAY, '13:00', ZONE)))
     expect(booked.status).toBe(201)
     expect((await outboxRow(booked.body.id, 'invitation')).state).toBe('queued')
     await testDb()('patients').where({ id: held.patientIds[0] }).update({ email_consent: false })
@@ -171,10 +171,10 @@ describe('consent', () => {
 describe('mail held up past the visit', () => {
   it('skips an invitation once the visit has begun, and a cancellation once its time has passed', async () => {
     const held = await createMailAnnex({ patients: 2, mailLane: `late-${annex.siteId}` })
-    const kept = await manager.post('/api/appointments', bookingFor(held, 0, atAhead(3, TUESDAY, '09:00', ZONE)))
-    const dropped = await manager.post('/api/appointments', bookingFor(held, 1, atAhead(3, TUESDAY, '11:00', ZONE)))
+    const kept = await manager.post('/api/visits', bookingFor(held, 0, atAhead(3, TUESDAY, '09:00', ZONE)))
+    const dropped = await manager.post('/api/visits', bookingFor(held, 1, atAhead(3, TUESDAY, '11:00', ZONE)))
     expect([kept.status, dropped.status]).toEqual([201, 201])
-    expect((await manager.post(`/api/appointments/${dropped.body.id}/cancel`, { reason: 'Patient moved away' })).status).toBe(200)
+    expect((await manager.post(`/api/visits/${dropped.body.id}/cancel`, { reason: 'Patient moved away' })).status).toBe(200)
     // As if the mail had waited through a long outage: both visits now lie in the past.
     const lastWeek = DateTime.now().minus({ days: 7 })
     for (const id of [kept.body.id, dropped.body.id]) {
@@ -194,7 +194,7 @@ describe('the signed visit link', () => {
   let token: string
 
   beforeAll(async () => {
-    const booked = await manager.post('/api/appointments', bookingFor(annex, 3, atAhead(4, MONDAY, '09:00', ZONE)))
+    const booked = await manager.post('/api/visits', bookingFor(annex, 3, atAhead(4, MONDAY, '09:00', ZONE)))
     expect(booked.status).toBe(201)
     visitId = booked.body.id
     link = visitLinkOf(await arrived(visitId, 'invitation', annex.emails[3]!))
@@ -223,7 +223,7 @@ describe('the signed visit link', () => {
       expect((await patient.get(`/api/visit/${encodeURIComponent(bad)}`)).status).toBe(404)
       expect((await patient.post(`/api/visit/${encodeURIComponent(bad)}/confirm`)).status).toBe(404)
     }
-    expect((await patient.get(`/api/appointments/${visitId + 1}/ics?token=${encodeURIComponent(token)}`)).status).toBe(404)
+    expect((await patient.get(`/api/visits/${visitId + 1}/ics?token=${encodeURIComponent(token)}`)).status).toBe(404)
   })
 
   it('refuses an expired token (signed correctly, but after the visit) with 410', async () => {
@@ -234,13 +234,13 @@ describe('the signed visit link', () => {
   })
 
   it('downloads the current event as text/calendar with the visit\'s UID (RFC 5545 §3.6.1, RFC 6047 §2.4)', async () => {
-    const response = await fetch(new URL(`/api/appointments/${visitId}/ics?token=${encodeURIComponent(token)}`, manager.baseURL))
+    const response = await fetch(new URL(`/api/visits/${visitId}/ics?token=${encodeURIComponent(token)}`, manager.baseURL))
     expect(response.status).toBe(200)
     expect(response.headers.get('content-type')).toMatch(/^text\/calendar;.*method=REQUEST/)
     const vevent = veventOf(parseCalendar(await response.text()))
     const row = await testDb()('appointments').where({ id: visitId }).first()
     expect(vevent.getFirstPropertyValue('uid')).toBe(row.ical_uid)
-    expect((await new ApiClient().get(`/api/appointments/${visitId}/ics`)).status).toBe(400)
+    expect((await new ApiClient().get(`/api/visits/${visitId}/ics`)).status).toBe(400)
   })
 
   it('records a cancel request for the front desk without cancelling (default policy)', async () => {
@@ -252,7 +252,7 @@ describe('the signed visit link', () => {
     expect(row.cancel_requested_at).not.toBeNull()
     expect(await testDb()('audit_log').where({ action: 'visit_cancel_requested', entity_id: String(visitId) })).toHaveLength(1)
     // The front desk sees it: on the visit and in the Outbox's list of requests.
-    expect((await manager.get(`/api/appointments/${visitId}`)).body.cancelRequestedAt).toBe(row.cancel_requested_at.toISOString())
+    expect((await manager.get(`/api/visits/${visitId}`)).body.cancelRequestedAt).toBe(row.cancel_requested_at.toISOString())
     const requests = await manager.get(`/api/outbox/cancel-requests?siteId=${annex.siteId}`)
     expect(requests.body.map((request: { appointmentId: number }) => request.appointmentId)).toContain(visitId)
     expect((await (await signedInAs('desk.aspen@fernhollow.test')).get(`/api/outbox/cancel-requests?siteId=${annex.siteId}`)).status).toBe(403)
@@ -260,7 +260,7 @@ describe('the signed visit link', () => {
 
   it('cancels at once where the site says so, sending the cancellation', async () => {
     const eager = await createMailAnnex({ patients: 1, settings: { patientCancel: 'cancel' } })
-    const booked = await manager.post('/api/appointments', bookingFor(eager, 0, atAhead(4, TUESDAY, '09:00', ZONE)))
+    const booked = await manager.post('/api/visits', bookingFor(eager, 0, atAhead(4, TUESDAY, '09:00', ZONE)))
     const own = visitLinkOf(await arrived(booked.body.id, 'invitation', eager.emails[0]!))
     const ownToken = decodeURIComponent(new URL(own).pathname.split('/').pop()!)
     const cancelled = await new ApiClient().post(`/api/visit/${encodeURIComponent(ownToken)}/cancel`)
@@ -273,7 +273,7 @@ describe('the signed visit link', () => {
 
 describe('Outbox API', () => {
   it('lists a visit\'s messages, shows the rendered message and .ics, and resends', async () => {
-    const booked = await manager.post('/api/appointments', bookingFor(annex, 4, atAhead(5, MONDAY, '10:00', ZONE)))
+    const booked = await manager.post('/api/visits', bookingFor(annex, 4, atAhead(5, MONDAY, '10:00', ZONE)))
     const first = await arrived(booked.body.id, 'invitation', annex.emails[4]!)
     const list = await manager.get(`/api/outbox?appointmentId=${booked.body.id}`)
     expect(list.status).toBe(200)
@@ -298,7 +298,7 @@ describe('Outbox API', () => {
 
   it('names the procedure only when the site turns includeProcedureNames on', async () => {
     const open = await createMailAnnex({ patients: 1, settings: { includeProcedureNames: true } })
-    const booked = await manager.post('/api/appointments', bookingFor(open, 0, atAhead(5, TUESDAY, '10:00', ZONE)))
+    const booked = await manager.post('/api/visits', bookingFor(open, 0, atAhead(5, TUESDAY, '10:00', ZONE)))
     const mail = await arrived(booked.body.id, 'invitation', open.emails[0]!)
     expect(everything(mail)).toContain('Posterior composite')
   })

@@ -19,7 +19,7 @@ import { ApiClient } from '../helpers/api-client'
 import { closeTestDb, createTestUser, testDb } from '../helpers/db'
 import { daysFromToday } from '../helpers/dates'
 import { SignInSchema } from '../../shared/schemas/auth'
-import { BookAppointmentSchema, NewPatientSchema } from '../../shared/schemas/appointments'
+import { BookVisitSchema, NewPatientSchema } from '../../shared/schemas/visits'
 import { OperatorySchema, SiteSchema } from '../../shared/schemas/sites'
 import { ProviderSchema, StaffSchema } from '../../shared/schemas/people'
 import { BlockSchema, ShiftExceptionSchema, ShiftSchema } from '../../shared/schemas/rota'
@@ -59,7 +59,7 @@ function discoverRoutes(dir = API_DIR): Route[] {
  * bodies are never sent (their schema decides). A new write route must be added here.
  */
 const CREATE_GUARDS: Record<string, ZodType> = {
-  'POST /api/appointments': BookAppointmentSchema,
+  'POST /api/visits': BookVisitSchema,
   'POST /api/blocks': BlockSchema,
   'POST /api/operatories': OperatorySchema,
   'POST /api/patients': NewPatientSchema,
@@ -267,7 +267,7 @@ describe('no request a caller can send is answered with a 5xx', () => {
 
   it('finds every route file under server/api/', () => {
     expect(routes.length).toBeGreaterThan(50)
-    expect(routes).toContainEqual({ method: 'PATCH', template: '/api/appointments/[id]', params: ['id'] })
+    expect(routes).toContainEqual({ method: 'PATCH', template: '/api/visits/[id]', params: ['id'] })
     expect(routes).toContainEqual({ method: 'POST', template: '/api/visit/[token]/confirm', params: ['token'] })
     expect(routes).toContainEqual({ method: 'GET', template: '/api/rota', params: [] })
     for (const route of routes) {

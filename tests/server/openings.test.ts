@@ -31,7 +31,7 @@ describe('POST /api/openings', () => {
 
     const patient = await testDb()('patients').orderBy('id', 'desc').first('id')
     const first = response.body.openings[0]
-    const booked = await desk.post('/api/appointments', {
+    const booked = await desk.post('/api/visits', {
       patientId: patient.id, siteId: first.siteId, operatoryId: first.operatoryId, providerId: first.providerId, startUtc: first.startUtc, items: FILLING,
     })
     expect(booked.status).toBe(201)

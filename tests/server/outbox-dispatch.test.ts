@@ -54,7 +54,7 @@ describe('with the SMTP server down', () => {
     await desk.signIn('manager@fernhollow.test')
     const ids: number[] = []
     for (const [index, time] of ['09:00', '11:00', '13:00'].entries()) {
-      const booked = await desk.post('/api/appointments', bookingFor(annex, index, atAhead(2, MONDAY, time, ZONE)))
+      const booked = await desk.post('/api/visits', bookingFor(annex, index, atAhead(2, MONDAY, time, ZONE)))
       expect(booked.status).toBe(201)
       ids.push(booked.body.id)
     }
@@ -86,7 +86,7 @@ describe('two dispatcher processes', () => {
     servers.push(one!, two!)
     const desk = new ApiClient(one!.url)
     await desk.signIn('manager@fernhollow.test')
-    const booked = await desk.post('/api/appointments', bookingFor(annex, 0, atAhead(3, MONDAY, '09:00', ZONE)))
+    const booked = await desk.post('/api/visits', bookingFor(annex, 0, atAhead(3, MONDAY, '09:00', ZONE)))
     expect(booked.status).toBe(201)
 
     const rows = Array.from({ length: 200 }, () => ({
@@ -121,7 +121,7 @@ describe('giving up and taking over', () => {
     servers.push(server)
     const desk = new ApiClient(server.url)
     await desk.signIn('manager@fernhollow.test')
-    const booked = await desk.post('/api/appointments', bookingFor(annex, 0, atAhead(4, MONDAY, '09:00', ZONE)))
+    const booked = await desk.post('/api/visits', bookingFor(annex, 0, atAhead(4, MONDAY, '09:00', ZONE)))
     expect(booked.status).toBe(201)
     const invitation = () => testDb()('outbox').where({ appointment_id: booked.body.id, kind: 'invitation' }).first()
     await expect.poll(async () => (await invitation()).state, { timeout: 20_000, interval: 200 }).toBe('failed')

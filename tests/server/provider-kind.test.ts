@@ -50,7 +50,7 @@ describe('provider kind from the role', () => {
     expect(desk.body).toMatchObject({ role: 'front_desk', providerId: null })
     expect(await listed(annex)).toEqual([])
     expect((await testDb()('providers').where({ id: providerId }).first('active')).active).toBe(0)
-    const booking = await admin.post('/api/appointments', { siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId, patientId: 1, startUtc: atAhead(3, MONDAY, '09:00', annex.timeZone), items: FILLING })
+    const booking = await admin.post('/api/visits', { siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId, patientId: 1, startUtc: atAhead(3, MONDAY, '09:00', annex.timeZone), items: FILLING })
     expect(booking.status).toBe(400)
     expect(booking.body.data).toMatchObject({ field: 'providerId' })
 
@@ -64,7 +64,7 @@ describe('provider kind from the role', () => {
     const annex = await createAnnex({ rooms: 1, patients: 1 })
     const providerId = annex.providerIds[0]!
     const userId = await userOfProvider(providerId)
-    const booked = await admin.post('/api/appointments', {
+    const booked = await admin.post('/api/visits', {
       siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId, patientId: annex.patientIds[0],
       startUtc: atAhead(2, MONDAY, '09:00', annex.timeZone), items: FILLING,
     })
@@ -79,7 +79,7 @@ describe('provider kind from the role', () => {
     expect(unchanged.body.find((account: { id: number }) => account.id === userId)).toMatchObject({ role: 'dentist', providerId })
     expect(await listed(annex)).toEqual([expect.objectContaining({ id: providerId, active: true })])
 
-    const cancelled = await admin.post(`/api/appointments/${booked.body.id}/cancel`, { reason: 'Provider leaves the chair' })
+    const cancelled = await admin.post(`/api/visits/${booked.body.id}/cancel`, { reason: 'Provider leaves the chair' })
     expect(cancelled.status).toBe(200)
     const allowed = await admin.patch(`/api/users/${userId}`, { role: 'assistant' })
     expect(allowed.status).toBe(200)

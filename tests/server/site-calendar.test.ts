@@ -61,15 +61,15 @@ describe('calendar version triggers', () => {
 
 describe('bookings see rota changes at once', () => {
   it('refuses a newly blocked chair and a removed shift right after a booking loaded the calendar', async () => {
-    expect((await manager.post('/api/appointments', visitAt(TUESDAY, '09:00', 0))).status).toBe(201)
+    expect((await manager.post('/api/visits', visitAt(TUESDAY, '09:00', 0))).status).toBe(201)
     // Written straight to the database, past the app: the triggers alone must make it seen.
     await testDb()('blocks').insert({ site_id: annex.siteId, operatory_id: annex.operatoryIds[0], start_date: weekdayAhead(2, TUESDAY, annex.timeZone), local_start: '13:00', local_end: '15:00', reason: 'Compressor repair' })
-    const blocked = await manager.post('/api/appointments', visitAt(TUESDAY, '13:30', 1))
+    const blocked = await manager.post('/api/visits', visitAt(TUESDAY, '13:30', 1))
     expect(blocked.status).toBe(409)
     expect(blocked.body.data.conflict).toMatchObject({ resource: 'operatory', id: annex.operatoryIds[0] })
 
     await testDb()('shifts').where({ provider_id: annex.providerIds[0], site_id: annex.siteId }).update({ valid_until: weekdayAhead(2, TUESDAY, annex.timeZone) })
-    const afterShiftEnds = await manager.post('/api/appointments', visitAt(WEDNESDAY, '09:00', 2))
+    const afterShiftEnds = await manager.post('/api/visits', visitAt(WEDNESDAY, '09:00', 2))
     expect(afterShiftEnds.status).toBe(409)
     expect(afterShiftEnds.body.data.conflict).toMatchObject({ resource: 'provider', id: annex.providerIds[0] })
   })

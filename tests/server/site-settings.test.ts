@@ -78,10 +78,10 @@ describe('site settings', () => {
     // 95–100 minutes from now, on the 5-minute grid: inside the new two-hour notice.
     const fiveMinutes = 5 * 60_000
     const soon = new Date(Math.floor((Date.now() + 100 * 60_000) / fiveMinutes) * fiveMinutes).toISOString()
-    const early = await manager.post('/api/appointments', bookingFor(annex, 0, soon))
+    const early = await manager.post('/api/visits', bookingFor(annex, 0, soon))
     expect(early.status).toBe(400)
     expect(early.body.data).toMatchObject({ field: 'startUtc', reason: 'must be at least 120 minutes from now' })
-    const later = await manager.post('/api/appointments', bookingFor(annex, 1, atAhead(3, TUESDAY, '11:00', 'America/Los_Angeles')))
+    const later = await manager.post('/api/visits', bookingFor(annex, 1, atAhead(3, TUESDAY, '11:00', 'America/Los_Angeles')))
     expect(later.status).toBe(201)
     const reminders = (await outboxRowsOf(later.body.id)).filter((row) => row.kind === 'reminder')
     expect(reminders.map((row) => json(row.payload).offsetHours).sort((a: number, b: number) => b - a)).toEqual([72, 24])

@@ -14,19 +14,19 @@ async function listedProcedures(notation: 'universal' | 'iso'): Promise<string[]
   await testDb()('sites').where({ id: annex.siteId }).update({ tooth_notation: notation })
   const admin = await signedInAs('admin@fernhollow.test')
   const date = weekdayAhead(3, WEDNESDAY, annex.timeZone)
-  const booked = await admin.post('/api/appointments', {
+  const booked = await admin.post('/api/visits', {
     patientId: annex.patientIds[0], siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0],
     startUtc: utcAt(`${date}T10:00`, annex.timeZone), items: FILLING,
   })
   expect(booked.status).toBe(201)
   const from = encodeURIComponent(utcAt(`${date}T00:00`, annex.timeZone))
   const to = encodeURIComponent(utcAt(`${date}T23:59`, annex.timeZone))
-  const listed = await admin.get(`/api/appointments?siteId=${annex.siteId}&fromUtc=${from}&toUtc=${to}`)
+  const listed = await admin.get(`/api/visits?siteId=${annex.siteId}&fromUtc=${from}&toUtc=${to}`)
   expect(listed.status).toBe(200)
   return listed.body.find((visit: { id: number }) => visit.id === booked.body.id).procedures
 }
 
-describe('GET /api/appointments: tooth numbers in the site\'s notation', () => {
+describe('GET /api/visits: tooth numbers in the site\'s notation', () => {
   it('writes the tooth in ISO 3950 at a site that uses it', async () => {
     expect(await listedProcedures('iso')).toEqual(['Posterior composite 36 MO'])
   })

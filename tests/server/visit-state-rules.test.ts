@@ -24,7 +24,7 @@ const bookedIds: number[] = []
 afterEach(async () => { if (bookedIds.length) await testDb()('appointment_segments').whereIn('appointment_id', bookedIds).delete() })
 
 async function book(startUtc: string, options: { providerIndex?: number; operatoryIndex?: number } = {}) {
-  const response = await admin.post('/api/appointments', {
+  const response = await admin.post('/api/visits', {
     siteId: annex.siteId, operatoryId: annex.operatoryIds[options.operatoryIndex ?? patient % 4], providerId: annex.providerIds[options.providerIndex ?? 0],
     patientId: annex.patientIds[patient++], items: FILLING, startUtc,
   })
@@ -50,10 +50,10 @@ describe('a visit\'s state follows its time', () => {
   it('a visit weeks ahead cannot be marked did not come or arrived, and keeps its chair', async () => {
     const visit = await book(startIn(21 * 24 * 60))
     const day = DateTime.fromISO(visit.startUtc).setZone(annex.timeZone)
-    const missed = await admin.post(`/api/appointments/${visit.id}/state`, { state: 'missed' })
+    const missed = await admin.post(`/api/visits/${visit.id}/state`, { state: 'missed' })
     expect(missed.status).toBe(409)
     expect(missed.body.message).toBe(`The visit starts ${day.toFormat('ccc d LLL')} at ${day.toFormat('HH:mm')}: it can be marked did not come only after its start.`)
-    const arrived = await admin.post(`/api/appointments/${visit.id}/state`, { state: 'arrived' })
+    const arrived = await admin.post(`/api/visits/${visit.id}/state`, { state: 'arrived' })
     expect(arrived.status).toBe(409)
     expect(arrived.body.message).toBe(`${day.toFormat('ccc d LLL')} is not today: a visit can be marked arrived only on its day.`)
     expect(await stateOf(visit.id)).toBe('booked')
@@ -63,10 +63,10 @@ describe('a visit\'s state follows its time', () => {
   it('a visit later today: arrived only from 60 minutes before its start, missed only after it', async () => {
     const visit = await book(startIn(120))
     const start = DateTime.fromISO(visit.startUtc).setZone(annex.timeZone)
-    const early = await admin.post(`/api/appointments/${visit.id}/state`, { state: 'arrived' })
+    const early = await admin.post(`/api/visits/${visit.id}/state`, { state: 'arrived' })
     expect(early.status).toBe(409)
     expect(early.body.message).toBe(`The visit starts at ${start.toFormat('HH:mm')}: it can be marked arrived from ${start.minus({ minutes: 60 }).toFormat('HH:mm')}, 60 minutes before.`)
-    const missed = await admin.post(`/api/appointments/${visit.id}/state`, { state: 'missed' })
+    const missed = await admin.post(`/api/visits/${visit.id}/state`, { state: 'missed' })
     expect(missed.status).toBe(409)
     expect(missed.body.message).toMatch(/it can be marked did not come only after its start\.$/)
   })
@@ -74,7 +74,7 @@ describe('a visit\'s state follows its time', () => {
   it('a visit starting within the hour goes arrived → in treatment → finished', async () => {
     const visit = await book(startIn(30))
     for (const state of ['arrived', 'treating', 'finished']) {
-      const response = await admin.post(`/api/appointments/${visit.id}/state`, { state })
+      const response = await admin.post(`/api/visits/${visit.id}/state`, { state })
       expect(response.status, JSON.stringify(response.body)).toBe(200)
       expect(response.body.state).toBe(state)
     }
@@ -83,25 +83,25 @@ describe('a visit\'s state follows its time', () => {
   it('a visit that began can be marked did not come, which frees its chair', async () => {
     const visit = await book(startIn(30))
     await setBack(visit.id, 60)
-    const response = await admin.post(`/api/appointments/${visit.id}/state`, { state: 'missed' })
+    const response = await admin.post(`/api/visits/${visit.id}/state`, { state: 'missed' })
     expect(response.status).toBe(200)
     expect(response.body).toMatchObject({ state: 'missed', segments: [] })
   })
 
   it('treatment starts only on the visit\'s day; a visit left in treatment can be finished the day after', async () => {
     const visit = await book(startIn(30))
-    expect((await admin.post(`/api/appointments/${visit.id}/state`, { state: 'arrived' })).status).toBe(200)
+    expect((await admin.post(`/api/visits/${visit.id}/state`, { state: 'arrived' })).status).toBe(200)
     await setBack(visit.id, 24 * 60)
     const yesterday = DateTime.now().setZone(annex.timeZone).minus({ days: 1 }).toFormat('ccc d LLL')
-    const treating = await admin.post(`/api/appointments/${visit.id}/state`, { state: 'treating' })
+    const treating = await admin.post(`/api/visits/${visit.id}/state`, { state: 'treating' })
     expect(treating.status).toBe(409)
     expect(treating.body.message).toBe(`${yesterday} is not today: a visit can be marked in treatment only on its day.`)
 
     const forgotten = await book(startIn(30))
-    expect((await admin.post(`/api/appointments/${forgotten.id}/state`, { state: 'arrived' })).status).toBe(200)
-    expect((await admin.post(`/api/appointments/${forgotten.id}/state`, { state: 'treating' })).status).toBe(200)
+    expect((await admin.post(`/api/visits/${forgotten.id}/state`, { state: 'arrived' })).status).toBe(200)
+    expect((await admin.post(`/api/visits/${forgotten.id}/state`, { state: 'treating' })).status).toBe(200)
     await setBack(forgotten.id, 24 * 60)
-    const finished = await admin.post(`/api/appointments/${forgotten.id}/state`, { state: 'finished' })
+    const finished = await admin.post(`/api/visits/${forgotten.id}/state`, { state: 'finished' })
     expect(finished.status).toBe(200)
     expect(finished.body.state).toBe('finished')
   })
@@ -139,7 +139,7 @@ describe('who may change a visit', () => {
     const visit = await book(startIn(30))
     for (const client of [otherDentist, hygienist, assistant]) {
       for (const state of ['arrived', 'missed', 'confirmed']) {
-        const response = await client.post(`/api/appointments/${visit.id}/state`, { state })
+        const response = await client.post(`/api/visits/${visit.id}/state`, { state })
         expect(response.status).toBe(403)
         expect(response.body.message).toBe(NOT_YOURS)
       }
@@ -149,7 +149,7 @@ describe('who may change a visit', () => {
 
   it('another site\'s front desk may not either', async () => {
     const visit = await book(startIn(30))
-    const response = await foreignDesk.post(`/api/appointments/${visit.id}/state`, { state: 'arrived' })
+    const response = await foreignDesk.post(`/api/visits/${visit.id}/state`, { state: 'arrived' })
     expect(response.status).toBe(403)
     expect(response.body.message).toBe('This site is outside your sites.')
   })
@@ -157,19 +157,19 @@ describe('who may change a visit', () => {
   it('the visit\'s own provider and the site\'s front desk may', async () => {
     const mine = await book(startIn(30))
     for (const state of ['arrived', 'treating', 'finished']) {
-      expect((await ownProvider.post(`/api/appointments/${mine.id}/state`, { state })).body.state).toBe(state)
+      expect((await ownProvider.post(`/api/visits/${mine.id}/state`, { state })).body.state).toBe(state)
     }
     const desks = await book(startIn(30), { providerIndex: 1 })
-    expect((await desk.post(`/api/appointments/${desks.id}/state`, { state: 'arrived' })).body.state).toBe('arrived')
+    expect((await desk.post(`/api/visits/${desks.id}/state`, { state: 'arrived' })).body.state).toBe('arrived')
   })
 
   it('a provider, even the visit\'s own, may not move, change the length of or cancel it: 403', async () => {
     const visit = await book(startIn(3 * 24 * 60))
-    const move = await ownProvider.patch(`/api/appointments/${visit.id}`, { rowVersion: 1, startUtc: startIn(3 * 24 * 60 + 60) })
+    const move = await ownProvider.patch(`/api/visits/${visit.id}`, { rowVersion: 1, startUtc: startIn(3 * 24 * 60 + 60) })
     expect(move.status).toBe(403)
-    const length = await ownProvider.patch(`/api/appointments/${visit.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: 120, reason: 'anxious patient' } })
+    const length = await ownProvider.patch(`/api/visits/${visit.id}`, { rowVersion: 1, lengthOverride: { chairMinutes: 120, reason: 'anxious patient' } })
     expect(length.status).toBe(403)
-    const cancel = await ownProvider.post(`/api/appointments/${visit.id}/cancel`, { reason: 'not mine to cancel' })
+    const cancel = await ownProvider.post(`/api/visits/${visit.id}/cancel`, { reason: 'not mine to cancel' })
     expect(cancel.status).toBe(403)
     expect(cancel.body.message).toBe('Your role does not allow this.')
     expect(await stateOf(visit.id)).toBe('booked')

@@ -1,6 +1,6 @@
 // GET /api/patients?q=: find patients by name, birth date (YYYY-MM-DD), phone digits or e-mail.
-import { PatientSearchSchema } from '#shared/schemas/appointments'
-import type { PatientDto } from '#shared/types/appointments'
+import { PatientSearchSchema } from '#shared/schemas/visits'
+import type { PatientDto } from '#shared/types/visits'
 import { STAFF_ROLES, requireRole } from '../../utils/auth'
 import { useDb } from '../../utils/db'
 import { validateWith } from '../../utils/errors'

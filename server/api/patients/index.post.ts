@@ -1,7 +1,7 @@
 // POST /api/patients: register a patient (front desk, managers, admins).
 import { DateTime } from 'luxon'
-import { NewPatientSchema } from '#shared/schemas/appointments'
-import type { PatientDto } from '#shared/types/appointments'
+import { NewPatientSchema } from '#shared/schemas/visits'
+import type { PatientDto } from '#shared/types/visits'
 import { BOOKING_ROLES, requireRole } from '../../utils/auth'
 import { badRequest, validateWith } from '../../utils/errors'
 import { registerPatient } from '../../services/patient-service'

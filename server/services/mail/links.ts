@@ -12,6 +12,6 @@ export function patientLinks(publicUrl: string, token: string, appointmentId: nu
   const base = publicUrl.replace(/\/+$/, '')
   return {
     visitPage: `${base}/visit/${encodeURIComponent(token)}`,
-    ics: `${base}/api/appointments/${appointmentId}/ics?token=${encodeURIComponent(token)}`,
+    ics: `${base}/api/visits/${appointmentId}/ics?token=${encodeURIComponent(token)}`,
   }
 }

@@ -1,6 +1,6 @@
 // Pure helpers behind My day and the week views: a visit placed on its site-local date, numbing countdowns.
 import { describe, expect, it } from 'vitest'
-import type { SegmentDto } from '../../../../shared/types/appointments'
+import type { SegmentDto } from '../../../../shared/types/visits'
 import { countdownText, msUntilReady, placeOnWeek } from '../../../../shared/utils/visit-times'
 
 // Fixed dates on purpose: these helpers are pure and take "now" and "today" as arguments.

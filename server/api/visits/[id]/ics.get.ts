@@ -1,4 +1,4 @@
-// GET /api/appointments/:id/ics?token=…: the visit's current calendar event (RFC 5545), for the
+// GET /api/visits/:id/ics?token=…: the visit's current calendar event (RFC 5545), for the
 // patient's link. The token must be the signed one for this visit.
 import { VisitTokenQuerySchema } from '#shared/schemas/outbox'
 import { numericParam, validateWith } from '../../../utils/errors'

@@ -1,8 +1,8 @@
-// GET /api/appointments?siteId|providerId&from&to: visits overlapping a UTC range. Answers 304
+// GET /api/visits?siteId|providerId&from&to: visits overlapping a UTC range. Answers 304
 // when nothing changed since the ETag the caller holds, so boards can poll cheaply.
 import { createHash } from 'node:crypto'
-import { VisitListQuerySchema } from '#shared/schemas/appointments'
-import type { BoardVisitDto } from '#shared/types/appointments'
+import { VisitListQuerySchema } from '#shared/schemas/visits'
+import type { BoardVisitDto } from '#shared/types/visits'
 import { STAFF_ROLES, requireRole } from '../../utils/auth'
 import { validateWith } from '../../utils/errors'
 import { visitsFor } from '../../services/visit-list-service'

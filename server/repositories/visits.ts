@@ -1,12 +1,12 @@
 // Visits and their timeline segments. Conflict queries use the overlap predicate
 // start < :end AND end > :start on live segments (cancelled visits keep none).
 import type { Db } from '../utils/db'
-import type { AppointmentDto, SegmentDto } from '#shared/types/appointments'
+import type { VisitDto, SegmentDto } from '#shared/types/visits'
 import type { VisitPlan, StepKind } from '#shared/types/chair-time'
 import type { VisitState } from '#shared/domain/visit-states'
 import { parseJson } from './json'
 
-export interface AppointmentRow {
+export interface VisitRow {
   id: number
   site_id: number
   operatory_id: number
@@ -43,7 +43,7 @@ export interface NewSegment {
   endMs: number
 }
 
-export interface NewAppointment {
+export interface NewVisit {
   siteId: number
   operatoryId: number
   providerId: number
@@ -56,7 +56,7 @@ export interface NewAppointment {
   userId: number
 }
 
-export async function insertAppointment(db: Db, visit: NewAppointment): Promise<number> {
+export async function insertVisit(db: Db, visit: NewVisit): Promise<number> {
   const [id] = await db('appointments').insert({
     site_id: visit.siteId, operatory_id: visit.operatoryId, provider_id: visit.providerId, patient_id: visit.patientId,
     start_utc: new Date(visit.startMs), end_utc: new Date(visit.endMs), plan: JSON.stringify(visit.plan), note: visit.note,
@@ -74,12 +74,12 @@ export async function replaceSegments(db: Db, appointmentId: number, segments: N
   })))
 }
 
-export async function findAppointmentRow(db: Db, id: number): Promise<AppointmentRow | undefined> {
-  return db<AppointmentRow>('appointments').where({ id }).first()
+export async function findVisitRow(db: Db, id: number): Promise<VisitRow | undefined> {
+  return db<VisitRow>('appointments').where({ id }).first()
 }
 
 /** Updates only if nobody changed the visit since `rowVersion`; returns whether it did. */
-export async function updateAppointmentIfVersion(db: Db, id: number, rowVersion: number, changes: Record<string, unknown>): Promise<boolean> {
+export async function updateVisitIfVersion(db: Db, id: number, rowVersion: number, changes: Record<string, unknown>): Promise<boolean> {
   const updated = await db('appointments').where({ id, row_version: rowVersion })
     .update({ ...changes, row_version: rowVersion + 1, updated_at: db.fn.now(3) })
   return updated === 1
@@ -92,7 +92,7 @@ function toSegmentDto(row: SegmentRow): SegmentDto {
   }
 }
 
-export function toAppointmentDto(row: AppointmentRow, segments: SegmentRow[]): AppointmentDto {
+export function toVisitDto(row: VisitRow, segments: SegmentRow[]): VisitDto {
   return {
     id: row.id, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id, patientId: row.patient_id,
     startUtc: row.start_utc.toISOString(), endUtc: row.end_utc.toISOString(), state: row.state, note: row.note,
@@ -102,7 +102,7 @@ export function toAppointmentDto(row: AppointmentRow, segments: SegmentRow[]): A
 }
 
 /** The DTO of a visit just inserted, from what was written (saves reading it back). */
-export function newAppointmentDto(id: number, visit: NewAppointment, segments: NewSegment[]): AppointmentDto {
+export function newVisitDto(id: number, visit: NewVisit, segments: NewSegment[]): VisitDto {
   return {
     id, siteId: visit.siteId, operatoryId: visit.operatoryId, providerId: visit.providerId, patientId: visit.patientId,
     startUtc: new Date(visit.startMs).toISOString(), endUtc: new Date(visit.endMs).toISOString(), state: 'booked', note: visit.note,
@@ -114,11 +114,11 @@ export function newAppointmentDto(id: number, visit: NewAppointment, segments: N
   }
 }
 
-export async function findAppointment(db: Db, id: number): Promise<AppointmentDto | undefined> {
-  const row = await findAppointmentRow(db, id)
+export async function findVisit(db: Db, id: number): Promise<VisitDto | undefined> {
+  const row = await findVisitRow(db, id)
   if (!row) return undefined
   const segments = await db<SegmentRow>('appointment_segments').where({ appointment_id: id }).orderBy('start_utc')
-  return toAppointmentDto(row, segments)
+  return toVisitDto(row, segments)
 }
 
 export interface SegmentClash {
@@ -136,7 +136,7 @@ export interface ClashQuery {
   handsOn: Array<{ startMs: number; endMs: number }>
   patientId: number
   /** The visit being moved, so it does not collide with itself. */
-  exceptAppointmentId: number | null
+  exceptVisitId: number | null
 }
 
 export interface Clashes {
@@ -153,7 +153,7 @@ export interface Clashes {
 export async function findClashes(db: Db, clash: ClashQuery): Promise<Clashes> {
   const start = new Date(clash.startMs)
   const end = new Date(clash.endMs)
-  const except = clash.exceptAppointmentId
+  const except = clash.exceptVisitId
   // The whole visit's times for the chair, not the one segment, so the message names the visit in the way.
   const room = db('appointment_segments').join('appointments', 'appointments.id', 'appointment_segments.appointment_id')
     .where('appointment_segments.operatory_id', clash.operatoryId)
@@ -195,7 +195,7 @@ export interface VisitListFilter {
   includeCancelled: boolean
 }
 
-export interface BoardRow extends AppointmentRow {
+export interface BoardRow extends VisitRow {
   patient_first_name: string
   patient_last_name: string
   provider_name: string

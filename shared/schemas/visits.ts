@@ -11,7 +11,7 @@ const utcInstant = z.string({ error: 'is required' }).datetime({ offset: true, m
 const note = plainText(z.string({ error: 'must be text' }).max(1000, 'is too long'))
 const planItems = z.array(ChairTimeItemSchema, { error: 'must be a list of procedures' }).min(1, 'add at least one procedure').max(8, 'at most 8 procedures in one visit')
 
-export const BookAppointmentSchema = z.object({
+export const BookVisitSchema = z.object({
   patientId: id('patient'),
   siteId: id('site'),
   operatoryId: id('operatory'),
@@ -20,9 +20,9 @@ export const BookAppointmentSchema = z.object({
   items: planItems,
   note: note.default(''),
 })
-export type BookAppointmentInput = z.infer<typeof BookAppointmentSchema>
+export type BookVisitInput = z.infer<typeof BookVisitSchema>
 
-export const MoveAppointmentSchema = z.object({
+export const MoveVisitSchema = z.object({
   rowVersion: z.number({ error: 'is required (the version you last saw)' }).int('must be a whole number').positive('must be positive').max(MAX_ID, `must be at most ${MAX_ID}`),
   startUtc: utcInstant.optional(),
   operatoryId: id('operatory').optional(),
@@ -35,7 +35,7 @@ export const MoveAppointmentSchema = z.object({
     reason: plainText(z.string({ error: 'is required' }).trim().min(3, 'say why the length changes').max(200, 'is too long')),
   }).optional(),
 })
-export type MoveAppointmentInput = z.infer<typeof MoveAppointmentSchema>
+export type MoveVisitInput = z.infer<typeof MoveVisitSchema>
 
 export const ChangeStateSchema = z.object({
   state: z.enum(VISIT_STATES, { error: `must be one of ${VISIT_STATES.join(', ')}` }),

@@ -11,7 +11,7 @@ export interface SegmentDto {
   endUtc: string
 }
 
-export interface AppointmentDto {
+export interface VisitDto {
   id: number
   siteId: number
   operatoryId: number
@@ -72,7 +72,7 @@ export interface OpeningsResponse {
 }
 
 /** A visit as the Chairboard, My day and week views draw it. */
-export interface BoardVisitDto extends AppointmentDto {
+export interface BoardVisitDto extends VisitDto {
   patientName: string
   providerName: string
   providerInitials: string
