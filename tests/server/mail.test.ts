@@ -241,6 +241,10 @@ describe('the signed visit link', () => {
     const row = await testDb()('appointments').where({ id: visitId }).first()
     expect(vevent.getFirstPropertyValue('uid')).toBe(row.ical_uid)
     expect((await new ApiClient().get(`/api/visits/${visitId}/ics`)).status).toBe(400)
+    // Links in e-mails sent before the routes were renamed still open the same event.
+    const old = await fetch(new URL(`/api/appointments/${visitId}/ics?token=${encodeURIComponent(token)}`, manager.baseURL))
+    expect(old.status).toBe(200)
+    expect(veventOf(parseCalendar(await old.text())).getFirstPropertyValue('uid')).toBe(row.ical_uid)
   })
 
   it('records a cancel request for the front desk without cancelling (default policy)', async () => {
