@@ -3,35 +3,24 @@
 import { DateTime } from 'luxon'
 import type { SiteDetail } from '#shared/types/sites'
 import type { AvailabilityResponse, DualInterval } from '#shared/types/rota-api'
-import type { UtcInterval } from '#shared/types/rota'
+import type { LocalDate, UtcInterval } from '#shared/types/rota'
 import { expandAvailability } from '#shared/domain/rota'
-import { addDays, localToUtc } from '#shared/utils/local-date'
+import { addDays, localDayRange, type UtcRange } from '#shared/utils/local-date'
 import type { AvailabilityQuery } from '#shared/schemas/rota'
 import { useDb, type Db } from '../utils/db'
-import { badRequest, notFound } from '../utils/errors'
-import { MAX_WINDOW_DAYS } from '#shared/domain/input-bounds'
+import { notFound } from '../utils/errors'
 import { listOperatories } from '../repositories/operatories'
 import { listShifts, shiftToInput } from '../repositories/shifts'
 import { exceptionToInput, listShiftExceptions } from '../repositories/shift-exceptions'
 import { blockToInput, listBlocks } from '../repositories/blocks'
 import { findSiteDetail, toCalendar } from '../repositories/sites'
 
-const LOCAL_DATE = /^\d{4}-\d{2}-\d{2}$/
-
-export interface UtcWindow {
-  fromUtc: string
-  toUtc: string
-}
-
-/** Dates are the site's local days, both inclusive; instants are taken as they are: [from, to). */
-export function windowOf(site: SiteDetail, from: string, to: string): UtcWindow {
-  const fromUtc = LOCAL_DATE.test(from) ? localToUtc(from, '00:00', site.timeZone) : new Date(from).toISOString()
-  const toUtc = LOCAL_DATE.test(to) ? localToUtc(addDays(to, 1), '00:00', site.timeZone) : new Date(to).toISOString()
-  const spanMs = Date.parse(toUtc) - Date.parse(fromUtc)
-  if (spanMs <= 0) throw badRequest('to', 'must be after from')
-  // 93 local days may be an hour longer than 93 × 24 h when the clocks go back inside them.
-  if (spanMs > MAX_WINDOW_DAYS * 86_400_000 + 3_600_000) throw badRequest('to', `must be at most ${MAX_WINDOW_DAYS} days after from`)
-  return { fromUtc, toUtc }
+/**
+ * The site's local days `from`..`to`, both included, as the UTC range [fromUtc, toUtc). The schema
+ * (AvailabilityQuerySchema) has already held them to real dates at most MAX_WINDOW_DAYS days apart.
+ */
+export function windowOf(site: SiteDetail, from: LocalDate, to: LocalDate): UtcRange {
+  return { fromUtc: localDayRange(from, site.timeZone).fromUtc, toUtc: localDayRange(to, site.timeZone).toUtc }
 }
 
 function onWallClock(instantUtc: string, zone: string): string {
@@ -59,7 +48,7 @@ function dual(interval: UtcInterval, local: (instantUtc: string) => string): Dua
   return { ...interval, startLocalIso: local(interval.startUtc), endLocalIso: local(interval.endUtc) }
 }
 
-export async function siteAvailability(db: Db, site: SiteDetail, window: UtcWindow): Promise<AvailabilityResponse> {
+export async function siteAvailability(db: Db, site: SiteDetail, window: UtcRange): Promise<AvailabilityResponse> {
   // A day of slack each side: local dates of the window can differ from its UTC dates.
   const fromDate = addDays(window.fromUtc.slice(0, 10), -1)
   const toDate = addDays(window.toUtc.slice(0, 10), 1)

@@ -7,7 +7,6 @@ import { dateInBounds } from './common'
 
 /** 'HH:mm', 00:00 to 23:59 (zod's ISO time without seconds). */
 const TimeOfDay = z.iso.time({ precision: -1 })
-const IsoDate = z.iso.date()
 const DATE_SHAPE = /^\d{4}-\d{2}-\d{2}$/
 
 /**
@@ -21,11 +20,6 @@ export function calendarDate(shapeMessage: string) {
       return typeof issue.input === 'string' && DATE_SHAPE.test(issue.input) ? 'is not a real calendar date' : shapeMessage
     },
   })
-}
-
-/** True for a 'YYYY-MM-DD' date that exists. */
-export function isLocalDate(value: string): boolean {
-  return IsoDate.safeParse(value).success
 }
 
 export const LocalTimeSchema = z.iso.time({

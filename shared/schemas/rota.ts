@@ -1,8 +1,8 @@
 // What the Rota screen sends: shifts, exceptions (time off, extra days) and blocks.
 import { z } from 'zod'
-import { IdSchema, instantInBounds, plainText } from './common'
+import { IdSchema, plainText } from './common'
 import { inclusiveDays, MAX_WINDOW_DAYS } from '../domain/input-bounds'
-import { dateNotBefore, endAfterStart, isLocalDate, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, RruleSchema } from './local-time'
+import { dateNotBefore, endAfterStart, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, RruleSchema } from './local-time'
 
 const note = plainText(z.string({ error: 'must be text' }).trim().max(200, 'is too long'))
 const reasonRequired = plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(200, 'is too long'))
@@ -87,19 +87,7 @@ export type BlockBody = z.infer<typeof BlockSchema>
 export const BlockPatchSchema = z.object(blockFields).partial()
 export type BlockPatch = z.infer<typeof BlockPatchSchema>
 
-/** Dates are site-local and inclusive; an ISO instant with an offset is taken as it is. */
-const instantOrDate = z
-  .string({ error: 'is required' })
-  .trim()
-  .refine(
-    (value) => (isLocalDate(value) ? LocalDateSchema.safeParse(value).success : /^\d{4}-\d{2}-\d{2}T[\d:.]+(Z|[+-]\d{2}:\d{2})$/i.test(value) && !Number.isNaN(Date.parse(value))),
-    'must be a date (YYYY-MM-DD) or an ISO instant with Z or an offset',
-  )
-  .superRefine((value, ctx) => {
-    if (!/^\d{4}-\d{2}-\d{2}$/.test(value)) instantInBounds(value, ctx)
-  })
-
-/** A window of at most MAX_WINDOW_DAYS days, `to` not before `from` (dates or instants). */
+/** A window of at most MAX_WINDOW_DAYS local days, both included, `to` not before `from`. */
 function windowWithinLimit(query: { from: string, to: string }, ctx: z.RefinementCtx): void {
   const days = inclusiveDays(query.from, query.to)
   if (Number.isNaN(days)) return
@@ -107,7 +95,8 @@ function windowWithinLimit(query: { from: string, to: string }, ctx: z.Refinemen
   else if (days > MAX_WINDOW_DAYS) ctx.addIssue({ code: 'custom', path: ['to'], message: `must be at most ${MAX_WINDOW_DAYS} days after from` })
 }
 
-export const AvailabilityQuerySchema = z.object({ siteId: IdSchema, from: instantOrDate, to: instantOrDate }).superRefine(windowWithinLimit)
+/** `from` and `to` are the site's local dates, both included (the naming table's local-date range). */
+export const AvailabilityQuerySchema = z.object({ siteId: IdSchema, from: LocalDateSchema, to: LocalDateSchema }).superRefine(windowWithinLimit)
 export type AvailabilityQuery = z.infer<typeof AvailabilityQuerySchema>
 
 export const RotaQuerySchema = z

@@ -52,9 +52,10 @@ describe('dates and windows on range routes', () => {
     expect(Array.isArray(ok.body.entries)).toBe(true)
   })
 
-  it('availability: far-future dates and instants, and long windows, are 400', async () => {
+  it('availability: far-future dates, instants (local dates only) and long windows are 400', async () => {
     expect400(await desk.get(`/api/availability?siteId=${quarryId}&from=9999-12-25&to=${FAR}`), 'from')
     expect400(await desk.get(`/api/availability?siteId=${quarryId}&from=${daysFromToday(1)}&to=9999-12-31T23:00:00Z`), 'to')
+    expect400(await desk.get(`/api/availability?siteId=${quarryId}&from=${daysFromToday(1)}T00:00:00Z&to=${daysFromToday(2)}`), 'from')
     expect400(await desk.get(`/api/availability?siteId=${quarryId}&from=${daysFromToday(1)}&to=${daysFromToday(200)}`), 'to')
     const ok = await desk.get(`/api/availability?siteId=${quarryId}&from=${daysFromToday(1)}&to=${daysFromToday(7)}`)
     expect(ok.status).toBe(200)
