@@ -32,7 +32,7 @@ const MIX = [
 interface Opening { siteId: number; operatoryId: number; providerId: number; startUtc: string }
 
 const db = createDb(dbSettingsFromEnv())
-const existing = await db('appointments').count({ count: '*' }).first()
+const existing = await db('visits').count({ count: '*' }).first()
 if (Number(existing?.count ?? 0) > 0) {
   console.log('demo visits skipped: visits exist already')
   await db.destroy()
@@ -115,7 +115,7 @@ function lateOn(date: string, zones: string[]): number {
 async function settleVisits(demoSites: Array<{ id: number; time_zone: string }>): Promise<number> {
   const reader = createDb(dbSettingsFromEnv())
   const realNow = Date.now()
-  const visits = await reader('appointments').where('start_utc', '<', new Date(realNow + 48 * HOUR)).orderBy('id').select('id', 'site_id', 'start_utc', 'end_utc')
+  const visits = await reader('visits').where('start_utc', '<', new Date(realNow + 48 * HOUR)).orderBy('id').select('id', 'site_id', 'start_utc', 'end_utc')
   await reader.destroy()
   const zoneOf = new Map(demoSites.map((site) => [site.id, site.time_zone]))
   const zones = [...new Set(zoneOf.values())]
@@ -158,7 +158,7 @@ async function skipHistoricMail(): Promise<number> {
   const now = new Date()
   const overdue = await writer('outbox').where({ state: 'queued', kind: 'reminder' }).where('due_at', '<', now).update({ state: 'skipped', last_error: reason })
   const past = await writer('outbox').where({ state: 'queued' })
-    .whereIn('appointment_id', writer('appointments').where('start_utc', '<', now).select('id'))
+    .whereIn('visit_id', writer('visits').where('start_utc', '<', now).select('id'))
     .update({ state: 'skipped', last_error: reason })
   await writer.destroy()
   return overdue + past

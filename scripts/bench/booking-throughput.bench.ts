@@ -154,14 +154,14 @@ async function rawCeiling(site: BenchSite, first: number, count: number) {
       await connection.query('BEGIN')
       await connection.query('UPDATE operatories SET booking_seq = booking_seq + 1 WHERE id = ?', [lane.operatoryId])
       await connection.query('UPDATE providers SET booking_seq = booking_seq + 1 WHERE id = ?', [lane.providerId])
-      await connection.query('SELECT id FROM appointment_segments WHERE operatory_id = ? AND start_utc < ? AND end_utc > ? LIMIT 1', [lane.operatoryId, end, start])
-      await connection.query("SELECT id FROM appointment_segments WHERE provider_id = ? AND kind = 'hands_on' AND start_utc < ? AND end_utc > ? LIMIT 1", [lane.providerId, end, handsOn])
+      await connection.query('SELECT id FROM visit_segments WHERE operatory_id = ? AND start_utc < ? AND end_utc > ? LIMIT 1', [lane.operatoryId, end, start])
+      await connection.query("SELECT id FROM visit_segments WHERE provider_id = ? AND kind = 'hands_on' AND start_utc < ? AND end_utc > ? LIMIT 1", [lane.providerId, end, handsOn])
       const [inserted] = await connection.query<mysql.ResultSetHeader>(
-        'INSERT INTO appointments (site_id, operatory_id, provider_id, patient_id, start_utc, end_utc, plan, ical_uid) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
+        'INSERT INTO visits (site_id, operatory_id, provider_id, patient_id, start_utc, end_utc, plan, ical_uid) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
         [site.siteId, lane.operatoryId, lane.providerId, lane.patientId, start, end, '{}', `raw-${laneIndex}-${index}@bench`],
       )
       await connection.query(
-        'INSERT INTO appointment_segments (appointment_id, kind, label, operatory_id, provider_id, start_utc, end_utc) VALUES ?',
+        'INSERT INTO visit_segments (visit_id, kind, label, operatory_id, provider_id, start_utc, end_utc) VALUES ?',
         [[
           [inserted.insertId, 'numbing', 'a', lane.operatoryId, lane.providerId, start, handsOn],
           [inserted.insertId, 'hands_on', 'b', lane.operatoryId, lane.providerId, handsOn, end],

@@ -28,14 +28,14 @@ async function sixtyVisits(db: Knex): Promise<void> {
   for (const [index, room] of rooms.entries()) {
     for (let slot = 0; slot < 12; slot += 1) {
       const start = DateTime.fromISO(`${DAY}T07:00`, { zone: ZONE }).plus({ minutes: slot * 40 })
-      const [id] = await db('appointments').insert({
+      const [id] = await db('visits').insert({
         site_id: site.id, operatory_id: room, provider_id: providers[index], patient_id: patients[n],
         start_utc: start.toJSDate(), end_utc: start.plus({ minutes: 35 }).toJSDate(), ical_uid: `bench-${n}@cuspline`,
         plan: JSON.stringify({ items: [{ templateCode: 'COMP-POST', templateName: 'Posterior composite', tooth: { universal: '19', iso: '36' }, surfaces: ['M', 'O'] }] }),
       })
       const bands = [['assist', 0, 5], ['hands_on', 5, 7], ['numbing', 7, 17], ['hands_on', 17, 30], ['reset', 30, 35]] as const
-      await db('appointment_segments').insert(bands.map(([kind, from, to]) => ({
-        appointment_id: id, kind, label: kind, operatory_id: room, provider_id: providers[index],
+      await db('visit_segments').insert(bands.map(([kind, from, to]) => ({
+        visit_id: id, kind, label: kind, operatory_id: room, provider_id: providers[index],
         start_utc: start.plus({ minutes: from }).toJSDate(), end_utc: start.plus({ minutes: to }).toJSDate(),
       })))
       n += 1

@@ -24,7 +24,7 @@ export async function claimKey(db: Db, userId: number, key: string, requestHash:
   await db('idempotency_keys').insert({ user_id: userId, idempotency_key: key, request_hash: requestHash })
 }
 
-export async function storeAnswer(db: Db, userId: number, key: string, statusCode: number, response: unknown, appointmentId: number | null): Promise<void> {
+export async function storeAnswer(db: Db, userId: number, key: string, statusCode: number, response: unknown, visitId: number | null): Promise<void> {
   await db('idempotency_keys').where({ user_id: userId, idempotency_key: key })
-    .update({ status_code: statusCode, response: JSON.stringify(response), appointment_id: appointmentId })
+    .update({ status_code: statusCode, response: JSON.stringify(response), visit_id: visitId })
 }

@@ -41,14 +41,14 @@ export interface MailContext {
   patient: MailPatient
 }
 
-export async function loadMailContext(db: Db, appointmentId: number): Promise<MailContext | undefined> {
-  const row = await db('appointments')
-    .join('sites', 'sites.id', 'appointments.site_id')
-    .join('patients', 'patients.id', 'appointments.patient_id')
-    .where('appointments.id', appointmentId)
+export async function loadMailContext(db: Db, visitId: number): Promise<MailContext | undefined> {
+  const row = await db('visits')
+    .join('sites', 'sites.id', 'visits.site_id')
+    .join('patients', 'patients.id', 'visits.patient_id')
+    .where('visits.id', visitId)
     .first(
-      'appointments.id', 'appointments.state', 'appointments.start_utc', 'appointments.end_utc', 'appointments.ical_uid',
-      'appointments.ical_sequence', 'appointments.plan', 'appointments.cancel_requested_at', 'appointments.row_version',
+      'visits.id', 'visits.state', 'visits.start_utc', 'visits.end_utc', 'visits.ical_uid',
+      'visits.ical_sequence', 'visits.plan', 'visits.cancel_requested_at', 'visits.row_version',
       'sites.id as site_id', 'sites.name as site_name', 'sites.address as site_address', 'sites.phone as site_phone',
       'sites.email as site_email', 'sites.time_zone as site_time_zone', 'sites.settings as site_settings',
       'patients.id as patient_id', 'patients.first_name', 'patients.last_name', 'patients.email as patient_email', 'patients.email_consent',
@@ -69,26 +69,26 @@ export async function loadMailContext(db: Db, appointmentId: number): Promise<Ma
 
 /** The patient confirmed through the signed link. */
 export async function confirmVisit(db: Db, id: number, rowVersion: number): Promise<boolean> {
-  const changed = await db('appointments').where({ id, row_version: rowVersion, state: 'booked' })
+  const changed = await db('visits').where({ id, row_version: rowVersion, state: 'booked' })
     .update({ state: 'confirmed', confirmed_at: new Date(), row_version: rowVersion + 1, updated_at: db.fn.now(3) })
   return changed === 1
 }
 
 /** The patient asked to cancel; the front desk decides (or the site cancels at once, see the service). */
 export async function recordCancelRequest(db: Db, id: number): Promise<void> {
-  await db('appointments').where({ id }).whereNull('cancel_requested_at').update({ cancel_requested_at: new Date(), updated_at: db.fn.now(3) })
+  await db('visits').where({ id }).whereNull('cancel_requested_at').update({ cancel_requested_at: new Date(), updated_at: db.fn.now(3) })
 }
 
 /** Upcoming live visits whose patient asked to cancel, soonest first. */
 export async function listCancelRequests(db: Db, filter: { siteIds: number[] | 'all'; siteId?: number; nowMs: number }): Promise<CancelRequestDto[]> {
-  const query = db('appointments').join('patients', 'patients.id', 'appointments.patient_id')
-    .whereNotNull('appointments.cancel_requested_at').whereIn('appointments.state', ['booked', 'confirmed'])
-    .where('appointments.end_utc', '>', new Date(filter.nowMs)).orderBy('appointments.start_utc').limit(200)
-    .select('appointments.id', 'appointments.site_id', 'appointments.start_utc', 'appointments.state', 'appointments.cancel_requested_at', 'appointments.row_version', 'patients.first_name', 'patients.last_name')
-  if (filter.siteIds !== 'all') query.whereIn('appointments.site_id', filter.siteIds)
-  if (filter.siteId !== undefined) query.where('appointments.site_id', filter.siteId)
+  const query = db('visits').join('patients', 'patients.id', 'visits.patient_id')
+    .whereNotNull('visits.cancel_requested_at').whereIn('visits.state', ['booked', 'confirmed'])
+    .where('visits.end_utc', '>', new Date(filter.nowMs)).orderBy('visits.start_utc').limit(200)
+    .select('visits.id', 'visits.site_id', 'visits.start_utc', 'visits.state', 'visits.cancel_requested_at', 'visits.row_version', 'patients.first_name', 'patients.last_name')
+  if (filter.siteIds !== 'all') query.whereIn('visits.site_id', filter.siteIds)
+  if (filter.siteId !== undefined) query.where('visits.site_id', filter.siteId)
   return (await query).map((row) => ({
-    appointmentId: row.id, siteId: row.site_id, patientName: `${row.first_name} ${row.last_name}`, startUtc: row.start_utc.toISOString(),
+    visitId: row.id, siteId: row.site_id, patientName: `${row.first_name} ${row.last_name}`, startUtc: row.start_utc.toISOString(),
     state: row.state, requestedAt: row.cancel_requested_at.toISOString(), rowVersion: row.row_version,
   }))
 }

@@ -16,7 +16,7 @@ export async function providersByIds(db: Db, ids: number[]): Promise<ProviderRow
 /** Live segments in these rooms, or of these providers anywhere (a provider works at several sites). */
 export async function busySegments(db: Db, operatoryIds: number[], providerIds: number[], fromMs: number, toMs: number): Promise<BusySegment[]> {
   if (!operatoryIds.length && !providerIds.length) return []
-  const rows = await db('appointment_segments')
+  const rows = await db('visit_segments')
     .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs))
     .where((who) => {
       if (operatoryIds.length) who.orWhereIn('operatory_id', operatoryIds)

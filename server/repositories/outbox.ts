@@ -9,7 +9,7 @@ export type { OutboxKind } from '#shared/types/outbox'
 export interface OutboxRow {
   id: number
   kind: OutboxKind
-  appointment_id: number | null
+  visit_id: number | null
   site_id: number | null
   payload: string
   due_at: Date
@@ -23,7 +23,7 @@ export interface OutboxRow {
 }
 
 export interface OutboxPayload {
-  appointmentId?: number
+  visitId?: number
   /** Reminders: the visit start they were planned for; a moved visit makes them stale. */
   startUtc?: string
   offsetHours?: number
@@ -32,7 +32,7 @@ export interface OutboxPayload {
 
 export interface NewOutboxMessage {
   kind: OutboxKind
-  appointmentId: number
+  visitId: number
   siteId: number
   dueAt: Date
   payload: OutboxPayload
@@ -42,22 +42,22 @@ export interface NewOutboxMessage {
 export async function enqueueMessages(db: Db, messages: NewOutboxMessage[]): Promise<void> {
   if (!messages.length) return
   await db('outbox').insert(messages.map((message) => ({
-    kind: message.kind, appointment_id: message.appointmentId, site_id: message.siteId,
+    kind: message.kind, visit_id: message.visitId, site_id: message.siteId,
     due_at: message.dueAt, payload: JSON.stringify(message.payload),
   })))
 }
 
 export async function enqueueMessage(db: Db, message: NewOutboxMessage): Promise<number> {
   const [id] = await db('outbox').insert({
-    kind: message.kind, appointment_id: message.appointmentId, site_id: message.siteId,
+    kind: message.kind, visit_id: message.visitId, site_id: message.siteId,
     due_at: message.dueAt, payload: JSON.stringify(message.payload),
   })
   return id as number
 }
 
 /** Reminders not yet sent are dropped when a visit moves or is cancelled (they are planned again). */
-export async function skipQueuedReminders(db: Db, appointmentId: number, reason: string): Promise<number> {
-  return db('outbox').where({ appointment_id: appointmentId, kind: 'reminder', state: 'queued' })
+export async function skipQueuedReminders(db: Db, visitId: number, reason: string): Promise<number> {
+  return db('outbox').where({ visit_id: visitId, kind: 'reminder', state: 'queued' })
     .update({ state: 'skipped', last_error: reason })
 }
 
@@ -133,21 +133,21 @@ interface ListedRow extends OutboxRow {
 export interface OutboxFilter {
   siteIds: number[] | 'all'
   siteId?: number
-  appointmentId?: number
+  visitId?: number
   state?: OutboxState
   limit: number
 }
 
 function listQuery(db: Db) {
   return db('outbox')
-    .leftJoin('appointments', 'appointments.id', 'outbox.appointment_id')
-    .leftJoin('patients', 'patients.id', 'appointments.patient_id')
-    .select('outbox.*', 'patients.first_name', 'patients.last_name', 'patients.email', 'appointments.start_utc')
+    .leftJoin('visits', 'visits.id', 'outbox.visit_id')
+    .leftJoin('patients', 'patients.id', 'visits.patient_id')
+    .select('outbox.*', 'patients.first_name', 'patients.last_name', 'patients.email', 'visits.start_utc')
 }
 
 export function toOutboxDto(row: ListedRow): OutboxMessageDto {
   return {
-    id: row.id, kind: row.kind, state: row.state, appointmentId: row.appointment_id, siteId: row.site_id,
+    id: row.id, kind: row.kind, state: row.state, visitId: row.visit_id, siteId: row.site_id,
     patientName: row.first_name === null ? null : `${row.first_name} ${row.last_name}`, recipient: row.email,
     visitStartUtc: row.start_utc ? row.start_utc.toISOString() : null, dueAt: row.due_at.toISOString(),
     sentAt: row.sent_at ? row.sent_at.toISOString() : null, attempts: row.attempts, lastError: row.last_error, messageId: row.message_id,
@@ -158,7 +158,7 @@ export async function listOutbox(db: Db, filter: OutboxFilter): Promise<OutboxMe
   const query = listQuery(db).orderBy('outbox.id', 'desc').limit(filter.limit)
   if (filter.siteIds !== 'all') query.whereIn('outbox.site_id', filter.siteIds)
   if (filter.siteId !== undefined) query.where('outbox.site_id', filter.siteId)
-  if (filter.appointmentId !== undefined) query.where('outbox.appointment_id', filter.appointmentId)
+  if (filter.visitId !== undefined) query.where('outbox.visit_id', filter.visitId)
   if (filter.state !== undefined) query.where('outbox.state', filter.state)
   return ((await query) as ListedRow[]).map(toOutboxDto)
 }

@@ -25,7 +25,7 @@ export interface VisitRow {
 }
 
 interface SegmentRow {
-  appointment_id: number
+  visit_id: number
   kind: StepKind
   label: string
   operatory_id: number
@@ -57,7 +57,7 @@ export interface NewVisit {
 }
 
 export async function insertVisit(db: Db, visit: NewVisit): Promise<number> {
-  const [id] = await db('appointments').insert({
+  const [id] = await db('visits').insert({
     site_id: visit.siteId, operatory_id: visit.operatoryId, provider_id: visit.providerId, patient_id: visit.patientId,
     start_utc: new Date(visit.startMs), end_utc: new Date(visit.endMs), plan: JSON.stringify(visit.plan), note: visit.note,
     ical_uid: visit.icalUid, created_by: visit.userId, updated_by: visit.userId,
@@ -65,22 +65,22 @@ export async function insertVisit(db: Db, visit: NewVisit): Promise<number> {
   return id as number
 }
 
-export async function replaceSegments(db: Db, appointmentId: number, segments: NewSegment[], options: { isNew?: boolean } = {}): Promise<void> {
-  if (!options.isNew) await db('appointment_segments').where({ appointment_id: appointmentId }).delete()
+export async function replaceSegments(db: Db, visitId: number, segments: NewSegment[], options: { isNew?: boolean } = {}): Promise<void> {
+  if (!options.isNew) await db('visit_segments').where({ visit_id: visitId }).delete()
   if (!segments.length) return
-  await db('appointment_segments').insert(segments.map((segment) => ({
-    appointment_id: appointmentId, kind: segment.kind, label: segment.label, operatory_id: segment.operatoryId,
+  await db('visit_segments').insert(segments.map((segment) => ({
+    visit_id: visitId, kind: segment.kind, label: segment.label, operatory_id: segment.operatoryId,
     provider_id: segment.providerId, start_utc: new Date(segment.startMs), end_utc: new Date(segment.endMs),
   })))
 }
 
 export async function findVisitRow(db: Db, id: number): Promise<VisitRow | undefined> {
-  return db<VisitRow>('appointments').where({ id }).first()
+  return db<VisitRow>('visits').where({ id }).first()
 }
 
 /** Updates only if nobody changed the visit since `rowVersion`; returns whether it did. */
 export async function updateVisitIfVersion(db: Db, id: number, rowVersion: number, changes: Record<string, unknown>): Promise<boolean> {
-  const updated = await db('appointments').where({ id, row_version: rowVersion })
+  const updated = await db('visits').where({ id, row_version: rowVersion })
     .update({ ...changes, row_version: rowVersion + 1, updated_at: db.fn.now(3) })
   return updated === 1
 }
@@ -117,12 +117,12 @@ export function newVisitDto(id: number, visit: NewVisit, segments: NewSegment[])
 export async function findVisit(db: Db, id: number): Promise<VisitDto | undefined> {
   const row = await findVisitRow(db, id)
   if (!row) return undefined
-  const segments = await db<SegmentRow>('appointment_segments').where({ appointment_id: id }).orderBy('start_utc')
+  const segments = await db<SegmentRow>('visit_segments').where({ visit_id: id }).orderBy('start_utc')
   return toVisitDto(row, segments)
 }
 
 export interface SegmentClash {
-  appointmentId: number
+  visitId: number
   startUtc: Date
   endUtc: Date
 }
@@ -155,28 +155,28 @@ export async function findClashes(db: Db, clash: ClashQuery): Promise<Clashes> {
   const end = new Date(clash.endMs)
   const except = clash.exceptVisitId
   // The whole visit's times for the chair, not the one segment, so the message names the visit in the way.
-  const room = db('appointment_segments').join('appointments', 'appointments.id', 'appointment_segments.appointment_id')
-    .where('appointment_segments.operatory_id', clash.operatoryId)
-    .where('appointment_segments.start_utc', '<', end).where('appointment_segments.end_utc', '>', start)
-    .orderBy('appointment_segments.start_utc').limit(1)
-    .select(db.raw("'operatory' AS resource"), { appointmentId: 'appointment_segments.appointment_id', startUtc: 'appointments.start_utc', endUtc: 'appointments.end_utc' })
-  if (except !== null) room.whereNot('appointment_segments.appointment_id', except)
-  const patient = db('appointments').where({ patient_id: clash.patientId }).whereNotIn('state', ['cancelled', 'missed'])
+  const room = db('visit_segments').join('visits', 'visits.id', 'visit_segments.visit_id')
+    .where('visit_segments.operatory_id', clash.operatoryId)
+    .where('visit_segments.start_utc', '<', end).where('visit_segments.end_utc', '>', start)
+    .orderBy('visit_segments.start_utc').limit(1)
+    .select(db.raw("'operatory' AS resource"), { visitId: 'visit_segments.visit_id', startUtc: 'visits.start_utc', endUtc: 'visits.end_utc' })
+  if (except !== null) room.whereNot('visit_segments.visit_id', except)
+  const patient = db('visits').where({ patient_id: clash.patientId }).whereNotIn('state', ['cancelled', 'missed'])
     .where('start_utc', '<', end).where('end_utc', '>', start)
     .orderBy('start_utc').limit(1)
-    .select(db.raw("'patient' AS resource"), { appointmentId: 'id', startUtc: 'start_utc', endUtc: 'end_utc' })
+    .select(db.raw("'patient' AS resource"), { visitId: 'id', startUtc: 'start_utc', endUtc: 'end_utc' })
   if (except !== null) patient.whereNot({ id: except })
   const parts = [room, patient]
   if (clash.handsOn.length) {
-    const provider = db('appointment_segments').where({ provider_id: clash.providerId, kind: 'hands_on' })
+    const provider = db('visit_segments').where({ provider_id: clash.providerId, kind: 'hands_on' })
       .where((overlaps) => {
         for (const interval of clash.handsOn) {
           overlaps.orWhere((one) => one.where('start_utc', '<', new Date(interval.endMs)).where('end_utc', '>', new Date(interval.startMs)))
         }
       })
       .orderBy('start_utc').limit(1)
-      .select(db.raw("'provider' AS resource"), { appointmentId: 'appointment_id', startUtc: 'start_utc', endUtc: 'end_utc' })
-    if (except !== null) provider.whereNot({ appointment_id: except })
+      .select(db.raw("'provider' AS resource"), { visitId: 'visit_id', startUtc: 'start_utc', endUtc: 'end_utc' })
+    if (except !== null) provider.whereNot({ visit_id: except })
     parts.push(provider)
   }
   const rows = await db.unionAll(parts, true) as Array<SegmentClash & { resource: keyof Clashes }>
@@ -204,22 +204,22 @@ export interface BoardRow extends VisitRow {
 
 /** Visits overlapping [from, to) for a site or a provider, with patient and provider names. */
 export async function listVisits(db: Db, filter: VisitListFilter): Promise<{ rows: BoardRow[]; segments: SegmentRow[] }> {
-  const query = db('appointments')
-    .join('patients', 'patients.id', 'appointments.patient_id')
-    .join('providers', 'providers.id', 'appointments.provider_id')
+  const query = db('visits')
+    .join('patients', 'patients.id', 'visits.patient_id')
+    .join('providers', 'providers.id', 'visits.provider_id')
     .join('users', 'users.id', 'providers.user_id')
-    .join('sites', 'sites.id', 'appointments.site_id')
-    .where('appointments.start_utc', '<', new Date(filter.toMs)).where('appointments.end_utc', '>', new Date(filter.fromMs))
-    .orderBy(['appointments.start_utc', 'appointments.id'])
-    .select('appointments.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'users.name as provider_name', 'sites.tooth_notation as site_tooth_notation')
-  if (filter.siteId !== undefined) query.where('appointments.site_id', filter.siteId)
-  if (filter.providerId !== undefined) query.where('appointments.provider_id', filter.providerId)
-  if (filter.patientId !== undefined) query.where('appointments.patient_id', filter.patientId)
-  if (filter.siteIds !== 'all') query.whereIn('appointments.site_id', filter.siteIds)
-  if (!filter.includeCancelled) query.whereNot('appointments.state', 'cancelled')
+    .join('sites', 'sites.id', 'visits.site_id')
+    .where('visits.start_utc', '<', new Date(filter.toMs)).where('visits.end_utc', '>', new Date(filter.fromMs))
+    .orderBy(['visits.start_utc', 'visits.id'])
+    .select('visits.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'users.name as provider_name', 'sites.tooth_notation as site_tooth_notation')
+  if (filter.siteId !== undefined) query.where('visits.site_id', filter.siteId)
+  if (filter.providerId !== undefined) query.where('visits.provider_id', filter.providerId)
+  if (filter.patientId !== undefined) query.where('visits.patient_id', filter.patientId)
+  if (filter.siteIds !== 'all') query.whereIn('visits.site_id', filter.siteIds)
+  if (!filter.includeCancelled) query.whereNot('visits.state', 'cancelled')
   const rows = (await query) as BoardRow[]
   const segments = rows.length
-    ? await db<SegmentRow>('appointment_segments').whereIn('appointment_id', rows.map((row) => row.id)).orderBy('start_utc')
+    ? await db<SegmentRow>('visit_segments').whereIn('visit_id', rows.map((row) => row.id)).orderBy('start_utc')
     : []
   return { rows, segments }
 }
@@ -227,9 +227,9 @@ export async function listVisits(db: Db, filter: VisitListFilter): Promise<{ row
 export function groupSegments(segments: SegmentRow[]): Map<number, SegmentRow[]> {
   const byVisit = new Map<number, SegmentRow[]>()
   for (const segment of segments) {
-    const list = byVisit.get(segment.appointment_id) ?? []
+    const list = byVisit.get(segment.visit_id) ?? []
     list.push(segment)
-    byVisit.set(segment.appointment_id, list)
+    byVisit.set(segment.visit_id, list)
   }
   return byVisit
 }
@@ -238,11 +238,11 @@ export interface OpenVisitRow { id: number; start_utc: Date; site_name: string; 
 
 /** A provider's open visits (not finished, missed or cancelled) that end after `fromMs`, earliest first. */
 export async function openVisitsOfProvider(db: Db, providerId: number, fromMs: number): Promise<OpenVisitRow[]> {
-  return db('appointments')
-    .join('sites', 'sites.id', 'appointments.site_id')
-    .where('appointments.provider_id', providerId)
-    .where('appointments.end_utc', '>', new Date(fromMs))
-    .whereNotIn('appointments.state', ['finished', 'missed', 'cancelled'])
-    .orderBy(['appointments.start_utc', 'appointments.id'])
-    .select('appointments.id', 'appointments.start_utc', 'sites.name as site_name', 'sites.time_zone')
+  return db('visits')
+    .join('sites', 'sites.id', 'visits.site_id')
+    .where('visits.provider_id', providerId)
+    .where('visits.end_utc', '>', new Date(fromMs))
+    .whereNotIn('visits.state', ['finished', 'missed', 'cancelled'])
+    .orderBy(['visits.start_utc', 'visits.id'])
+    .select('visits.id', 'visits.start_utc', 'sites.name as site_name', 'sites.time_zone')
 }

@@ -62,13 +62,13 @@ function clashError(resource: BookingConflict['resource'], id: number, name: str
   const startMs = new Date(clash.startUtc).getTime()
   const endMs = new Date(clash.endUtc).getTime()
   const detail: BookingConflict = {
-    resource, id, name, startUtc: new Date(startMs).toISOString(), endUtc: new Date(endMs).toISOString(), appointmentId: clash.appointmentId,
+    resource, id, name, startUtc: new Date(startMs).toISOString(), endUtc: new Date(endMs).toISOString(), visitId: clash.visitId,
   }
   return conflict(`${name} ${what} from ${localTime(startMs, zone)} to ${DateTime.fromMillis(endMs, { zone }).toFormat('HH:mm')}.`, { conflict: detail })
 }
 
 function unavailableError(resource: BookingConflict['resource'], id: number, name: string, startMs: number, endMs: number, message: string) {
-  const detail: BookingConflict = { resource, id, name, startUtc: new Date(startMs).toISOString(), endUtc: new Date(endMs).toISOString(), appointmentId: null }
+  const detail: BookingConflict = { resource, id, name, startUtc: new Date(startMs).toISOString(), endUtc: new Date(endMs).toISOString(), visitId: null }
   return conflict(message, { conflict: detail })
 }
 

@@ -44,7 +44,7 @@ function startOf(startUtc: string): number {
 }
 
 interface VisitMail {
-  appointmentId: number
+  visitId: number
   startMs: number
   calendar: SiteCalendarInputs
   patient: PatientDto | undefined
@@ -58,19 +58,19 @@ function mayMail(patient: PatientDto | undefined): boolean {
 /** The patient's invitation or update and the visit's reminders, in one insert. */
 async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: VisitMail): Promise<void> {
   // Reminders not yet sent belong to the old time: planned again below.
-  if (kind === 'update') await dropQueuedReminders(db, visit.appointmentId)
+  if (kind === 'update') await dropQueuedReminders(db, visit.visitId)
   if (!mayMail(visit.patient)) return
   const site = { id: visit.calendar.site.id, timeZone: visit.calendar.site.timeZone, settings: visit.calendar.settings }
   await enqueueMessages(db, [
-    { kind, appointmentId: visit.appointmentId, siteId: site.id, dueAt: new Date(), payload: { appointmentId: visit.appointmentId } },
-    ...reminderMessages({ appointmentId: visit.appointmentId, startMs: visit.startMs, site }),
+    { kind, visitId: visit.visitId, siteId: site.id, dueAt: new Date(), payload: { visitId: visit.visitId } },
+    ...reminderMessages({ visitId: visit.visitId, startMs: visit.startMs, site }),
   ])
 }
 
 async function queueCancellationMail(db: Db, row: VisitRow): Promise<void> {
   await dropQueuedReminders(db, row.id)
   if (!mayMail(await findPatient(db, row.patient_id))) return
-  await enqueueMessages(db, [{ kind: 'cancellation', appointmentId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { appointmentId: row.id } }])
+  await enqueueMessages(db, [{ kind: 'cancellation', visitId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { visitId: row.id } }])
 }
 
 async function loaded(db: Db, id: number): Promise<VisitDto> {
@@ -106,7 +106,7 @@ export async function bookVisit(input: BookVisitInput, user: SessionUser, idempo
       const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
       await replaceSegments(trx, id, segments, { isNew: true })
       await writeAudit(trx, { userId: user.id, action: 'visit_booked', entity: 'visit', entityId: id, after: input })
-      await queueVisitMail(trx, 'invitation', { appointmentId: id, startMs, calendar, patient })
+      await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient })
       const visit = newVisitDto(id, newVisit, segments)
       if (idempotencyKey) await storeAnswer(trx, user.id, idempotencyKey, 201, visit, id)
       return visit
@@ -184,7 +184,7 @@ export async function moveVisit(id: number, input: MoveVisitInput, user: Session
     if (!changed) throw staleVersion()
     await replaceSegments(trx, id, placeSegments(plan, startMs, operatoryId, providerId))
     await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'visit', entityId: id, before: { start: row.start_utc, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
-    await queueVisitMail(trx, 'update', { appointmentId: id, startMs, calendar, patient })
+    await queueVisitMail(trx, 'update', { visitId: id, startMs, calendar, patient })
     return loaded(trx, id)
   })
 }

@@ -31,7 +31,7 @@ export async function messageDetail(id: number, user: SessionUser): Promise<Outb
   const { dto, row } = await visibleMessage(id, user)
   const stored = renderedOf(row)
   if (stored) return { ...dto, rendered: stored, preview: false }
-  const context = row.appointment_id === null ? undefined : await loadMailContext(useDb(), row.appointment_id)
+  const context = row.visit_id === null ? undefined : await loadMailContext(useDb(), row.visit_id)
   if (!context || !context.patient.email) return { ...dto, rendered: null, preview: true }
   const { mail, smtp } = useRuntimeConfig()
   const composed = renderFor(row, context, { from: String(smtp.from ?? ''), publicUrl: String(mail.publicUrl), linkSecret: useVisitLinkSecret() })
@@ -40,13 +40,13 @@ export async function messageDetail(id: number, user: SessionUser): Promise<Outb
 
 export async function resendMessage(id: number, user: SessionUser): Promise<OutboxMessageDto> {
   const { row } = await visibleMessage(id, user)
-  if (row.appointment_id === null || row.site_id === null) throw conflict('This message belongs to no visit and cannot be sent again.', { field: 'id' })
+  if (row.visit_id === null || row.site_id === null) throw conflict('This message belongs to no visit and cannot be sent again.', { field: 'id' })
   if (row.state === 'queued' || row.state === 'sending') throw conflict('This message is still waiting to be sent.', { field: 'state', state: row.state })
   const db = useDb()
-  const context = await loadMailContext(db, row.appointment_id)
-  if (!context) throw conflict('The visit of this message no longer exists.', { field: 'appointmentId' })
-  const payload = { ...payloadOf(row), appointmentId: row.appointment_id, resendOf: row.id, startUtc: context.visit.startUtc.toISOString() }
-  const newId = await enqueueMessage(db, { kind: row.kind, appointmentId: row.appointment_id, siteId: row.site_id, dueAt: new Date(), payload })
+  const context = await loadMailContext(db, row.visit_id)
+  if (!context) throw conflict('The visit of this message no longer exists.', { field: 'visitId' })
+  const payload = { ...payloadOf(row), visitId: row.visit_id, resendOf: row.id, startUtc: context.visit.startUtc.toISOString() }
+  const newId = await enqueueMessage(db, { kind: row.kind, visitId: row.visit_id, siteId: row.site_id, dueAt: new Date(), payload })
   return (await findOutboxListed(db, newId))!.dto
 }
 

@@ -25,10 +25,10 @@ function expired() {
 }
 
 /** The visit a token opens, or 404 (malformed, unknown, tampered) / 410 (after the visit). */
-export async function visitOfToken(db: Db, token: string, appointmentId?: number): Promise<MailContext> {
+export async function visitOfToken(db: Db, token: string, visitId?: number): Promise<MailContext> {
   const parts = readVisitToken(token)
-  if (!parts || (appointmentId !== undefined && parts.appointmentId !== appointmentId)) throw notFound(LINK_NOT_FOUND)
-  const context = await loadMailContext(db, parts.appointmentId)
+  if (!parts || (visitId !== undefined && parts.visitId !== visitId)) throw notFound(LINK_NOT_FOUND)
+  const context = await loadMailContext(db, parts.visitId)
   if (!context || !hasValidSignature(useVisitLinkSecret(), token, context.visit.icalUid)) throw notFound(LINK_NOT_FOUND)
   if (Date.now() > Math.min(parts.expiresAtMs, context.visit.endUtc.getTime())) throw expired()
   return context
@@ -71,7 +71,7 @@ async function cancelAtOnce(db: Db, context: MailContext): Promise<void> {
   await replaceSegments(db, visit.id, [])
   await dropQueuedReminders(db, visit.id)
   if (context.patient.email && context.patient.emailConsent) {
-    await enqueueMessage(db, { kind: 'cancellation', appointmentId: visit.id, siteId: context.site.id, dueAt: new Date(), payload: { appointmentId: visit.id } })
+    await enqueueMessage(db, { kind: 'cancellation', visitId: visit.id, siteId: context.site.id, dueAt: new Date(), payload: { visitId: visit.id } })
   }
 }
 
@@ -92,8 +92,8 @@ export async function requestCancelByPatient(token: string): Promise<PublicVisit
 }
 
 /** The current event for this visit: REQUEST while it stands, CANCEL once cancelled. */
-export async function currentCalendar(appointmentId: number, token: string): Promise<{ ics: string; method: 'REQUEST' | 'CANCEL' }> {
-  const context = await visitOfToken(useDb(), token, appointmentId)
+export async function currentCalendar(visitId: number, token: string): Promise<{ ics: string; method: 'REQUEST' | 'CANCEL' }> {
+  const context = await visitOfToken(useDb(), token, visitId)
   const method = methodFor(context)
   return { ics: visitCalendar(context, visitFacts(context), method), method }
 }

@@ -4,7 +4,7 @@ import { OUTBOX_STATES } from '../types/outbox'
 
 export const OutboxQuerySchema = z.object({
   siteId: IdSchema.optional(),
-  appointmentId: IdSchema.optional(),
+  visitId: IdSchema.optional(),
   state: z.enum(OUTBOX_STATES, { error: `must be one of ${OUTBOX_STATES.join(', ')}` }).optional(),
   limit: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(500, 'must be at most 500').default(100),
 })

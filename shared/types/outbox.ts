@@ -10,7 +10,7 @@ export interface OutboxMessageDto {
   id: number
   kind: OutboxKind
   state: OutboxState
-  appointmentId: number | null
+  visitId: number | null
   siteId: number | null
   patientName: string | null
   recipient: string | null
@@ -62,7 +62,7 @@ export interface PublicVisitDto {
 
 /** A patient's request to cancel, waiting for the front desk. */
 export interface CancelRequestDto {
-  appointmentId: number
+  visitId: number
   siteId: number
   patientName: string
   startUtc: string

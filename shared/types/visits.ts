@@ -38,7 +38,7 @@ export interface BookingConflict {
   name: string
   startUtc: string
   endUtc: string
-  appointmentId: number | null
+  visitId: number | null
 }
 
 export interface PatientDto {

@@ -68,7 +68,7 @@ describe('the Chairboard and a visit in treatment', () => {
     await panel.getByLabel('Chair').selectOption({ label: 'Room 2' })
     await panel.getByRole('button', { name: 'Move visit' }).press('Enter')
     await expect.poll(() => page.getByTestId('board-notice').textContent()).toMatch(/moved to .* in Room 2/)
-    expect((await testDb()('appointments').where({ id: visit.id }).first('operatory_id')).operatory_id).toBe(annex.operatoryIds[1])
+    expect((await testDb()('visits').where({ id: visit.id }).first('operatory_id')).operatory_id).toBe(annex.operatoryIds[1])
     const second = page.locator(`td.fc-timegrid-col[data-date="${columnDate(1)}"]`)
     await expect.poll(async () => {
       const block = await page.locator('.fc-event.board-visit').first().boundingBox()

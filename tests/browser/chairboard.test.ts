@@ -76,7 +76,7 @@ describe('Chairboard', () => {
     await screenshot(page, 'chairboard-booked-from-slot')
 
     // The length comes from the plan; changing it takes a reason.
-    const visit = await testDb()('appointments').where({ patient_id: patient.id }).orderBy('id', 'desc').first()
+    const visit = await testDb()('visits').where({ patient_id: patient.id }).orderBy('id', 'desc').first()
     const minutes = (visit.end_utc.getTime() - visit.start_utc.getTime()) / 60_000
     const panel = page.getByTestId('visit-panel')
     await panel.getByLabel('Minutes').fill(String(minutes + 15))
@@ -84,7 +84,7 @@ describe('Chairboard', () => {
     await panel.getByLabel('Reason', { exact: true }).fill('Patient needs extra time')
     await panel.getByRole('button', { name: 'Change length' }).click()
     await expect.poll(async () => {
-      const after = await testDb()('appointments').where({ id: visit.id }).first()
+      const after = await testDb()('visits').where({ id: visit.id }).first()
       return (after.end_utc.getTime() - after.start_utc.getTime()) / 60_000
     }).toBe(minutes + 15)
 
@@ -114,13 +114,13 @@ describe('Chairboard', () => {
     await drag(page, { x: from!.x + from!.width / 2, y: from!.y + 8 }, { x: ontoBusy.x, y: ontoBusy.y + 5 })
     await screenshot(page, 'chairboard-after-drag')
     await expect.poll(() => page.getByTestId('board-notice').textContent()).toMatch(/already taken/)
-    await expect.poll(async () => (await testDb()('appointments').where({ id: moving.body.id }).first()).operatory_id).toBe(rooms[0])
+    await expect.poll(async () => (await testDb()('visits').where({ id: moving.body.id }).first()).operatory_id).toBe(rooms[0])
     await screenshot(page, 'chairboard-drag-refused')
 
     const back = await (await visitBlock(page, mover.first_name)).boundingBox()
     const free = await pointAt(page, 2, '13:00')
     await drag(page, { x: back!.x + back!.width / 2, y: back!.y + 8 }, { x: free.x, y: free.y + 5 })
-    await expect.poll(async () => (await testDb()('appointments').where({ id: moving.body.id }).first()).operatory_id).toBe(rooms[2])
+    await expect.poll(async () => (await testDb()('visits').where({ id: moving.body.id }).first()).operatory_id).toBe(rooms[2])
     await page.reload()
     await page.locator('#board-date').fill(DAY)
     const moved = await (await visitBlock(page, mover.first_name)).boundingBox()
@@ -154,12 +154,12 @@ describe('Chairboard', () => {
     await panel.getByLabel('Chair').selectOption({ label: rooms[1].name })
     await panel.getByRole('button', { name: 'Move visit' }).press('Enter')
     await expect.poll(() => page.getByTestId('board-notice').textContent()).toMatch(/already taken/)
-    expect((await testDb()('appointments').where({ id: moving.body.id }).first()).operatory_id).toBe(rooms[0].id)
+    expect((await testDb()('visits').where({ id: moving.body.id }).first()).operatory_id).toBe(rooms[0].id)
 
     await panel.getByLabel('Chair').selectOption({ label: rooms[2].name })
     await panel.getByRole('button', { name: 'Move visit' }).press('Enter')
     await expect.poll(() => page.getByTestId('board-notice').textContent()).toMatch(new RegExp(`moved to 10:30 in ${rooms[2].name}`))
-    const saved = await testDb()('appointments').where({ id: moving.body.id }).first()
+    const saved = await testDb()('visits').where({ id: moving.body.id }).first()
     expect(saved.operatory_id).toBe(rooms[2].id)
     expect(saved.start_utc.toISOString()).toBe(new Date(utcAt(`${DAY}T10:30`, ZONE)).toISOString())
     await screenshot(page, 'chairboard-moved-from-panel')
@@ -206,7 +206,7 @@ describe('Chairboard', () => {
     await screenshot(page, 'chairboard-openings')
     await list.getByRole('button', { name: 'Book' }).first().click()
     await drawer.waitFor({ state: 'detached' })
-    const visit = await testDb()('appointments').where({ patient_id: patient.id }).first()
+    const visit = await testDb()('visits').where({ patient_id: patient.id }).first()
     expect(visit.site_id).toBe(aspen)
   })
 })

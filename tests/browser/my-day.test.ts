@@ -28,8 +28,8 @@ afterAll(async () => {
   await browser?.close()
   // Give the chair and the dentist back, so later tests find today as it was.
   if (booking) {
-    await testDb()('appointment_segments').where({ appointment_id: booking.visit.id }).delete()
-    await testDb()('appointments').where({ id: booking.visit.id }).update({ state: 'cancelled', cancel_reason: 'My day test' })
+    await testDb()('visit_segments').where({ visit_id: booking.visit.id }).delete()
+    await testDb()('visits').where({ id: booking.visit.id }).update({ state: 'cancelled', cancel_reason: 'My day test' })
   }
   await closeTestDb()
 })
@@ -85,7 +85,7 @@ describe('My day', () => {
     await expect.poll(() => page.getByTestId('state-problem').textContent())
       .toBe(`Could not mark ${booking.patientName} as arrived: ${day} is not today: a visit can be marked arrived only on its day.`)
     expect(await block.getByTestId('visit-state').getAttribute('data-state')).toBe('booked')
-    expect((await testDb()('appointments').where({ id: booking.visit.id }).first('state')).state).toBe('booked')
+    expect((await testDb()('visits').where({ id: booking.visit.id }).first('state')).state).toBe('booked')
     await screenshot(page, 'my-day-refused')
   })
 

@@ -66,7 +66,7 @@ describe('Outbox screen', () => {
     await expect.poll(() => page.getByTestId('visit-status').textContent()).toBe('You have confirmed this visit. Thank you.')
     expect(await page.getByRole('button', { name: 'I will be there' }).count()).toBe(0)
     await screenshot(page, 'visit-link-confirmed')
-    expect((await testDb()('appointments').where({ id: visitId }).first()).state).toBe('confirmed')
+    expect((await testDb()('visits').where({ id: visitId }).first()).state).toBe('confirmed')
   })
 
   it('shows a tampered link as not valid', async () => {

@@ -77,7 +77,7 @@ describe('Content-Security-Policy in the browser', () => {
     const startUtc = utcAt(`${weekdayAhead(3, WEDNESDAY, annex.timeZone)}T10:00`, annex.timeZone)
     const booked = await manager.post('/api/visits', bookingFor(annex, 0, startUtc))
     expect(booked.status).toBe(201)
-    const row = await testDb()('appointments').where({ id: booked.body.id }).first('ical_uid')
+    const row = await testDb()('visits').where({ id: booked.body.id }).first('ical_uid')
     const token = signVisitToken(process.env.NUXT_MAIL_LINK_SECRET!, { id: booked.body.id, icalUid: row.ical_uid, expiresAtMs: new Date(startUtc).getTime() + 86_400_000 })
 
     const page = await browser.context.newPage()
@@ -90,7 +90,7 @@ describe('Content-Security-Policy in the browser', () => {
     // The page's own POST (same origin, Referrer-Policy same-origin) still passes the origin check.
     await page.getByRole('button', { name: 'I will be there' }).click()
     await page.getByText('You have confirmed this visit. Thank you.').waitFor()
-    expect((await testDb()('appointments').where({ id: booked.body.id }).first('state')).state).toBe('confirmed')
+    expect((await testDb()('visits').where({ id: booked.body.id }).first('state')).state).toBe('confirmed')
     await screenshot(page, 'csp-visit-page')
     // The test site has no address or phone: the page leaves those rows out instead of showing blanks.
     const text = await page.getByTestId('visit-page').textContent()

@@ -42,9 +42,9 @@ describe('a dentist and the visit rules on screen', () => {
     const block = page.locator(`[data-testid="myday-visit"][data-visit-id="${own.id}"]`)
     await expect.poll(() => block.count()).toBe(1)
     await block.getByRole('button', { name: `Mark arrived: ${own.patientName}` }).click()
-    await expect.poll(async () => (await testDb()('appointments').where({ id: own.id }).first('state')).state).toBe('arrived')
+    await expect.poll(async () => (await testDb()('visits').where({ id: own.id }).first('state')).state).toBe('arrived')
     await block.getByRole('button', { name: `Start treatment: ${own.patientName}` }).click()
-    await expect.poll(async () => (await testDb()('appointments').where({ id: own.id }).first('state')).state).toBe('treating')
+    await expect.poll(async () => (await testDb()('visits').where({ id: own.id }).first('state')).state).toBe('treating')
     expect(await block.getByTestId('visit-state').getAttribute('data-state')).toBe('treating')
     // Every view of the visit follows the change, not only the button that made it.
     await expect.poll(() => page.getByTestId('next-up-item').filter({ hasText: own.patientName }).getByTestId('visit-state').getAttribute('data-state')).toBe('treating')

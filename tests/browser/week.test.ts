@@ -26,8 +26,8 @@ beforeAll(async () => {
 afterAll(async () => {
   await browser?.close()
   if (booking) {
-    await testDb()('appointment_segments').where({ appointment_id: booking.visit.id }).delete()
-    await testDb()('appointments').where({ id: booking.visit.id }).update({ state: 'cancelled', cancel_reason: 'Week test' })
+    await testDb()('visit_segments').where({ visit_id: booking.visit.id }).delete()
+    await testDb()('visits').where({ id: booking.visit.id }).update({ state: 'cancelled', cancel_reason: 'Week test' })
   }
   await closeTestDb()
 })

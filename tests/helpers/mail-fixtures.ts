@@ -37,6 +37,6 @@ export function bookingFor(annex: Annex, patientIndex: number, startUtc: string,
   return { siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], patientId: annex.patientIds[patientIndex], startUtc, items }
 }
 
-export async function outboxRowsOf(appointmentId: number) {
-  return testDb()('outbox').where({ appointment_id: appointmentId }).orderBy('id')
+export async function outboxRowsOf(visitId: number) {
+  return testDb()('outbox').where({ visit_id: visitId }).orderBy('id')
 }

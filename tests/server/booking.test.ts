@@ -25,7 +25,7 @@ function booking(overrides: Record<string, unknown>) {
 }
 
 async function visitsAt(operatoryId: number, startUtc: string): Promise<number> {
-  const row = await testDb()('appointments').where({ operatory_id: operatoryId, start_utc: new Date(startUtc) }).whereNot('state', 'cancelled').count({ count: '*' }).first()
+  const row = await testDb()('visits').where({ operatory_id: operatoryId, start_utc: new Date(startUtc) }).whereNot('state', 'cancelled').count({ count: '*' }).first()
   return Number(row!.count)
 }
 
@@ -45,7 +45,7 @@ describe('booking a visit', () => {
     expect(response.body.segments[0].startUtc).toBe(response.body.startUtc)
     expect(response.body.segments.at(-1).endUtc).toBe(response.body.endUtc)
     expect(await testDb()('audit_log').where({ action: 'visit_booked', entity_id: String(response.body.id) })).toHaveLength(1)
-    expect(await testDb()('outbox').where({ appointment_id: response.body.id, kind: 'invitation' })).toHaveLength(1)
+    expect(await testDb()('outbox').where({ visit_id: response.body.id, kind: 'invitation' })).toHaveLength(1)
   })
 
   it('books a second patient in another chair during the first one\'s numbing wait, not during hands-on work', async () => {
@@ -129,7 +129,7 @@ describe('moving, states and cancelling', () => {
     expect(blocker.status).toBe(201)
     const ontoBusy = await manager.patch(`/api/visits/${a.body.id}`, { rowVersion: 2, operatoryId: quarry.chair3 })
     expect(ontoBusy.status).toBe(409)
-    expect(ontoBusy.body.data.conflict).toMatchObject({ resource: 'operatory', id: quarry.chair3, appointmentId: blocker.body.id })
+    expect(ontoBusy.body.data.conflict).toMatchObject({ resource: 'operatory', id: quarry.chair3, visitId: blocker.body.id })
     const unchanged = await manager.get(`/api/visits/${a.body.id}`)
     expect(unchanged.body).toMatchObject({ operatoryId: quarry.chair1, rowVersion: 2 })
   })
@@ -209,7 +209,7 @@ describe('concurrency (real MariaDB, real HTTP)', () => {
     const responses = await Promise.all(Array.from({ length: 50 }, (_, index) =>
       manager.post('/api/visits', annexBooking(50 + index, { startUtc, operatoryId: annex.operatoryIds[index] }))))
     expect(statuses(responses)).toEqual({ 201: 1, 409: 49 })
-    const booked = await testDb()('appointments').where({ provider_id: annex.providerIds[0], start_utc: new Date(startUtc) }).count({ count: '*' }).first()
+    const booked = await testDb()('visits').where({ provider_id: annex.providerIds[0], start_utc: new Date(startUtc) }).count({ count: '*' }).first()
     expect(Number(booked!.count)).toBe(1)
   })
 

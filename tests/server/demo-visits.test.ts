@@ -40,7 +40,7 @@ describe('demo visits', () => {
     const sites = await scratch('sites').select('id', 'slug', 'time_zone')
     expect(sites.length).toBeGreaterThanOrEqual(3)
     for (const site of sites) {
-      const starts: Date[] = await scratch('appointments').where({ site_id: site.id }).pluck('start_utc')
+      const starts: Date[] = await scratch('visits').where({ site_id: site.id }).pluck('start_utc')
       const today = DateTime.now().setZone(site.time_zone).toISODate()!
       const days = new Set(starts.map((start) => DateTime.fromJSDate(start, { zone: site.time_zone }).toISODate()!))
       const before = [...days].filter((day) => day < today)
@@ -52,7 +52,7 @@ describe('demo visits', () => {
   })
 
   it('leave past visits settled as a real week would: mostly finished, some missed or cancelled', async () => {
-    const past = await scratch('appointments').where('end_utc', '<=', new Date()).groupBy('state').select('state').count({ count: '*' }) as Array<{ state: string; count: number }>
+    const past = await scratch('visits').where('end_utc', '<=', new Date()).groupBy('state').select('state').count({ count: '*' }) as Array<{ state: string; count: number }>
     const byState: Record<string, number> = Object.fromEntries(past.map((row) => [row.state, Number(row.count)]))
     expect(byState.booked ?? 0).toBe(0)
     expect(byState.confirmed ?? 0).toBe(0)
@@ -61,27 +61,27 @@ describe('demo visits', () => {
   })
 
   it('never double-book a chair or a provider\'s hands-on time', async () => {
-    const [rooms] = await scratch.raw(`SELECT COUNT(*) AS n FROM appointment_segments x JOIN appointment_segments y
-      ON x.operatory_id = y.operatory_id AND x.appointment_id < y.appointment_id AND x.start_utc < y.end_utc AND x.end_utc > y.start_utc`)
-    const [hands] = await scratch.raw(`SELECT COUNT(*) AS n FROM appointment_segments x JOIN appointment_segments y
-      ON x.provider_id = y.provider_id AND x.appointment_id < y.appointment_id AND x.kind = 'hands_on' AND y.kind = 'hands_on'
+    const [rooms] = await scratch.raw(`SELECT COUNT(*) AS n FROM visit_segments x JOIN visit_segments y
+      ON x.operatory_id = y.operatory_id AND x.visit_id < y.visit_id AND x.start_utc < y.end_utc AND x.end_utc > y.start_utc`)
+    const [hands] = await scratch.raw(`SELECT COUNT(*) AS n FROM visit_segments x JOIN visit_segments y
+      ON x.provider_id = y.provider_id AND x.visit_id < y.visit_id AND x.kind = 'hands_on' AND y.kind = 'hands_on'
       AND x.start_utc < y.end_utc AND x.end_utc > y.start_utc`)
     expect(Number(rooms[0].n)).toBe(0)
     expect(Number(hands[0].n)).toBe(0)
   })
 
   it('interleave one dentist\'s two chairs during numbing waits', async () => {
-    const [rows] = await scratch.raw(`SELECT COUNT(*) AS n FROM appointments a JOIN appointments b
+    const [rows] = await scratch.raw(`SELECT COUNT(*) AS n FROM visits a JOIN visits b
       ON a.provider_id = b.provider_id AND a.id < b.id AND a.operatory_id <> b.operatory_id
       AND a.start_utc < b.end_utc AND a.end_utc > b.start_utc
-      JOIN appointment_segments numbing ON numbing.appointment_id = a.id AND numbing.kind = 'numbing'
+      JOIN visit_segments numbing ON numbing.visit_id = a.id AND numbing.kind = 'numbing'
       WHERE a.state NOT IN ('cancelled', 'missed') AND b.state NOT IN ('cancelled', 'missed')`)
     expect(Number(rows[0].n)).toBeGreaterThan(0)
   })
 
   it('queue no patient mail for visits that began before the demo did', async () => {
-    const queued = await scratch('outbox').join('appointments', 'appointments.id', 'outbox.appointment_id')
-      .where('outbox.state', 'queued').where('appointments.start_utc', '<', new Date()).count({ count: '*' }).first()
+    const queued = await scratch('outbox').join('visits', 'visits.id', 'outbox.visit_id')
+      .where('outbox.state', 'queued').where('visits.start_utc', '<', new Date()).count({ count: '*' }).first()
     expect(Number(queued?.count)).toBe(0)
     const invitations = await scratch('outbox').where({ state: 'queued', kind: 'invitation' }).count({ count: '*' }).first()
     expect(Number(invitations?.count)).toBeGreaterThan(0)

@@ -19,14 +19,14 @@ beforeAll(async () => {
 })
 afterAll(closeTestDb)
 
-async function outboxRow(appointmentId: number, kind: string) {
-  const rows = (await outboxRowsOf(appointmentId)).filter((row) => row.kind === kind)
+async function outboxRow(visitId: number, kind: string) {
+  const rows = (await outboxRowsOf(visitId)).filter((row) => row.kind === kind)
   expect(rows.length).toBeGreaterThan(0)
   return rows.at(-1)!
 }
 
-async function arrived(appointmentId: number, kind: string, email: string): Promise<Arrived> {
-  const row = await outboxRow(appointmentId, kind)
+async function arrived(visitId: number, kind: string, email: string): Promise<Arrived> {
+  const row = await outboxRow(visitId, kind)
   return waitForOutboxMail(email, row.id)
 }
 
@@ -66,7 +66,7 @@ describe('invitation, update and cancellation', () => {
     expect(String(vevent.getFirstPropertyValue('organizer')).toLowerCase()).toBe(`mailto:${annex.siteEmail}`)
     expect(vevent.getAllProperties('attendee').map((attendee) => String(attendee.getFirstValue()).toLowerCase())).toContain(`mailto:${annex.emails[0]}`)
     // DTSTART is the visit's UTC start (UTC form, so no VTIMEZONE is needed; RFC 5546 §3.2.2).
-    const row = await testDb()('appointments').where({ id: visitId }).first()
+    const row = await testDb()('visits').where({ id: visitId }).first()
     const dtstart = vevent.getFirstPropertyValue('dtstart') as { toJSDate: () => Date }
     expect(dtstart.toJSDate().toISOString()).toBe(row.start_utc.toISOString())
     expect(vevent.getFirstProperty('dtstart')!.toICALString()).toMatch(/^DTSTART:\d{8}T\d{6}Z$/)
@@ -127,7 +127,7 @@ describe('invitation, update and cancellation', () => {
   })
 
   it('sends METHOD:CANCEL with the same UID, STATUS:CANCELLED, a higher SEQUENCE and no VALARM on cancel (RFC 5546 §3.2.5)', async () => {
-    const before = await testDb()('appointments').where({ id: visitId }).first()
+    const before = await testDb()('visits').where({ id: visitId }).first()
     const cancelled = await manager.post(`/api/visits/${visitId}/cancel`, { reason: 'Patient is travelling' })
     expect(cancelled.status).toBe(200)
     const cancellation = await arrived(visitId, 'cancellation', annex.emails[0]!)
@@ -178,7 +178,7 @@ describe('mail held up past the visit', () => {
     // As if the mail had waited through a long outage: both visits now lie in the past.
     const lastWeek = DateTime.now().minus({ days: 7 })
     for (const id of [kept.body.id, dropped.body.id]) {
-      await testDb()('appointments').where({ id }).update({ start_utc: lastWeek.toJSDate(), end_utc: lastWeek.plus({ hours: 1 }).toJSDate() })
+      await testDb()('visits').where({ id }).update({ start_utc: lastWeek.toJSDate(), end_utc: lastWeek.plus({ hours: 1 }).toJSDate() })
     }
     await testDb()('sites').where({ id: held.siteId }).update({ settings: JSON.stringify({ minimumNoticeMinutes: 0 }) })
     await expect.poll(async () => (await outboxRow(kept.body.id, 'invitation')).state, { timeout: 15_000 }).toBe('skipped')
@@ -210,7 +210,7 @@ describe('the signed visit link', () => {
     const confirmed = await patient.post(`/api/visit/${encodeURIComponent(token)}/confirm`)
     expect(confirmed.status).toBe(200)
     expect(confirmed.body.state).toBe('confirmed')
-    expect((await testDb()('appointments').where({ id: visitId }).first()).state).toBe('confirmed')
+    expect((await testDb()('visits').where({ id: visitId }).first()).state).toBe('confirmed')
     // Confirming twice is harmless.
     expect((await patient.post(`/api/visit/${encodeURIComponent(token)}/confirm`)).status).toBe(200)
   })
@@ -227,7 +227,7 @@ describe('the signed visit link', () => {
   })
 
   it('refuses an expired token (signed correctly, but after the visit) with 410', async () => {
-    const row = await testDb()('appointments').where({ id: visitId }).first()
+    const row = await testDb()('visits').where({ id: visitId }).first()
     const expired = signVisitToken(process.env.NUXT_MAIL_LINK_SECRET!, { id: visitId, icalUid: row.ical_uid, expiresAtMs: Date.now() - 60_000 })
     expect((await new ApiClient().get(`/api/visit/${encodeURIComponent(expired)}`)).status).toBe(410)
     expect((await new ApiClient().post(`/api/visit/${encodeURIComponent(expired)}/confirm`)).status).toBe(410)
@@ -238,7 +238,7 @@ describe('the signed visit link', () => {
     expect(response.status).toBe(200)
     expect(response.headers.get('content-type')).toMatch(/^text\/calendar;.*method=REQUEST/)
     const vevent = veventOf(parseCalendar(await response.text()))
-    const row = await testDb()('appointments').where({ id: visitId }).first()
+    const row = await testDb()('visits').where({ id: visitId }).first()
     expect(vevent.getFirstPropertyValue('uid')).toBe(row.ical_uid)
     expect((await new ApiClient().get(`/api/visits/${visitId}/ics`)).status).toBe(400)
     // Links in e-mails sent before the routes were renamed still open the same event.
@@ -251,14 +251,14 @@ describe('the signed visit link', () => {
     const asked = await new ApiClient().post(`/api/visit/${encodeURIComponent(token)}/cancel`)
     expect(asked.status).toBe(200)
     expect(asked.body).toMatchObject({ state: 'confirmed', cancelRequested: true, canCancel: false })
-    const row = await testDb()('appointments').where({ id: visitId }).first()
+    const row = await testDb()('visits').where({ id: visitId }).first()
     expect(row.state).toBe('confirmed')
     expect(row.cancel_requested_at).not.toBeNull()
     expect(await testDb()('audit_log').where({ action: 'visit_cancel_requested', entity_id: String(visitId) })).toHaveLength(1)
     // The front desk sees it: on the visit and in the Outbox's list of requests.
     expect((await manager.get(`/api/visits/${visitId}`)).body.cancelRequestedAt).toBe(row.cancel_requested_at.toISOString())
     const requests = await manager.get(`/api/outbox/cancel-requests?siteId=${annex.siteId}`)
-    expect(requests.body.map((request: { appointmentId: number }) => request.appointmentId)).toContain(visitId)
+    expect(requests.body.map((request: { visitId: number }) => request.visitId)).toContain(visitId)
     expect((await (await signedInAs('desk.aspen@fernhollow.test')).get(`/api/outbox/cancel-requests?siteId=${annex.siteId}`)).status).toBe(403)
   })
 
@@ -271,7 +271,7 @@ describe('the signed visit link', () => {
     expect(cancelled.body.state).toBe('cancelled')
     const mail = await arrived(booked.body.id, 'cancellation', eager.emails[0]!)
     expect(calendarMethodParam(mail)).toBe('CANCEL')
-    expect(await testDb()('appointment_segments').where({ appointment_id: booked.body.id })).toHaveLength(0)
+    expect(await testDb()('visit_segments').where({ visit_id: booked.body.id })).toHaveLength(0)
   })
 })
 
@@ -279,7 +279,7 @@ describe('Outbox API', () => {
   it('lists a visit\'s messages, shows the rendered message and .ics, and resends', async () => {
     const booked = await manager.post('/api/visits', bookingFor(annex, 4, atAhead(5, MONDAY, '10:00', ZONE)))
     const first = await arrived(booked.body.id, 'invitation', annex.emails[4]!)
-    const list = await manager.get(`/api/outbox?appointmentId=${booked.body.id}`)
+    const list = await manager.get(`/api/outbox?visitId=${booked.body.id}`)
     expect(list.status).toBe(200)
     const invitation = list.body.find((message: { kind: string }) => message.kind === 'invitation')
     expect(invitation).toMatchObject({ state: 'sent', recipient: annex.emails[4] })

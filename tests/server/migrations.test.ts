@@ -37,14 +37,30 @@ describe('migrations', () => {
   it('creates every table, rolls all of them back, and applies again', async () => {
     await scratch.migrate.latest(migratorConfig)
     expect(await tableNames(scratch)).toEqual([
-      'appointment_segments', 'appointments', 'audit_log', 'blocks', 'idempotency_keys', 'operatories', 'outbox',
-      'patients', 'procedure_templates', 'providers', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites',
-      'user_sites', 'users',
+      'audit_log', 'blocks', 'idempotency_keys', 'operatories', 'outbox', 'patients', 'procedure_templates',
+      'providers', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites', 'user_sites', 'users',
+      'visit_segments', 'visits',
     ])
     await scratch.migrate.rollback(migratorConfig, true)
     expect(await tableNames(scratch)).toEqual([])
     await scratch.migrate.latest(migratorConfig)
     expect((await tableNames(scratch)).length).toBe(16)
+  })
+
+  it('renames appointments to visits, carrying rows written before the rename', async () => {
+    const rename = { ...migratorConfig, name: '20261204090100_rename-appointments-to-visits.ts' }
+    await scratch.migrate.down(rename)
+    expect(await tableNames(scratch)).toContain('appointments')
+    await scratch('audit_log').insert({ action: 'visit_booked', entity: 'appointment', entity_id: '7', after: '{"appointmentId":7,"state":"booked"}' })
+    await scratch('outbox').insert({ kind: 'invitation', appointment_id: null, payload: '{"appointmentId":7}', due_at: new Date() })
+    await scratch.migrate.up(rename)
+    const asJson = (value: unknown) => (typeof value === 'string' ? JSON.parse(value) : value)
+    const audit = await scratch('audit_log').where({ entity_id: '7' }).first('entity', 'after')
+    expect({ entity: audit.entity, after: asJson(audit.after) }).toEqual({ entity: 'visit', after: { visitId: 7, state: 'booked' } })
+    expect(asJson((await scratch('outbox').first('payload', 'visit_id')).payload)).toEqual({ visitId: 7 })
+    expect(await tableNames(scratch)).not.toContain('appointments')
+    await scratch('audit_log').delete()
+    await scratch('outbox').delete()
   })
 
   it('stores DATETIME values as UTC whatever the session zone was', async () => {

@@ -107,7 +107,7 @@ const leaf = fc.oneof(
 )
 
 const FIELD_NAMES = [
-  'siteId', 'siteIds', 'providerId', 'patientId', 'operatoryId', 'userId', 'templateId', 'appointmentId', 'preferredSiteId',
+  'siteId', 'siteIds', 'providerId', 'patientId', 'operatoryId', 'userId', 'templateId', 'visitId', 'preferredSiteId',
   'from', 'to', 'fromUtc', 'toUtc', 'startUtc', 'validFrom', 'validUntil', 'startDate', 'endDate', 'untilDate', 'dateOfBirth', 'closedDates',
   'localStart', 'localEnd', 'rrule', 'timeZone', 'openingHours', 'quietHours', 'items', 'steps', 'anaesthesia', 'lengthOverride',
   'note', 'reason', 'name', 'firstName', 'lastName', 'email', 'phone', 'password', 'q', 'code', 'slug', 'address', 'whatToBring',
@@ -177,7 +177,7 @@ function toJson(value: unknown): string {
   return JSON.stringify(value).replaceAll(JSON.stringify(BIG), '9007199254740993')
 }
 
-const QUERY_KEYS = ['siteId', 'providerId', 'patientId', 'appointmentId', 'from', 'to', 'fromUtc', 'toUtc', 'q', 'limit', 'state', 'token',
+const QUERY_KEYS = ['siteId', 'providerId', 'patientId', 'visitId', 'from', 'to', 'fromUtc', 'toUtc', 'q', 'limit', 'state', 'token',
   'includeInactive', 'includeCancelled', 'quietBelow', 'tightFrom', '__proto__', 'constructor', 'siteId[]', 'from[x]'] as const
 const queryValue = fc.oneof(
   { weight: 6, arbitrary: anyString.map(percentEncode) },

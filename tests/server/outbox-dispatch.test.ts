@@ -58,7 +58,7 @@ describe('with the SMTP server down', () => {
       expect(booked.status).toBe(201)
       ids.push(booked.body.id)
     }
-    const invitations = () => testDb()('outbox').whereIn('appointment_id', ids).where({ kind: 'invitation' })
+    const invitations = () => testDb()('outbox').whereIn('visit_id', ids).where({ kind: 'invitation' })
     // Tried, refused by the closed port, waiting for the next attempt.
     await expect.poll(async () => (await invitations()).every((row) => row.attempts >= 1 && row.state === 'queued' && /ECONNREFUSED/.test(row.last_error ?? '')), { timeout: 20_000, interval: 200 }).toBe(true)
     expect(catcher.received).toHaveLength(0)
@@ -90,11 +90,11 @@ describe('two dispatcher processes', () => {
     expect(booked.status).toBe(201)
 
     const rows = Array.from({ length: 200 }, () => ({
-      kind: 'update', appointment_id: booked.body.id, site_id: annex.siteId, due_at: new Date(), payload: JSON.stringify({ appointmentId: booked.body.id }),
+      kind: 'update', visit_id: booked.body.id, site_id: annex.siteId, due_at: new Date(), payload: JSON.stringify({ visitId: booked.body.id }),
     }))
     const batchTag = new Date()
     await testDb()('outbox').insert(rows)
-    const ours = () => testDb()('outbox').where({ appointment_id: booked.body.id, kind: 'update' }).where('created_at', '>=', new Date(batchTag.getTime() - 1000))
+    const ours = () => testDb()('outbox').where({ visit_id: booked.body.id, kind: 'update' }).where('created_at', '>=', new Date(batchTag.getTime() - 1000))
     expect(await ours()).toHaveLength(200)
     await expect.poll(async () => (await ours()).filter((row) => row.state === 'sent').length, { timeout: 60_000, interval: 250 }).toBe(200)
     await Promise.all([one!.stop(), two!.stop()]) // no send in flight after both processes exited
@@ -123,15 +123,15 @@ describe('giving up and taking over', () => {
     await desk.signIn('manager@fernhollow.test')
     const booked = await desk.post('/api/visits', bookingFor(annex, 0, atAhead(4, MONDAY, '09:00', ZONE)))
     expect(booked.status).toBe(201)
-    const invitation = () => testDb()('outbox').where({ appointment_id: booked.body.id, kind: 'invitation' }).first()
+    const invitation = () => testDb()('outbox').where({ visit_id: booked.body.id, kind: 'invitation' }).first()
     await expect.poll(async () => (await invitation()).state, { timeout: 20_000, interval: 200 }).toBe('failed')
     expect(await invitation()).toMatchObject({ attempts: 2, last_error: expect.stringMatching(/ECONNREFUSED/) })
 
     await catcher.start()
     // A row some other process claimed and then died on: 'sending' with its lease in the past.
     const [stranded] = await testDb()('outbox').insert({
-      kind: 'update', appointment_id: booked.body.id, site_id: annex.siteId, due_at: new Date(Date.now() - 300_000), state: 'sending',
-      attempts: 1, lease_until: new Date(Date.now() - 1000), payload: JSON.stringify({ appointmentId: booked.body.id }),
+      kind: 'update', visit_id: booked.body.id, site_id: annex.siteId, due_at: new Date(Date.now() - 300_000), state: 'sending',
+      attempts: 1, lease_until: new Date(Date.now() - 1000), payload: JSON.stringify({ visitId: booked.body.id }),
     })
     await expect.poll(async () => (await testDb()('outbox').where({ id: stranded }).first()).state, { timeout: 20_000, interval: 200 }).toBe('sent')
     expect(deliveriesPerRow(catcher).get(stranded as number)).toBe(1)

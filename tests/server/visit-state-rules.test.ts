@@ -21,7 +21,7 @@ beforeAll(async () => {
 afterAll(async () => { await closeTestDb() })
 // Each test starts with the annex's chairs and providers free again (every test books around now).
 const bookedIds: number[] = []
-afterEach(async () => { if (bookedIds.length) await testDb()('appointment_segments').whereIn('appointment_id', bookedIds).delete() })
+afterEach(async () => { if (bookedIds.length) await testDb()('visit_segments').whereIn('visit_id', bookedIds).delete() })
 
 async function book(startUtc: string, options: { providerIndex?: number; operatoryIndex?: number } = {}) {
   const response = await admin.post('/api/visits', {
@@ -35,16 +35,16 @@ async function book(startUtc: string, options: { providerIndex?: number; operato
 
 /** The visit as if booked `minutes` ago (the booking API refuses past starts). */
 async function setBack(id: number, minutes: number) {
-  await testDb()('appointments').where({ id }).update({
+  await testDb()('visits').where({ id }).update({
     start_utc: testDb().raw('start_utc - INTERVAL ? MINUTE', [minutes]), end_utc: testDb().raw('end_utc - INTERVAL ? MINUTE', [minutes]),
   })
-  await testDb()('appointment_segments').where({ appointment_id: id }).update({
+  await testDb()('visit_segments').where({ visit_id: id }).update({
     start_utc: testDb().raw('start_utc - INTERVAL ? MINUTE', [minutes]), end_utc: testDb().raw('end_utc - INTERVAL ? MINUTE', [minutes]),
   })
 }
 
-const stateOf = async (id: number) => (await testDb()('appointments').where({ id }).first('state')).state as string
-const segmentCount = async (id: number) => Number((await testDb()('appointment_segments').where({ appointment_id: id }).count({ n: '*' }).first())!.n)
+const stateOf = async (id: number) => (await testDb()('visits').where({ id }).first('state')).state as string
+const segmentCount = async (id: number) => Number((await testDb()('visit_segments').where({ visit_id: id }).count({ n: '*' }).first())!.n)
 
 describe('a visit\'s state follows its time', () => {
   it('a visit weeks ahead cannot be marked did not come or arrived, and keeps its chair', async () => {

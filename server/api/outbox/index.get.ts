@@ -1,4 +1,4 @@
-// GET /api/outbox?siteId=&state=&appointmentId=&limit=: patient e-mails of the caller's sites, newest first.
+// GET /api/outbox?siteId=&state=&visitId=&limit=: patient e-mails of the caller's sites, newest first.
 import { OutboxQuerySchema } from '#shared/schemas/outbox'
 import type { OutboxMessageDto } from '#shared/types/outbox'
 import { BOOKING_ROLES, requireRole } from '../../utils/auth'

@@ -79,7 +79,7 @@ async function retryOrGiveUp(db: Db, row: OutboxRow, error: unknown, settings: D
 async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   let sent: { messageId: string; rendered: ComposedMessage['rendered'] }
   try {
-    const context = row.appointment_id === null ? undefined : await loadMailContext(db, row.appointment_id)
+    const context = row.visit_id === null ? undefined : await loadMailContext(db, row.visit_id)
     const skip = reasonToSkip(row, context, Date.now())
     if (skip) {
       await markSkipped(db, row, skip)

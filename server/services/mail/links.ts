@@ -8,10 +8,10 @@ export function visitToken(secret: string, context: MailContext): string {
   return signVisitToken(secret, { id: context.visit.id, icalUid: context.visit.icalUid, expiresAtMs: context.visit.endUtc.getTime() })
 }
 
-export function patientLinks(publicUrl: string, token: string, appointmentId: number): PatientLinks {
+export function patientLinks(publicUrl: string, token: string, visitId: number): PatientLinks {
   const base = publicUrl.replace(/\/+$/, '')
   return {
     visitPage: `${base}/visit/${encodeURIComponent(token)}`,
-    ics: `${base}/api/visits/${appointmentId}/ics?token=${encodeURIComponent(token)}`,
+    ics: `${base}/api/visits/${visitId}/ics?token=${encodeURIComponent(token)}`,
   }
 }

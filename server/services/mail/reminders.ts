@@ -6,12 +6,12 @@ import { skipQueuedReminders, type NewOutboxMessage } from '../../repositories/o
 import { mailSettingsOf } from '#shared/domain/site-settings'
 import { scheduleNowMs } from '../../utils/clock'
 
-export async function dropQueuedReminders(db: Db, appointmentId: number): Promise<void> {
-  await skipQueuedReminders(db, appointmentId, 'visit moved or cancelled: reminders planned again')
+export async function dropQueuedReminders(db: Db, visitId: number): Promise<void> {
+  await skipQueuedReminders(db, visitId, 'visit moved or cancelled: reminders planned again')
 }
 
 export interface ReminderVisit {
-  appointmentId: number
+  visitId: number
   startMs: number
   site: { id: number; timeZone: string; settings: Record<string, unknown> }
 }
@@ -24,7 +24,7 @@ export function reminderMessages(visit: ReminderVisit, nowMs = scheduleNowMs()):
     quietHours: settings.quietHours, timeZone: visit.site.timeZone, nowMs,
   })
   return planned.map((reminder) => ({
-    kind: 'reminder', appointmentId: visit.appointmentId, siteId: visit.site.id, dueAt: new Date(reminder.dueMs),
-    payload: { appointmentId: visit.appointmentId, startUtc: new Date(visit.startMs).toISOString(), offsetHours: reminder.offsetHours },
+    kind: 'reminder', visitId: visit.visitId, siteId: visit.site.id, dueAt: new Date(reminder.dueMs),
+    payload: { visitId: visit.visitId, startUtc: new Date(visit.startMs).toISOString(), offsetHours: reminder.offsetHours },
   }))
 }
