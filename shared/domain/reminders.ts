@@ -1,7 +1,7 @@
 // When a visit's reminder e-mails go out: per-site offsets before the start, never inside the
 // site's local quiet hours (a reminder that would fall there goes out earlier, before quiet hours
 // begin), never in the past, one per moment.
-import { DateTime } from 'luxon'
+import { addDays, localDateAt, localTime, localToUtcMs, minutesOfDay } from '../utils/local-date'
 
 export interface QuietHours {
   /** Local 'HH:MM'; quiet from start (inclusive) to end (exclusive), may wrap past midnight. */
@@ -25,14 +25,9 @@ export interface PlannedReminder {
 /** How long before quiet hours begin a moved reminder is sent. */
 export const BEFORE_QUIET_MINUTES = 15
 
-function minutesOf(hhmm: string): number {
-  const [hours, minutes] = hhmm.split(':').map(Number)
-  return (hours ?? 0) * 60 + (minutes ?? 0)
-}
-
 export function isQuiet(localMinutes: number, quiet: QuietHours): boolean {
-  const start = minutesOf(quiet.start)
-  const end = minutesOf(quiet.end)
+  const start = minutesOfDay(quiet.start)
+  const end = minutesOfDay(quiet.end)
   if (start === end) return false
   return start < end ? localMinutes >= start && localMinutes < end : localMinutes >= start || localMinutes < end
 }
@@ -40,14 +35,12 @@ export function isQuiet(localMinutes: number, quiet: QuietHours): boolean {
 /** The instant a reminder due at `dueMs` is actually sent: before the quiet hours it falls in. */
 export function outsideQuietHours(dueMs: number, quiet: QuietHours | null, timeZone: string): number {
   if (!quiet) return dueMs
-  const local = DateTime.fromMillis(dueMs, { zone: timeZone })
-  const minutes = local.hour * 60 + local.minute
+  const minutes = minutesOfDay(localTime(new Date(dueMs).toISOString(), timeZone))
   if (!isQuiet(minutes, quiet)) return dueMs
-  const start = minutesOf(quiet.start)
+  const today = localDateAt(dueMs, timeZone)
   // Quiet hours that began yesterday evening (we are in the early morning part of them).
-  const day = minutes >= start ? local : local.minus({ days: 1 })
-  const quietBegins = day.set({ hour: Math.floor(start / 60), minute: start % 60, second: 0, millisecond: 0 })
-  return quietBegins.minus({ minutes: BEFORE_QUIET_MINUTES }).toMillis()
+  const day = minutes >= minutesOfDay(quiet.start) ? today : addDays(today, -1)
+  return localToUtcMs(day, quiet.start, timeZone) - BEFORE_QUIET_MINUTES * 60_000
 }
 
 export function planReminders(input: ReminderPlanInput): PlannedReminder[] {

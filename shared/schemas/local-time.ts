@@ -3,6 +3,7 @@
 import { z } from 'zod'
 import { IANAZone } from 'luxon'
 import { validateRule } from '../domain/recurrence/rules'
+import { minutesOfDay } from '../utils/local-date'
 import { dateInBounds } from './common'
 
 /** 'HH:mm', 00:00 to 23:59 (zod's ISO time without seconds). */
@@ -53,12 +54,6 @@ export const RruleSchema = z
 
 export const ColourSchema = z.string({ error: 'is required' }).regex(/^#[0-9a-fA-F]{6}$/, 'must be a colour such as #0f766e')
 
-/** 'HH:mm' to minutes after midnight; '24:00' is 1440. */
-export function minutesOf(time: string): number {
-  const [hours, minutes] = time.split(':').map(Number)
-  return (hours ?? 0) * 60 + (minutes ?? 0)
-}
-
 export interface TimeRangeFields {
   localStart?: string | null
   localEnd?: string | null
@@ -67,7 +62,7 @@ export interface TimeRangeFields {
 /** Shifts and blocks stay inside one day: an end at or before the start is a typing mistake here. */
 export function endAfterStart(range: TimeRangeFields, ctx: z.RefinementCtx): void {
   if (!range.localStart || !range.localEnd) return
-  if (minutesOf(range.localEnd) <= minutesOf(range.localStart)) {
+  if (minutesOfDay(range.localEnd) <= minutesOfDay(range.localStart)) {
     ctx.addIssue({ code: 'custom', path: ['localEnd'], message: 'must be after the start time' })
   }
 }

@@ -2,13 +2,14 @@
 import { z } from 'zod'
 import { OPERATORY_CAPABILITIES } from '../types/chair-time'
 import { IdSchema, plainText } from './common'
-import { ColourSchema, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, minutesOf, TimeZoneSchema } from './local-time'
+import { ColourSchema, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, TimeZoneSchema } from './local-time'
+import { minutesOfDay } from '../utils/local-date'
 
 export const BOOKING_UNITS = [5, 10, 15] as const
 
 const openingRange = z
   .object({ start: LocalTimeSchema, end: LocalEndTimeSchema })
-  .refine((range) => minutesOf(range.end) > minutesOf(range.start), { path: ['end'], message: 'must be after the opening time' })
+  .refine((range) => minutesOfDay(range.end) > minutesOfDay(range.start), { path: ['end'], message: 'must be after the opening time' })
 
 const dayHours = z.array(openingRange, { error: 'must be a list of opening ranges' }).max(4, 'has too many ranges')
 
