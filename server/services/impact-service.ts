@@ -29,11 +29,19 @@ interface Verdict {
   zone: string
 }
 
+interface Check {
+  /** The visits in scope that do not hold, with the reason. */
+  notHolding: Map<number, Verdict>
+  /** The visits in scope flagged as stranded already. */
+  flagged: number[]
+}
+
 /** The visits in scope that do not hold on the calendar as this transaction sees it now. */
-async function visitsNotHolding(trx: Db, scope: OpenVisitScope, nowMs: number): Promise<Map<number, Verdict>> {
+async function checkVisits(trx: Db, scope: OpenVisitScope, nowMs: number): Promise<Check> {
   const visits = await listOpenVisitsAhead(trx, scope, nowMs)
   const found = new Map<number, Verdict>()
-  if (visits.length === 0) return found
+  const flagged = visits.filter((visit) => visit.strandedReason !== null).map((visit) => visit.id)
+  if (visits.length === 0) return { notHolding: found, flagged }
   const calendars = new Map<number, SiteCalendarInputs | undefined>()
   for (const siteId of new Set(visits.map((visit) => visit.siteId))) calendars.set(siteId, await loadSiteCalendar(trx, siteId))
   const providers = await findProviderStates(trx, [...new Set(visits.map((visit) => visit.providerId))])
@@ -50,7 +58,7 @@ async function visitsNotHolding(trx: Db, scope: OpenVisitScope, nowMs: number): 
     })
     if (reason !== null) found.set(visit.id, { visit, reason, zone: calendar.site.timeZone })
   }
-  return found
+  return { notHolding: found, flagged }
 }
 
 function toDto(verdict: Verdict): StrandedVisitDto {
@@ -91,15 +99,19 @@ export async function changeWithImpact<T>(context: ChangeContext, work: (trx: Db
       const watched: Array<{ scope: OpenVisitScope; before: Map<number, Verdict> }> = []
       const impact: ImpactWatch = {
         async watch(scope) {
-          watched.push({ scope, before: await visitsNotHolding(trx, scope, nowMs) })
+          watched.push({ scope, before: (await checkVisits(trx, scope, nowMs)).notHolding })
         },
       }
       const saved = await work(trx, impact)
       const stranded = new Map<number, Verdict>()
+      const holdAgain = new Set<number>()
       for (const { scope, before } of watched) {
-        for (const [id, verdict] of await visitsNotHolding(trx, scope, nowMs)) {
+        const after = await checkVisits(trx, scope, nowMs)
+        for (const [id, verdict] of after.notHolding) {
           if (!before.has(id)) stranded.set(id, verdict)
         }
+        // Flagged visits the change makes hold again (time off withdrawn, a block removed) leave the list.
+        for (const id of after.flagged) if (!after.notHolding.has(id)) holdAgain.add(id)
       }
       const strandedVisits = [...stranded.values()].sort((a, b) => a.visit.startMs - b.visit.startMs || a.visit.id - b.visit.id).map(toDto)
       if (context.dryRun) throw new DryRunAnswer(strandedVisits)
@@ -108,6 +120,7 @@ export async function changeWithImpact<T>(context: ChangeContext, work: (trx: Db
           await writeAudit(trx, { userId: context.userId, action: 'visit_stranded', entity: 'visit', entityId: visit.id, after: { reason: visit.reason, cause: context.cause } })
         }
       }
+      for (const id of holdAgain) await dropStranded(trx, id, context.userId, `holds again: ${context.cause}`)
       return { dryRun: false as const, saved, strandedVisits }
     })
   } catch (error) {
@@ -121,7 +134,7 @@ export async function changeWithImpact<T>(context: ChangeContext, work: (trx: Db
  * now holds, or carries the reason it still does not.
  */
 export async function settleStranded(trx: Db, visitId: number, userId: number): Promise<void> {
-  const verdict = (await visitsNotHolding(trx, { visitIds: [visitId] }, scheduleNowMs())).get(visitId)
+  const verdict = (await checkVisits(trx, { visitIds: [visitId] }, scheduleNowMs())).notHolding.get(visitId)
   if (verdict) return
   if (await clearStranded(trx, visitId)) {
     await writeAudit(trx, { userId, action: 'visit_unstranded', entity: 'visit', entityId: visitId, after: { how: 'moved' } })

@@ -51,8 +51,12 @@ describe('Rebook list in the browser', () => {
     await page.getByRole('button', { name: 'Time off or extra shift' }).click()
     const form = page.getByRole('dialog', { name: 'Time off or extra shift' })
     await form.getByLabel('Provider').selectOption({ label: dentist })
-    await form.getByLabel('From').fill(day)
-    await form.getByLabel('To (inclusive)').fill(day)
+    // From and To, the form's two dates.
+    const dates = form.locator('input[type="date"]')
+    await expect.poll(() => dates.count()).toBe(2)
+    await dates.nth(0).fill(day)
+    await dates.nth(1).fill(day)
+    await screenshot(page, 'rebook-time-off-form')
     await form.getByRole('button', { name: 'Save' }).click()
 
     const impact = page.getByTestId('impact-dialog')

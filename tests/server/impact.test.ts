@@ -86,6 +86,10 @@ describe('impact before saving: dry runs answer the visits a change strands and 
     expect(reasons.join(' ')).not.toContain('Flu')
     const audit = await testDb()('audit_log').where({ action: 'visit_stranded', entity: 'visit' }).whereIn('entity_id', booked.visitIds.map(String))
     expect(audit).toHaveLength(2)
+
+    // Withdrawing the time off makes them hold again: they leave the Rebook list.
+    expect((await admin.delete(`/api/shift-exceptions/${saved.body.id}`)).status).toBe(200)
+    expect(await flags(booked.visitIds)).toEqual([null, null, null])
   })
 
   it('a block on one chair, with its reason', async () => {
@@ -138,7 +142,8 @@ describe('impact before saving: dry runs answer the visits a change strands and 
     await expectDryRun(shorter, booked, [booked.visitIds[2]!], /^Outside the site's opening hours$/)
     const closed = await admin.patch(`/api/sites/${booked.annex.siteId}`, { closedDates: [booked.day], dryRun: true })
     await expectDryRun(closed, booked, booked.visitIds, new RegExp(`^The site is closed on ${booked.day}$`))
-    expect(await testDb()('sites').where({ id: booked.annex.siteId }).first('closed_dates')).toEqual({ closed_dates: '[]' })
+    const { closed_dates: closedDates } = await testDb()('sites').where({ id: booked.annex.siteId }).first('closed_dates')
+    expect(typeof closedDates === 'string' ? JSON.parse(closedDates) : closedDates).toEqual([])
   })
 
   it('a room taken out of use or losing a capability', async () => {

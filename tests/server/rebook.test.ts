@@ -72,7 +72,7 @@ describe('Rebook list', () => {
     const mail = await testDb()('outbox').where({ visit_id: entry!.id, kind: 'update' }).first('id')
     expect(mail).toBeDefined()
     const audit = await testDb()('audit_log').where({ action: 'visit_unstranded', entity_id: String(entry!.id) }).first('after')
-    expect(JSON.parse(audit.after)).toEqual({ how: 'moved' })
+    expect(typeof audit.after === 'string' ? JSON.parse(audit.after) : audit.after).toEqual({ how: 'moved' })
   })
 
   it('a move that still does not hold is refused and the visit stays on the list', async () => {
