@@ -92,7 +92,7 @@ describe('Rebook list in the browser', () => {
   it('lists them on the Rebook list with the count in the navigation, and moves one to another provider', async () => {
     const { page } = browser
     await expect.poll(() => page.getByTestId('rebook-count').first().textContent()).toContain('2')
-    await page.getByRole('link', { name: /Rebook list/ }).click()
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: /^Rebook list/ }).click()
     await page.waitForURL(/\/rebook$/)
     const rows = page.getByTestId('rebook-row')
     await expect.poll(() => rows.count()).toBe(2)
