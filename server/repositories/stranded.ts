@@ -147,6 +147,7 @@ interface RebookRow {
   provider_name: string
   operatory_name: string
   time_zone: string
+  tooth_notation: string
   plan: string
 }
 
@@ -163,7 +164,7 @@ export async function listRebook(db: Db, siteIds: readonly number[]): Promise<Re
     .orderBy(['visits.start_utc', 'visits.id'])
     .select('visits.id', 'visits.site_id', 'visits.operatory_id', 'visits.provider_id', 'visits.patient_id', 'patients.first_name', 'patients.last_name',
       'patients.phone', 'patients.email', 'visits.start_utc', 'visits.end_utc', 'visits.stranded_reason', 'visits.stranded_at', 'visits.row_version',
-      'users.name as provider_name', 'operatories.name as operatory_name', 'sites.time_zone', 'visits.plan')) as RebookRow[]
+      'users.name as provider_name', 'operatories.name as operatory_name', 'sites.time_zone', 'sites.tooth_notation', 'visits.plan')) as RebookRow[]
   return rows.map((row) => ({
     id: row.id, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id, patientId: row.patient_id,
     patient: `${row.first_name} ${row.last_name}`, phone: row.phone, email: row.email,
@@ -171,6 +172,8 @@ export async function listRebook(db: Db, siteIds: readonly number[]): Promise<Re
     reason: row.stranded_reason, strandedAt: row.stranded_at.toISOString(), rowVersion: row.row_version,
     providerName: row.provider_name, operatoryName: row.operatory_name, timeZone: row.time_zone,
     items: itemsOf(row.plan),
-    procedures: (parseJson<VisitPlan>(row.plan, {} as VisitPlan).items ?? []).map((item) => item.templateName),
+    // As the board says them: "Posterior composite 19 MO", teeth in the site's notation.
+    procedures: (parseJson<VisitPlan>(row.plan, {} as VisitPlan).items ?? []).map((item) =>
+      [item.templateName, item.tooth ? item.tooth[row.tooth_notation === 'iso' ? 'iso' : 'universal'] : '', item.surfaces?.join('') ?? ''].filter(Boolean).join(' ')),
   }))
 }

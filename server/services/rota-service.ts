@@ -181,8 +181,8 @@ export function changeBlock(user: SessionUser, id: number, patch: BlockPatch, dr
   })
 }
 
-export function deleteBlock(user: SessionUser, id: number): Promise<void> {
-  return inTransaction(async (trx) => {
+export function deleteBlock(user: SessionUser, id: number, dryRun = false): Promise<ImpactResult<void>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'block removed' }, async (trx) => {
     const block = await findBlock(trx, id)
     if (!block) throw notFound('No such block.')
     requireSiteAccess(user, block.siteId)

@@ -102,6 +102,12 @@ describe('impact before saving: dry runs answer the visits a change strands and 
     expect(saved.status).toBe(201)
     expect(idsOf(saved.body.strandedVisits)).toEqual([booked.visitIds[1]])
     expect((await flags(booked.visitIds))[1]).toBe('Room 2 is blocked: Handpiece repair')
+    // Removing it only frees time: its dry run strands nothing and keeps it; the real removal puts the visit back.
+    const keep = await admin.delete(`/api/blocks/${saved.body.id}?dryRun=true`)
+    expect(keep.body).toEqual({ strandedVisits: [] })
+    expect(await testDb()('blocks').where({ id: saved.body.id }).first('id')).toBeDefined()
+    expect((await admin.delete(`/api/blocks/${saved.body.id}`)).status).toBe(200)
+    expect(await flags(booked.visitIds)).toEqual([null, null, null])
   })
 
   it('a shift edited or deleted', async () => {
