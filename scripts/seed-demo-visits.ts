@@ -75,6 +75,7 @@ try {
   const settled = await settleVisits(sites)
   console.log(`moved ${settled} of them along their states (finished, missed, cancelled, under way, confirmed)`)
   console.log(`${await skipHistoricMail()} outbox messages left unsent: due or about visits before the demo began`)
+  console.log(`stranded ${await strandOneVisit(sites)} demo visit for the Rebook list (a chair block under it)`)
 } finally {
   await server.stop()
 }
@@ -162,4 +163,33 @@ async function skipHistoricMail(): Promise<number> {
     .update({ state: 'skipped', last_error: reason })
   await writer.destroy()
   return overdue + past
+}
+
+/**
+ * One booked visit a few days ahead at the first demo site gets a chair block laid exactly over it
+ * ("Handpiece repair"), through the real route on a server with the real clock: the change flags it,
+ * so a newcomer finds it on the Rebook list and marked "needs a new time" on the Chairboard.
+ */
+async function strandOneVisit(demoSites: Array<{ id: number; time_zone: string; slug: string }>): Promise<number> {
+  const site = demoSites.find((one) => one.slug === 'quarry-street') ?? demoSites[0]
+  if (!site) return 0
+  const reader = createDb(dbSettingsFromEnv())
+  const visit = await reader('visits').where({ site_id: site.id, state: 'booked' })
+    .where('start_utc', '>', new Date(Date.now() + 48 * HOUR)).orderBy('start_utc').first('id', 'operatory_id', 'start_utc', 'end_utc')
+  await reader.destroy()
+  if (!visit) return 0
+  const start = DateTime.fromJSDate(visit.start_utc, { zone: site.time_zone })
+  const end = DateTime.fromJSDate(visit.end_utc, { zone: site.time_zone })
+  const realServer = await startAppServer({ NUXT_OUTBOX_DISPATCHER: 'false' })
+  try {
+    const post = await signedInPost(realServer.url)
+    const result = await post<{ strandedVisits?: unknown[] }>('/api/blocks', {
+      siteId: site.id, operatoryId: visit.operatory_id, providerId: null, startDate: start.toISODate(),
+      localStart: start.toFormat('HH:mm'), localEnd: end.toFormat('HH:mm'), reason: 'Handpiece repair',
+    })
+    if (result.status !== 201) throw new Error(`demo block answered ${result.status} ${JSON.stringify(result.body)}`)
+    return result.body.strandedVisits?.length ?? 0
+  } finally {
+    await realServer.stop()
+  }
 }

@@ -29,7 +29,7 @@ export async function findBookingParties(db: Db, providerId: number, patientId: 
     SELECT patients.*, provider.* FROM patients
     LEFT JOIN (
       SELECT providers.id AS provider_id, users.name AS provider_name, users.role AS provider_kind,
-        providers.capabilities AS provider_capabilities, providers.active AS provider_active
+        providers.capabilities AS provider_capabilities, (providers.active AND users.active) AS provider_active
       FROM providers JOIN users ON users.id = providers.user_id WHERE providers.id = ? AND users.role IN (?, ?)
     ) AS provider ON TRUE
     WHERE patients.id = ?`, [providerId, ...ROLE_GROUPS.providers, patientId])
@@ -48,6 +48,6 @@ export async function findBookingParties(db: Db, providerId: number, patientId: 
 export async function findProviderDetails(db: Db, providerId: number): Promise<ProviderDetails | undefined> {
   const row = await db('providers').join('users', 'users.id', 'providers.user_id').where('providers.id', providerId)
     .whereIn('users.role', ROLE_GROUPS.providers)
-    .first('providers.id', 'users.name', 'users.role as kind', 'providers.capabilities', 'providers.active')
+    .first('providers.id', 'users.name', 'users.role as kind', 'providers.capabilities', db.raw('(providers.active AND users.active) AS active'))
   return row ? { id: row.id, name: row.name, kind: row.kind, capabilities: parseJson<string[]>(row.capabilities, []), active: Boolean(row.active) } : undefined
 }

@@ -22,6 +22,8 @@ export interface VisitRow {
   ical_uid: string
   ical_sequence: number
   row_version: number
+  /** Set while the visit is stranded by a change (issue 13): why it no longer holds. */
+  stranded_reason?: string | null
 }
 
 interface SegmentRow {

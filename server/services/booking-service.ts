@@ -29,6 +29,7 @@ import { findTemplateByCode } from '../repositories/templates'
 import { parseJson } from '../repositories/json'
 import { planItems } from './plan-service'
 import { assertBookable, assertStartAllowed, placeSegments, visitEnd } from './booking-rules'
+import { dropStranded, settleStranded } from './impact-service'
 
 // Every transaction here runs at READ COMMITTED: db/connection.ts makes that each connection's default.
 
@@ -164,7 +165,16 @@ async function planForMove(db: Db, row: VisitRow, input: MoveVisitInput, calenda
 export async function moveVisit(id: number, input: MoveVisitInput, user: SessionUser): Promise<VisitDto> {
   const db = useDb()
   const row = await liveVisit(db, id, user)
-  enforce(mayRebook(await actorOf(db, user), { siteId: row.site_id, state: row.state }), { field: 'state' })
+  const actor = await actorOf(db, user)
+  enforce(mayRebook(actor, { siteId: row.site_id, state: row.state }), { field: 'state' })
+  const siteId = input.siteId ?? row.site_id
+  if (siteId !== row.site_id) {
+    // To another site (a stranded visit rebooked from the Rebook list): the caller books there too.
+    requireSiteAccess(user, siteId)
+    enforce(mayRebook(actor, { siteId, state: row.state }), { field: 'siteId' })
+    if (input.operatoryId === undefined) throw badRequest('operatoryId', 'is required when the visit moves to another site')
+    if (input.providerId === undefined) throw badRequest('providerId', 'is required when the visit moves to another site')
+  }
   if (row.row_version !== input.rowVersion) throw staleVersion()
   const startMs = input.startUtc ? startOf(input.startUtc) : row.start_utc.getTime()
   const operatoryId = input.operatoryId ?? row.operatory_id
@@ -172,18 +182,20 @@ export async function moveVisit(id: number, input: MoveVisitInput, user: Session
 
   return inTransaction(async (trx) => {
     await lockForBooking(trx, [operatoryId], [providerId], row.patient_id)
-    const calendar = await bookingCalendar(trx, row.site_id)
+    const calendar = await bookingCalendar(trx, siteId)
     const planned = await planForMove(trx, row, input, calendar)
     const plan = input.lengthOverride ? withLength(planned.plan, input.lengthOverride) : planned.plan
     if (input.startUtc) assertStartAllowed(startMs, calendar)
     const { patient } = await assertBookable(trx, { calendar, plan, templates: planned.templates, operatoryId, providerId, patientId: row.patient_id, startMs, exceptVisitId: id })
     const changed = await updateVisitIfVersion(trx, id, input.rowVersion, {
-      operatory_id: operatoryId, provider_id: providerId, start_utc: new Date(startMs), end_utc: new Date(visitEnd(plan, startMs)),
+      site_id: siteId, operatory_id: operatoryId, provider_id: providerId, start_utc: new Date(startMs), end_utc: new Date(visitEnd(plan, startMs)),
       plan: JSON.stringify(plan), ical_sequence: row.ical_sequence + 1, updated_by: user.id, ...(input.note === undefined ? {} : { note: input.note }),
     })
     if (!changed) throw staleVersion()
     await replaceSegments(trx, id, placeSegments(plan, startMs, operatoryId, providerId))
-    await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'visit', entityId: id, before: { start: row.start_utc, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
+    // A stranded visit moved to a time that holds leaves the Rebook list.
+    if (row.stranded_reason) await settleStranded(trx, id, user.id)
+    await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'visit', entityId: id, before: { start: row.start_utc, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
     await queueVisitMail(trx, 'update', { visitId: id, startMs, calendar, patient })
     return loaded(trx, id)
   })
@@ -212,6 +224,7 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
     if (!changed) throw staleVersion()
     // A cancelled or missed visit gives its chair and provider back.
     if (releases) await replaceSegments(trx, id, [])
+    if (releases && row.stranded_reason) await dropStranded(trx, id, user.id, to)
     await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'visit', entityId: id, before: { state: row.state }, after: { state: to, reason } })
     if (to === 'cancelled') await queueCancellationMail(trx, row)
     return loaded(trx, id)

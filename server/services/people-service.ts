@@ -15,11 +15,12 @@ import {
   findUserById, insertUser, listStaffRows, replaceUserSites, setPasswordHash, setUserActive, siteIdsByUser,
   toSessionUser, updateUserProfile, type StaffRow,
 } from '../repositories/users'
-import { findProvider, findProviderIdOfUser, insertProvider, updateProvider } from '../repositories/providers'
+import { findProvider, findProviderIdOfUser, insertProvider, lockProvider, updateProvider } from '../repositories/providers'
 import { openVisitsOfProvider, type OpenVisitRow } from '../repositories/visits'
 import { scheduleNowMs } from '../utils/clock'
 import { existingSiteIds } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
+import { changeWithImpact, type ImpactResult } from './impact-service'
 
 const DEFAULT_PROVIDER_COLOUR = '#2563eb'
 
@@ -68,11 +69,17 @@ export function createStaff(actor: SessionUser, staff: StaffBody): Promise<Staff
   })
 }
 
-export function changeStaff(actor: SessionUser, id: number, patch: StaffPatch): Promise<StaffAccount> {
-  return inTransaction(async (trx) => {
+/** Deactivating a dentist or hygienist strands their open visits ahead: answered, and flagged on save. */
+export function changeStaff(actor: SessionUser, id: number, patch: StaffPatch, dryRun = false): Promise<ImpactResult<StaffAccount>> {
+  return changeWithImpact({ userId: actor.id, dryRun, cause: 'person deactivated' }, async (trx, impact) => {
     const before = await findStaff(trx, id)
     if (id === actor.id && (patch.active === false || (patch.role !== undefined && patch.role !== before.role))) {
       throw badRequest(patch.active === false ? 'active' : 'role', 'you cannot deactivate your own account or change your own role')
+    }
+    if (patch.active === false && before.providerId !== null) {
+      // The provider row is what bookings lock: one in flight finishes first and is then checked here.
+      await lockProvider(trx, before.providerId)
+      await impact.watch({ providerId: before.providerId })
     }
     if (patch.siteIds) await checkSites(trx, patch.siteIds)
     const allSites = patch.allSites ?? before.allSites
@@ -138,9 +145,11 @@ export function createProvider(provider: ProviderBody): Promise<ProviderSummary>
   })
 }
 
-export function changeProvider(id: number, patch: ProviderPatch): Promise<ProviderSummary> {
-  return inTransaction(async (trx) => {
+/** Deactivating a provider or taking a category away strands their open visits ahead. */
+export function changeProvider(actor: SessionUser, id: number, patch: ProviderPatch, dryRun = false): Promise<ImpactResult<ProviderSummary>> {
+  return changeWithImpact({ userId: actor.id, dryRun, cause: 'provider changed' }, async (trx, impact) => {
     if (!(await findProvider(trx, id))) throw notFound('No such provider.')
+    await impact.watch({ providerId: id })
     await updateProvider(trx, id, patch)
     return (await findProvider(trx, id))!
   })

@@ -15,6 +15,7 @@ import { deleteShift as removeShift, findShift, insertShift, listShifts, shiftTo
 import { deleteShiftException as removeShiftException, findShiftException, insertShiftException } from '../repositories/shift-exceptions'
 import { deleteBlock as removeBlock, findBlock, insertBlock, updateBlock } from '../repositories/blocks'
 import { writeAudit } from '../repositories/audit-log'
+import { changeWithImpact, type ImpactResult, type ImpactWatch } from './impact-service'
 
 async function requireProvider(db: Db, providerId: number) {
   const provider = await findProvider(db, providerId)
@@ -65,9 +66,9 @@ export function createShift(user: SessionUser, shift: ShiftBody): Promise<ShiftD
   })
 }
 
-/** The merged shift is validated and clash-checked again. */
-export function changeShift(user: SessionUser, id: number, patch: ShiftPatch): Promise<ShiftDto> {
-  return inTransaction(async (trx) => {
+/** The merged shift is validated and clash-checked again; visits it strands are answered (issue 13). */
+export function changeShift(user: SessionUser, id: number, patch: ShiftPatch, dryRun = false): Promise<ImpactResult<ShiftDto>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'shift changed' }, async (trx, impact) => {
     const before = await findShift(trx, id)
     if (!before) throw notFound('No such shift.')
     requireSiteAccess(user, before.siteId)
@@ -77,17 +78,19 @@ export function changeShift(user: SessionUser, id: number, patch: ShiftPatch): P
     await requireWorksAt(trx, shift.providerId, shift.siteId)
     await lockProvider(trx, shift.providerId)
     await refuseCrossSiteClash(trx, shift, before.id)
+    await impact.watch({ siteIds: [...new Set([before.siteId, shift.siteId])], providerId: before.providerId })
     await updateShift(trx, before.id, shift)
     await writeAudit(trx, { userId: user.id, action: 'shift_updated', entity: 'shift', entityId: before.id, before, after: shift })
     return (await findShift(trx, before.id))!
   })
 }
 
-export function deleteShift(user: SessionUser, id: number): Promise<void> {
-  return inTransaction(async (trx) => {
+export function deleteShift(user: SessionUser, id: number, dryRun = false): Promise<ImpactResult<void>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'shift deleted' }, async (trx, impact) => {
     const shift = await findShift(trx, id)
     if (!shift) throw notFound('No such shift.')
     requireSiteAccess(user, shift.siteId)
+    await impact.watch({ siteIds: [shift.siteId], providerId: shift.providerId })
     await removeShift(trx, id)
     await writeAudit(trx, { userId: user.id, action: 'shift_deleted', entity: 'shift', entityId: id, before: shift })
   })
@@ -101,8 +104,8 @@ export function requireManages(user: SessionUser, provider: { name: string; site
 }
 
 /** Time off for every site touches all of the provider's sites, so it needs access to each. */
-export function createShiftException(user: SessionUser, exception: ShiftExceptionBody): Promise<ShiftExceptionDto> {
-  return inTransaction(async (trx) => {
+export function createShiftException(user: SessionUser, exception: ShiftExceptionBody, dryRun = false): Promise<ImpactResult<ShiftExceptionDto>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: exception.kind === 'time_off' ? 'time off' : 'extra day' }, async (trx, impact) => {
     const provider = await requireProvider(trx, exception.providerId)
     requireManages(user, provider)
     if (exception.siteId !== null) {
@@ -122,6 +125,7 @@ export function createShiftException(user: SessionUser, exception: ShiftExceptio
         localStart: exception.localStart ?? '00:00', localEnd: exception.localEnd ?? '24:00', note: '',
       }, 0)
     }
+    await impact.watch({ ...(exception.siteId === null ? {} : { siteIds: [exception.siteId] }), providerId: exception.providerId })
     const id = await insertShiftException(trx, exception)
     await writeAudit(trx, { userId: user.id, action: 'shift_exception_created', entity: 'shift_exception', entityId: id, after: exception })
     return (await findShiftException(trx, id))!
@@ -129,12 +133,13 @@ export function createShiftException(user: SessionUser, exception: ShiftExceptio
 }
 
 /** Time off for every site touches all of the provider's sites, so withdrawing it needs access to each. */
-export function deleteShiftException(user: SessionUser, id: number): Promise<void> {
-  return inTransaction(async (trx) => {
+export function deleteShiftException(user: SessionUser, id: number, dryRun = false): Promise<ImpactResult<void>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'time off or extra day withdrawn' }, async (trx, impact) => {
     const exception = await findShiftException(trx, id)
     if (!exception) throw notFound('No such exception.')
     const siteIds = exception.siteId !== null ? [exception.siteId] : (await findProvider(trx, exception.providerId))?.siteIds ?? []
     for (const siteId of siteIds) requireSiteAccess(user, siteId)
+    await impact.watch({ siteIds, providerId: exception.providerId })
     await removeShiftException(trx, id)
     await writeAudit(trx, { userId: user.id, action: 'shift_exception_deleted', entity: 'shift_exception', entityId: id, before: exception })
   })
@@ -149,9 +154,10 @@ async function checkBlockReferences(db: Db, block: BlockBody): Promise<void> {
   if (block.providerId !== null) await requireProvider(db, block.providerId)
 }
 
-async function saveBlock(trx: Db, user: SessionUser, block: BlockBody, before?: BlockDto): Promise<BlockDto> {
+async function saveBlock(trx: Db, user: SessionUser, block: BlockBody, impact: ImpactWatch, before?: BlockDto): Promise<BlockDto> {
   requireSiteAccess(user, block.siteId)
   await checkBlockReferences(trx, block)
+  await impact.watch({ siteIds: [block.siteId] })
   const id = before ? before.id : await insertBlock(trx, block)
   if (before) await updateBlock(trx, id, block)
   await writeAudit(trx, { userId: user.id, action: before ? 'block_updated' : 'block_created', entity: 'block', entityId: id, before, after: block })
@@ -160,23 +166,23 @@ async function saveBlock(trx: Db, user: SessionUser, block: BlockBody, before?: 
   return saved
 }
 
-export function createBlock(user: SessionUser, block: BlockBody): Promise<BlockDto> {
-  return inTransaction((trx) => saveBlock(trx, user, block))
+export function createBlock(user: SessionUser, block: BlockBody, dryRun = false): Promise<ImpactResult<BlockDto>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'block' }, (trx, impact) => saveBlock(trx, user, block, impact))
 }
 
 /** The merged block is validated again. */
-export function changeBlock(user: SessionUser, id: number, patch: BlockPatch): Promise<BlockDto> {
-  return inTransaction(async (trx) => {
+export function changeBlock(user: SessionUser, id: number, patch: BlockPatch, dryRun = false): Promise<ImpactResult<BlockDto>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'block changed' }, async (trx, impact) => {
     const before = await findBlock(trx, id)
     if (!before) throw notFound('No such block.')
     requireSiteAccess(user, before.siteId)
     const { id: _id, ruleText: _text, ...stored } = before
-    return saveBlock(trx, user, assertValid(BlockSchema, { ...stored, ...patch }), before)
+    return saveBlock(trx, user, assertValid(BlockSchema, { ...stored, ...patch }), impact, before)
   })
 }
 
-export function deleteBlock(user: SessionUser, id: number): Promise<void> {
-  return inTransaction(async (trx) => {
+export function deleteBlock(user: SessionUser, id: number, dryRun = false): Promise<ImpactResult<void>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'block removed' }, async (trx) => {
     const block = await findBlock(trx, id)
     if (!block) throw notFound('No such block.')
     requireSiteAccess(user, block.siteId)

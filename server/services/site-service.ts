@@ -11,6 +11,7 @@ import type { SiteSettingsBody } from '#shared/schemas/site-settings'
 import { siteSettingsOf, type SiteSettings } from '#shared/domain/site-settings'
 import { findSite, findSiteDetail, findStoredSettings, insertSite, updateSite, writeStoredSettings } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
+import { changeWithImpact, type ImpactResult } from './impact-service'
 
 export function slugOf(name: string): string {
   return name.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'site'
@@ -30,10 +31,12 @@ export function createSite(actor: SessionUser, site: SiteBody): Promise<SiteDeta
   })
 }
 
-export function changeSite(actor: SessionUser, id: number, patch: SitePatch): Promise<SiteDetail> {
-  return inTransaction(async (trx) => {
+/** New opening hours or closed dates can strand booked visits: answered, and flagged on save. */
+export function changeSite(actor: SessionUser, id: number, patch: SitePatch, dryRun = false): Promise<ImpactResult<SiteDetail>> {
+  return changeWithImpact({ userId: actor.id, dryRun, cause: 'site hours or closed dates' }, async (trx, impact) => {
     const before = await findSiteDetail(trx, id)
     if (!before) throw notFound('No such site.')
+    await impact.watch({ siteIds: [id] })
     await updateSite(trx, id, patch).catch((error: unknown) => duplicateSlug(error, patch.slug))
     await writeAudit(trx, { userId: actor.id, action: 'site_changed', entity: 'site', entityId: id, before, after: patch })
     return (await findSiteDetail(trx, id))!
@@ -71,12 +74,13 @@ export function createOperatory(room: OperatoryBody): Promise<OperatorySummary> 
   })
 }
 
-/** Admins, and managers of the room's site (403 otherwise). */
-export function changeOperatory(actor: SessionUser, id: number, patch: OperatoryPatch): Promise<OperatorySummary> {
-  return inTransaction(async (trx) => {
+/** Admins, and managers of the room's site (403 otherwise). Taking a room out of use or a capability away strands its visits. */
+export function changeOperatory(actor: SessionUser, id: number, patch: OperatoryPatch, dryRun = false): Promise<ImpactResult<OperatorySummary>> {
+  return changeWithImpact({ userId: actor.id, dryRun, cause: 'room changed' }, async (trx, impact) => {
     const room = await findOperatory(trx, id)
     if (!room) throw notFound('No such room.')
     requireSiteAccess(actor, room.siteId)
+    await impact.watch({ siteIds: [room.siteId] })
     await updateOperatory(trx, id, patch).catch((error: unknown) => duplicateRoom(error, patch.name))
     return (await findOperatory(trx, id))!
   })

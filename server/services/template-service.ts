@@ -15,6 +15,8 @@ import {
   codeExists, findTemplateById, insertFirstVersion, insertNextVersion, setCodeActive,
 } from '../repositories/templates'
 import { planItems } from './plan-service'
+import { changeWithImpact, type ImpactResult } from './impact-service'
+import { lockSites } from '../repositories/stranded'
 
 function assertValid(template: ChairTimeTemplate): void {
   const issues = validateTemplate(template)
@@ -48,13 +50,22 @@ export async function createTemplate(input: TemplateInput, user: SessionUser): P
   })
 }
 
-/** An edit never changes a version in place: booked visits keep the plan they were booked with. */
-export async function reviseTemplate(id: number, input: TemplateInput, user: SessionUser): Promise<StoredTemplate> {
+/**
+ * An edit never changes a version in place: booked visits keep the plan they were booked with. A new
+ * room capability or category does apply to them, though (a visit needing a surgery room cannot stay
+ * in a hygiene room): those it strands are answered, and flagged on save.
+ */
+export async function reviseTemplate(id: number, input: TemplateInput, user: SessionUser, dryRun = false): Promise<ImpactResult<StoredTemplate>> {
   requireGroupWide(user)
   assertValid(input)
-  return inTransaction(async (trx) => {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'template changed' }, async (trx, impact) => {
     const before = await existingTemplate(trx, id)
     if (input.code !== before.code) throw badRequest('code', `cannot change; this template's code is ${before.code}`)
+    if (input.capability !== before.capability || input.category !== before.category) {
+      // Bookings read no template row under lock; they read their site's row in share mode.
+      await lockSites(trx)
+      await impact.watch({ templateCode: before.code })
+    }
     const newId = await insertNextVersion(trx, before.code, input, user.id)
     await writeAudit(trx, { userId: user.id, action: 'template_revised', entity: 'procedure_template', entityId: newId, before, after: input })
     return existingTemplate(trx, newId)

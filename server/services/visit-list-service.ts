@@ -28,6 +28,7 @@ function toBoardVisit(row: BoardRow, segments: Parameters<typeof toVisitDto>[1])
     providerName: row.provider_name,
     providerInitials: initials(row.provider_name),
     procedures: (visit.plan.items ?? []).map((item) => procedureLine(item, row.site_tooth_notation)),
+    strandedReason: row.stranded_reason ?? null,
   }
 }
 

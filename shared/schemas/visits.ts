@@ -25,6 +25,8 @@ export type BookVisitInput = z.infer<typeof BookVisitSchema>
 export const MoveVisitSchema = z.object({
   rowVersion: z.number({ error: 'is required (the version you last saw)' }).int('must be a whole number').positive('must be positive').max(MAX_ID, `must be at most ${MAX_ID}`),
   startUtc: utcInstant.optional(),
+  /** Another site in the caller's scope (the Rebook list moves a stranded visit there): chair and provider required. */
+  siteId: id('site').optional(),
   operatoryId: id('operatory').optional(),
   providerId: id('provider').optional(),
   items: planItems.optional(),

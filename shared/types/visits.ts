@@ -78,4 +78,6 @@ export interface BoardVisitDto extends VisitDto {
   providerInitials: string
   /** e.g. "Posterior composite 19 MO" per item, in the site's tooth notation. */
   procedures: string[]
+  /** Set while the visit is stranded (glossary: it "needs a new time"): why, in plain words. */
+  strandedReason: string | null
 }

@@ -294,3 +294,13 @@ export function weekDays(monday: LocalDate, today: LocalDate | null = null): { d
 export function weekLabelOf(monday: LocalDate): string {
   return `${formatDate(monday, 'd LLL')} – ${formatDate(addDays(monday, 6), 'd LLL yyyy')}`
 }
+
+/** ISO 8601 with the zone's offset (`2026-03-09T08:00:00-07:00`) at a UTC instant: a `…LocalIso` value. */
+export function localIsoAt(utcMs: number, zone: string): string {
+  return DateTime.fromMillis(utcMs, { zone }).toISO({ suppressMilliseconds: true }) ?? ''
+}
+
+/** 'Mon 9 Mar 08:00' on the wall clock of the zone an ISO value with offset carries (a `…LocalIso`). */
+export function localIsoLabel(localIso: string): string {
+  return DateTime.fromISO(localIso, { setZone: true }).toFormat('ccc d LLL HH:mm')
+}

@@ -11,8 +11,8 @@ export interface MailAnnex extends Annex {
   phone: string
 }
 
-export async function createMailAnnex(options: { patients?: number; mailLane?: string; settings?: Record<string, unknown> } = {}): Promise<MailAnnex> {
-  const annex = await createAnnex({ rooms: 2, patients: options.patients ?? 3, timeZone: 'America/Los_Angeles' })
+export async function createMailAnnex(options: { patients?: number; providers?: number; mailLane?: string; settings?: Record<string, unknown> } = {}): Promise<MailAnnex> {
+  const annex = await createAnnex({ rooms: 2, providers: options.providers ?? 1, patients: options.patients ?? 3, timeZone: 'America/Los_Angeles' })
   const tag = randomUUID().slice(0, 8)
   const siteEmail = `annex-${tag}@fernhollow.test`
   const address = `${100 + Math.floor(Math.random() * 800)} Larkspur Lane, Fernhollow, CA 95000`

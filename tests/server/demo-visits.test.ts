@@ -79,6 +79,14 @@ describe('demo visits', () => {
     expect(Number(rows[0].n)).toBeGreaterThan(0)
   })
 
+  it('leave one visit stranded by a chair block, so the Rebook list has something to show', async () => {
+    expect(seederOutput).toMatch(/stranded 1 demo visit for the Rebook list/)
+    const stranded = await scratch('visits').whereNotNull('stranded_reason').select('id', 'state', 'stranded_reason')
+    expect(stranded).toHaveLength(1)
+    expect(stranded[0].state).toBe('booked')
+    expect(stranded[0].stranded_reason).toMatch(/is blocked: Handpiece repair/)
+  })
+
   it('queue no patient mail for visits that began before the demo did', async () => {
     const queued = await scratch('outbox').join('visits', 'visits.id', 'outbox.visit_id')
       .where('outbox.state', 'queued').where('visits.start_utc', '<', new Date()).count({ count: '*' }).first()

@@ -1,14 +1,18 @@
-// POST /api/shift-exceptions: time off (a date range) or an extra one-off shift.
+// POST /api/shift-exceptions: time off (a date range) or an extra one-off shift. `dryRun: true`
+// answers the visits it would strand (200) and writes nothing; a save (201) flags them.
 import type { ShiftExceptionDto } from '#shared/types/rota-api'
+import type { StrandedPreview } from '#shared/types/rebook'
+import { readDryRun } from '../../utils/dry-run'
 import { ShiftExceptionSchema } from '#shared/schemas/rota'
 import { MANAGING_ROLES, requireRole } from '../../utils/auth'
 import { validateWith } from '../../utils/errors'
 import { createShiftException } from '../../services/rota-service'
 
-export default defineEventHandler(async (event): Promise<ShiftExceptionDto> => {
+export default defineEventHandler(async (event): Promise<(ShiftExceptionDto & StrandedPreview) | StrandedPreview> => {
   const user = requireRole(event, MANAGING_ROLES)
   const body = await readValidatedBody(event, validateWith(ShiftExceptionSchema))
-  const saved = await createShiftException(user, body)
+  const result = await createShiftException(user, body, await readDryRun(event))
+  if (result.dryRun) return { strandedVisits: result.strandedVisits }
   setResponseStatus(event, 201)
-  return saved
+  return { ...result.saved, strandedVisits: result.strandedVisits }
 })
