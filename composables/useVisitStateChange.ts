@@ -39,5 +39,10 @@ export function useVisitStateChange(visits: Ref<BoardVisitDto[] | null | undefin
     }
   }
 
-  return { changeState, pendingId, problem }
+  /** A visit the server answered with after another action (undo, anaesthetic given): shown at once. */
+  function replace(saved: VisitDto): void {
+    patch(saved.id, saved)
+  }
+
+  return { changeState, replace, pendingId, problem }
 }
