@@ -32,9 +32,9 @@ beforeAll(async () => {
     visits.push({ id: booked.body.id, patientName: `${patient.first_name} ${patient.last_name}` })
   }
   const late = visits[1]!.id
+  const booked = (await testDb()('visits').where({ id: late }).first('start_utc')).start_utc as Date
+  const minutes = Math.round((booked.getTime() - (Date.now() - 25 * 60_000)) / 60_000)
   for (const table of ['visits', 'visit_segments']) {
-    const back = (await testDb()('visits').where({ id: late }).first('start_utc')).start_utc as Date
-    const minutes = Math.round((back.getTime() - (Date.now() - 25 * 60_000)) / 60_000)
     await testDb()(table).where(table === 'visits' ? { id: late } : { visit_id: late }).update({
       start_utc: testDb().raw('start_utc - INTERVAL ? MINUTE', [minutes]), end_utc: testDb().raw('end_utc - INTERVAL ? MINUTE', [minutes]),
     })
@@ -82,6 +82,8 @@ describe('undo and the numbing clock', () => {
     expect(await block.getByTestId('anaesthetic-outcome').textContent()).toMatch(/^Anaesthetic given at \d\d:\d\d\.$/)
     expect((await testDb()('visits').where({ id: own.id }).first('anaesthetic_given_at')).anaesthetic_given_at).not.toBeNull()
     expect(await block.getByTestId('numbing-planned').count()).toBe(0)
+    // Arrived again, so "Undo arrived" is offered beside the state buttons.
+    expect(await block.getByRole('button', { name: 'Undo arrived' }).count()).toBe(1)
     await screenshot(page, 'numbing-after-anaesthetic-given')
     // Past the onset: "Ready".
     await page.clock.fastForward('20:00')
@@ -93,7 +95,7 @@ describe('undo and the numbing clock', () => {
     const { page } = desk
     try {
       await signInThroughForm(page, deskEmail, STAFF_PASSWORD)
-      await page.goto(`${inject('baseURL')}/chairboard`)
+      await page.waitForURL(/\/chairboard/)
       const late = visits[1]!
       const block = page.locator(`[data-testid="visit-block"][data-visit-id="${late.id}"]`)
       await expect.poll(() => block.count()).toBe(1)

@@ -59,7 +59,7 @@ describe('anaesthetic given', () => {
     expect(givenAt).toBeGreaterThanOrEqual(before - 1000)
     expect(givenAt).toBeLessThanOrEqual(Date.now() + 1000)
     const audit = await testDb()('audit_log').where({ entity: 'visit', entity_id: String(visit.id), action: 'visit_anaesthetic_given' }).first('after')
-    expect(JSON.parse(audit.after)).toEqual({ anaestheticGivenAt: given.body.anaestheticGivenAt })
+    expect(typeof audit.after === 'string' ? JSON.parse(audit.after) : audit.after).toEqual({ anaestheticGivenAt: given.body.anaestheticGivenAt })
     const twice = await give(assistant, given.body)
     expect(twice.status).toBe(409)
     expect(twice.body.message).toBe('The anaesthetic was already recorded for this visit.')

@@ -58,6 +58,8 @@ async function mark(client: ApiClient, visit: { id: number }, state: string): Pr
 }
 
 const undo = (client: ApiClient, visit: { id: number; rowVersion: number }) => client.post(`/api/visits/${visit.id}/undo`, { rowVersion: visit.rowVersion })
+/** JSON columns come back parsed or as text, depending on the driver's reading of the column. */
+const jsonOf = (value: unknown) => (typeof value === 'string' ? JSON.parse(value) : value)
 const segmentCount = async (id: number) => Number((await testDb()('visit_segments').where({ visit_id: id }).count({ n: '*' }).first())!.n)
 const undoAudits = async (id: number) => testDb()('audit_log').where({ entity: 'visit', entity_id: String(id), action: 'visit_state_undone' }).select('before', 'after')
 
@@ -71,7 +73,7 @@ describe('undo the last state change', () => {
     expect(undone.body).toMatchObject({ state: 'booked', previousState: null })
     const audits = await undoAudits(visit.id)
     expect(audits).toHaveLength(1)
-    expect(JSON.parse(audits[0].after)).toEqual({ state: 'booked' })
+    expect(jsonOf(audits[0].after)).toEqual({ state: 'booked' })
     const again = await undo(admin, undone.body)
     expect(again.status).toBe(409)
     expect(again.body.message).toBe('There is no state change to undo on this visit.')
@@ -131,7 +133,7 @@ describe('undo gives back the time only while it is free', () => {
 
   it('did not come is not undone once the chair was given to someone else: 409 naming what took it', async () => {
     const visit = await book(startIn(30), { operatoryIndex: 1 })
-    await setBack(visit.id, 20)
+    await setBack(visit.id, 40)
     const missed = await mark(admin, visit, 'missed')
     // The freed chair goes to a walk-in with the other dentist.
     const walkIn = await book(startIn(5), { operatoryIndex: 1, providerIndex: 1 })
