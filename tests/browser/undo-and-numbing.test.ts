@@ -1,7 +1,8 @@
 // Issue 13 §3/§4 on screen, in real Chromium: on My day a dentist undoes "arrived", and the numbing
 // clock starts only after "anaesthetic given" (before it, the planned onset in words; nothing at all
 // before the patient arrives). On the Chairboard the front desk sees a late visit marked in words and
-// a glyph, marks it did not come and undoes that in the visit panel. Visits are booked today in a test
+// a glyph, marks it did not come and undoes that in the visit panel; finishing a visit offers booking
+// the next one, prefilled, with the anaesthetic technique to choose per procedure. Visits are booked today in a test
 // annex whose zone makes it late morning now (tests/helpers/midday.ts), so server and browser agree on now.
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
 import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from '../helpers/browser'
@@ -113,6 +114,28 @@ describe('undo and the numbing clock', () => {
       await expect.poll(async () => stateOf(late.id)).toBe('booked')
       expect(await testDb()('visit_segments').where({ visit_id: late.id }).count({ n: '*' }).first().then((row) => Number(row!.n))).toBeGreaterThan(0)
       await screenshot(page, 'chairboard-undo-did-not-come')
+
+      // Finishing a visit offers booking the next one with the patient and its procedures filled in,
+      // and the drawer lets the desk choose the anaesthetic technique per procedure.
+      const own = visits[0]!
+      await page.getByRole('button', { name: `Open the visit of ${own.patientName}` }).first().click()
+      await expect.poll(() => panel.textContent()).toContain(own.patientName)
+      await panel.getByRole('button', { name: 'Mark in treatment' }).click()
+      await expect.poll(async () => stateOf(own.id)).toBe('treating')
+      await expect.poll(() => panel.getByRole('button', { name: 'Mark finished' }).isEnabled()).toBe(true)
+      await panel.getByRole('button', { name: 'Mark finished' }).click()
+      await expect.poll(async () => stateOf(own.id)).toBe('finished')
+      await expect.poll(() => panel.getByTestId('book-next').count()).toBe(1)
+      await panel.getByTestId('book-next').click()
+      const drawer = page.getByTestId('booking-drawer')
+      await expect.poll(() => drawer.getByTestId('chosen-patient').textContent().catch(() => '')).toContain(own.patientName)
+      expect(await drawer.getByLabel('Procedure', { exact: true }).inputValue()).toBe('COMP-POST')
+      expect(await drawer.getByLabel('Tooth (Universal)').inputValue()).toBe('19')
+      const technique = drawer.getByTestId('procedure-0-technique')
+      expect(await technique.locator('option').first().textContent()).toMatch(/^Template default \((block|infiltration), onset about \d+ min\)$/)
+      await technique.selectOption('infiltration')
+      expect(await drawer.textContent()).toContain('the treating clinician confirms anaesthesia before starting')
+      await screenshot(page, 'booking-drawer-next-visit')
     } finally {
       await desk.close()
     }
