@@ -1,11 +1,17 @@
 // Live chair time for the drawer's procedures, computed in the browser by the shared engine.
-import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
+import type { AnaesthesiaTechnique, BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
 import type { StoredTemplate } from '#shared/types/templates'
 import { planVisit } from '#shared/domain/chair-time'
 import { DomainValidationError } from '#shared/domain/errors'
 import { templateNeedsSurfaces, templateNeedsTooth } from '#shared/domain/template-validation'
 
-export interface DraftItem { templateCode: string; tooth: string; surfaces: string[] }
+export interface DraftItem {
+  templateCode: string
+  tooth: string
+  surfaces: string[]
+  /** The technique chosen in the drawer (issue 13 §4); absent: the template's default for the tooth's arch. */
+  anaesthesia?: AnaesthesiaTechnique
+}
 
 export function toRequestItems(items: DraftItem[], templates: StoredTemplate[]) {
   return items.map((item) => {
@@ -15,6 +21,7 @@ export function toRequestItems(items: DraftItem[], templates: StoredTemplate[]) 
       templateCode: item.templateCode,
       ...(needsTooth ? { tooth: item.tooth } : {}),
       ...(needsTooth && template && templateNeedsSurfaces(template) ? { surfaces: item.surfaces.join('') } : {}),
+      ...(needsTooth && template?.anaesthesia.required && item.anaesthesia ? { anaesthesia: item.anaesthesia } : {}),
     }
   })
 }
@@ -24,7 +31,7 @@ export function useVisitPlanPreview(items: Ref<DraftItem[]>, templates: Ref<Stor
     try {
       const inputs = toRequestItems(items.value, templates.value).map((item) => ({
         template: templates.value.find((entry) => entry.code === item.templateCode)!,
-        tooth: item.tooth, surfaces: item.surfaces,
+        tooth: item.tooth, surfaces: item.surfaces, anaesthesia: item.anaesthesia,
       }))
       if (inputs.some((input) => !input.template)) return { plan: null, field: null, reason: 'Choose a procedure' }
       return { plan: planVisit(inputs, { unitMinutes: unit.value }), field: null, reason: null }

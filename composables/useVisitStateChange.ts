@@ -28,7 +28,8 @@ export function useVisitStateChange(visits: Ref<BoardVisitDto[] | null | undefin
       const saved = await $fetch<VisitDto>(`/api/visits/${visitId}/state`, {
         method: 'POST', body: { state: to, rowVersion: before.rowVersion },
       })
-      patch(visitId, { state: saved.state, rowVersion: saved.rowVersion })
+      // The whole answer: its previous state and time make the change undoable on screen at once.
+      patch(visitId, saved)
       return true
     } catch (error) {
       patch(visitId, before)
@@ -39,5 +40,10 @@ export function useVisitStateChange(visits: Ref<BoardVisitDto[] | null | undefin
     }
   }
 
-  return { changeState, pendingId, problem }
+  /** A visit the server answered with after another action (undo, anaesthetic given): shown at once. */
+  function replace(saved: VisitDto): void {
+    patch(saved.id, saved)
+  }
+
+  return { changeState, replace, pendingId, problem }
 }

@@ -2,10 +2,17 @@
 // drawer (open, and the slot it was opened from).
 import { defineStore } from 'pinia'
 import { addDays, todayIn } from '#shared/utils/local-date'
+import type { DraftItem } from '~/composables/useVisitPlanPreview'
 
 export interface DrawerSlot {
   operatoryId: number | null
   startUtc: string | null
+}
+
+/** What "Book the next visit" hands the drawer: the patient and the procedures to plan (issue 13 §3). */
+export interface DrawerPrefill {
+  patientId: number
+  items: DraftItem[]
 }
 
 export const useChairboardStore = defineStore('chairboard', () => {
@@ -15,16 +22,18 @@ export const useChairboardStore = defineStore('chairboard', () => {
   const selectedVisitId = ref<number | null>(null)
   const drawerOpen = ref(false)
   const drawerSlot = ref<DrawerSlot>({ operatoryId: null, startUtc: null })
+  const drawerPrefill = ref<DrawerPrefill | null>(null)
   const notice = ref<{ kind: 'error' | 'info'; text: string } | null>(null)
 
   function goToday() { date.value = todayIn(zone.value) }
   function step(days: number) { date.value = addDays(date.value, days) }
-  function openDrawer(slot: DrawerSlot) {
+  function openDrawer(slot: DrawerSlot, prefill: DrawerPrefill | null = null) {
     drawerSlot.value = slot
+    drawerPrefill.value = prefill
     drawerOpen.value = true
   }
   function closeDrawer() { drawerOpen.value = false }
   function tell(kind: 'error' | 'info', text: string) { notice.value = { kind, text } }
 
-  return { date, selectedVisitId, drawerOpen, drawerSlot, notice, zone, goToday, step, openDrawer, closeDrawer, tell }
+  return { date, selectedVisitId, drawerOpen, drawerSlot, drawerPrefill, notice, zone, goToday, step, openDrawer, closeDrawer, tell }
 })

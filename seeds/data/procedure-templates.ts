@@ -88,7 +88,7 @@ const ANTERIOR_COMPOSITE: ChairTimeTemplate = {
   }),
 }
 
-/** Pit-and-fissure sealant on one or more posterior teeth, no anaesthetic (common practice, no source). */
+/** Pit-and-fissure sealant on one or more posterior teeth, no anaesthetic (common practice, no source). Placed in a hygiene room, usually by the hygienist alone: every step but the reset is hands_on (issue 13 §5). */
 const SEALANT: ChairTimeTemplate = {
   code: 'SEAL',
   name: 'Sealant',
@@ -99,17 +99,22 @@ const SEALANT: ChairTimeTemplate = {
   region: 'posterior',
   version: 1,
   steps: [
-    step('Seat and set up', 'assist', 'seat', 3),
+    step('Seat and set up', 'hands_on', 'seat', 3),
     step('Clean, isolate and etch', 'hands_on', 'treat', 4, 0, 3),
     step('Apply and cure sealant', 'hands_on', 'treat', 3, 0, 2),
     step('Check bite', 'hands_on', 'treat', 2, 0, 1),
-    step('Dismiss patient', 'assist', 'dismiss', 2),
+    step('Dismiss patient', 'hands_on', 'dismiss', 2),
     step('Clean, disinfect, change barriers', 'reset', 'turnover', TURNOVER_MINUTES),
   ],
   anaesthesia: anaesthesia(false),
 }
 
-/** Adult cleaning by a hygienist, about 45 min plus turnover (from memory). */
+/**
+ * Adult cleaning by a hygienist, about 45 min plus turnover (from memory). The hygienist works it
+ * alone, seating and dismissal included, so every step is hands_on: with seating typed `assist`, one
+ * hygienist could be booked into a second room while still seating or dismissing in the first
+ * (issue 13 §5). A practice whose assistant seats hygiene patients changes those steps to `assist`.
+ */
 const ADULT_CLEANING: ChairTimeTemplate = {
   code: 'CLEAN-ADULT',
   name: 'Adult cleaning',
@@ -119,17 +124,17 @@ const ADULT_CLEANING: ChairTimeTemplate = {
   needsSurfaces: false,
   version: 1,
   steps: [
-    step('Seat, review health history', 'assist', 'seat', 4),
+    step('Seat, review health history', 'hands_on', 'seat', 4),
     step('Gum check and scaling', 'hands_on', 'treat', 25),
     step('Polish', 'hands_on', 'treat', 8),
     step('Floss and home-care advice', 'hands_on', 'treat', 5),
-    step('Dismiss patient', 'assist', 'dismiss', 3),
+    step('Dismiss patient', 'hands_on', 'dismiss', 3),
     step('Clean, disinfect, change barriers', 'reset', 'turnover', TURNOVER_MINUTES),
   ],
   anaesthesia: anaesthesia(false),
 }
 
-/** Child cleaning with fluoride varnish, about 25 min plus turnover (from memory). */
+/** Child cleaning with fluoride varnish, about 25 min plus turnover (from memory); worked by the hygienist alone, as the adult cleaning. */
 const CHILD_CLEANING: ChairTimeTemplate = {
   code: 'CLEAN-CHILD',
   name: 'Child cleaning',
@@ -139,11 +144,11 @@ const CHILD_CLEANING: ChairTimeTemplate = {
   needsSurfaces: false,
   version: 1,
   steps: [
-    step('Seat child and parent', 'assist', 'seat', 3),
+    step('Seat child and parent', 'hands_on', 'seat', 3),
     step('Clean and polish', 'hands_on', 'treat', 12),
     step('Fluoride varnish', 'hands_on', 'treat', 3),
     step('Brushing advice', 'hands_on', 'treat', 3),
-    step('Dismiss patient', 'assist', 'dismiss', 2),
+    step('Dismiss patient', 'hands_on', 'dismiss', 2),
     step('Clean, disinfect, change barriers', 'reset', 'turnover', TURNOVER_MINUTES),
   ],
   anaesthesia: anaesthesia(false),

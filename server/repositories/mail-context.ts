@@ -67,10 +67,10 @@ export async function loadMailContext(db: Db, visitId: number): Promise<MailCont
   }
 }
 
-/** The patient confirmed through the signed link. */
+/** The patient confirmed through the signed link (a patient's change is not undone by staff: no previous state kept). */
 export async function confirmVisit(db: Db, id: number, rowVersion: number): Promise<boolean> {
   const changed = await db('visits').where({ id, row_version: rowVersion, state: 'booked' })
-    .update({ state: 'confirmed', confirmed_at: new Date(), row_version: rowVersion + 1, updated_at: db.fn.now(3) })
+    .update({ state: 'confirmed', confirmed_at: new Date(), previous_state: null, state_changed_at: null, row_version: rowVersion + 1, updated_at: db.fn.now(3) })
   return changed === 1
 }
 

@@ -15,6 +15,7 @@ interface SiteRow {
   colour: string
   booking_unit_minutes: number
   tooth_notation: ToothNotation
+  late_after_minutes: number
   address: string
   phone: string
   email: string
@@ -25,7 +26,7 @@ interface SiteRow {
 
 const NO_HOURS: OpeningHours = { '1': [], '2': [], '3': [], '4': [], '5': [], '6': [], '7': [] }
 
-type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation'>
+type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation' | 'late_after_minutes'>
 
 function toSummary(row: SummaryRow): SiteSummary {
   return {
@@ -36,6 +37,7 @@ function toSummary(row: SummaryRow): SiteSummary {
     colour: row.colour,
     bookingUnitMinutes: row.booking_unit_minutes,
     toothNotation: row.tooth_notation,
+    lateAfterMinutes: row.late_after_minutes,
   }
 }
 
@@ -59,7 +61,7 @@ export function toCalendar(site: SiteDetail): SiteCalendar {
 export async function listSites(db: Db, scope: { allSites: boolean; siteIds: number[] }): Promise<SiteSummary[]> {
   const query = db<SiteRow>('sites').where('active', true).orderBy('name')
   if (!scope.allSites) query.whereIn('id', scope.siteIds)
-  return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation')).map(toSummary)
+  return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation', 'late_after_minutes')).map(toSummary)
 }
 
 /** The same scope, with contact and calendar, including inactive sites (for the admin's table). */
@@ -95,6 +97,7 @@ function siteColumns(site: SitePatch): Record<string, unknown> {
   if (site.colour !== undefined) columns.colour = site.colour
   if (site.bookingUnitMinutes !== undefined) columns.booking_unit_minutes = site.bookingUnitMinutes
   if (site.toothNotation !== undefined) columns.tooth_notation = site.toothNotation
+  if (site.lateAfterMinutes !== undefined) columns.late_after_minutes = site.lateAfterMinutes
   if (site.openingHours !== undefined) columns.opening_hours = JSON.stringify(site.openingHours)
   if (site.closedDates !== undefined) columns.closed_dates = JSON.stringify([...new Set(site.closedDates)].sort())
   if (site.active !== undefined) columns.active = site.active

@@ -24,6 +24,10 @@ export interface VisitRow {
   row_version: number
   /** Set while the visit is stranded by a change (issue 13): why it no longer holds. */
   stranded_reason?: string | null
+  /** The state before the last staff change (for undo), and when that change was made. */
+  previous_state: VisitState | null
+  state_changed_at: Date | null
+  anaesthetic_given_at: Date | null
 }
 
 interface SegmentRow {
@@ -100,6 +104,8 @@ export function toVisitDto(row: VisitRow, segments: SegmentRow[]): VisitDto {
     startUtc: row.start_utc.toISOString(), endUtc: row.end_utc.toISOString(), state: row.state, note: row.note,
     cancelReason: row.cancel_reason, cancelRequestedAt: row.cancel_requested_at ? row.cancel_requested_at.toISOString() : null, rowVersion: row.row_version, icalUid: row.ical_uid, icalSequence: row.ical_sequence,
     plan: parseJson<VisitPlan>(row.plan, {} as VisitPlan), segments: segments.map(toSegmentDto),
+    previousState: row.previous_state ?? null, stateChangedAt: row.state_changed_at ? row.state_changed_at.toISOString() : null,
+    anaestheticGivenAt: row.anaesthetic_given_at ? row.anaesthetic_given_at.toISOString() : null,
   }
 }
 
@@ -109,6 +115,7 @@ export function newVisitDto(id: number, visit: NewVisit, segments: NewSegment[])
     id, siteId: visit.siteId, operatoryId: visit.operatoryId, providerId: visit.providerId, patientId: visit.patientId,
     startUtc: new Date(visit.startMs).toISOString(), endUtc: new Date(visit.endMs).toISOString(), state: 'booked', note: visit.note,
     cancelReason: null, cancelRequestedAt: null, rowVersion: 1, icalUid: visit.icalUid, icalSequence: 0, plan: visit.plan,
+    previousState: null, stateChangedAt: null, anaestheticGivenAt: null,
     segments: segments.map((segment) => ({
       kind: segment.kind, label: segment.label, operatoryId: segment.operatoryId, providerId: segment.providerId,
       startUtc: new Date(segment.startMs).toISOString(), endUtc: new Date(segment.endMs).toISOString(),

@@ -6,8 +6,10 @@ import type { SessionUser } from '#shared/types/auth'
 import type { VisitDto, PatientDto } from '#shared/types/visits'
 import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
 import type { BookVisitInput, MoveVisitInput } from '#shared/schemas/visits'
-import { holdsTime, type VisitState } from '#shared/domain/visit-states'
-import { mayChangeState, mayRebook, type Verdict } from '#shared/domain/visit-access'
+import { holdsTime, VISIT_STATE_LABELS, type VisitState } from '#shared/domain/visit-states'
+import { mayChangeState, mayRebook, mayRecordAnaesthetic, type Verdict } from '#shared/domain/visit-access'
+import { mayUndo, undoRetakesTime, undoTarget } from '#shared/domain/visit-undo'
+import { mayGiveAnaesthetic } from '#shared/domain/numbing-clock'
 import { withChairMinutes } from '#shared/domain/length-override'
 import { isProviderRole } from '#shared/utils/access'
 import { useDb, type Db } from '../utils/db'
@@ -156,6 +158,11 @@ function staleVersion() {
 /** The stored plan, unless new items were given: template edits never change a booked visit. */
 async function planForMove(db: Db, row: VisitRow, input: MoveVisitInput, calendar: SiteCalendarInputs) {
   if (input.items) return planItems(db, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
+  return storedPlan(db, row)
+}
+
+/** The plan the visit was booked with, and the template versions behind it. */
+async function storedPlan(db: Db, row: VisitRow) {
   const plan = parseJson<VisitPlan>(row.plan, {} as VisitPlan)
   const templates = (await Promise.all((plan.items ?? []).map((item) => findTemplateByCode(db, item.templateCode, item.templateVersion))))
     .filter((template) => template !== undefined)
@@ -218,7 +225,7 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
     if (seenVersion !== undefined && seenVersion !== row.row_version) throw staleVersion()
     const releases = !holdsTime(to)
     const changed = await updateVisitIfVersion(trx, id, row.row_version, {
-      state: to, updated_by: user.id,
+      state: to, updated_by: user.id, previous_state: row.state, state_changed_at: new Date(scheduleNowMs()),
       ...(to === 'cancelled' ? { cancel_reason: reason ?? '', ical_sequence: row.ical_sequence + 1 } : {}),
     })
     if (!changed) throw staleVersion()
@@ -227,6 +234,84 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
     if (releases && row.stranded_reason) await dropStranded(trx, id, user.id, to)
     await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'visit', entityId: id, before: { state: row.state }, after: { state: to, reason } })
     if (to === 'cancelled') await queueCancellationMail(trx, row)
+    return loaded(trx, id)
+  })
+}
+
+/** A 409 from the booking checks, said as the reason an undo cannot take the time back. */
+function slotTaken(error: unknown): never {
+  if (isError(error) && error.statusCode === 409) {
+    throw conflict(`The visit's time is no longer free, so this cannot be undone: ${error.message}`, { ...(error.data as Record<string, unknown> | undefined), field: 'state' })
+  }
+  throw error
+}
+
+/**
+ * Undo the visit's last state change (issue 13 §3): back to the state before it, by the same roles,
+ * on the site-local day the change was made (shared/domain/visit-undo.ts). A visit that gave its time
+ * back (did not come, cancelled) takes it again only while its chair, provider and patient are still
+ * free, checked here after the booking locks exactly as a booking is; an undone cancellation gets its
+ * segments back and the patient a fresh invitation.
+ */
+export async function undoVisitState(id: number, seenVersion: number, user: SessionUser): Promise<VisitDto> {
+  return inTransaction(async (trx) => {
+    const row = await liveVisit(trx, id, user)
+    const site = await findSite(trx, row.site_id)
+    const facts = {
+      siteId: row.site_id, providerId: row.provider_id, state: row.state, previousState: row.previous_state ?? null,
+      stateChangedAt: row.state_changed_at ? row.state_changed_at.toISOString() : null, timeZone: site?.timeZone ?? 'UTC',
+    }
+    enforce(mayUndo(await actorOf(trx, user), facts, scheduleNowMs()), { field: 'state', state: row.state })
+    if (seenVersion !== row.row_version) throw staleVersion()
+    const to = undoTarget(facts)!
+    const retakes = undoRetakesTime(facts)
+    const startMs = row.start_utc.getTime()
+    let calendar: SiteCalendarInputs | null = null
+    let patient: PatientDto | undefined
+    if (retakes) {
+      await lockForBooking(trx, [row.operatory_id], [row.provider_id], row.patient_id)
+      calendar = await bookingCalendar(trx, row.site_id)
+      const { plan, templates } = await storedPlan(trx, row)
+      try {
+        ({ patient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: row.operatory_id, providerId: row.provider_id, patientId: row.patient_id, startMs, exceptVisitId: id }))
+      } catch (error) {
+        slotTaken(error)
+      }
+      await replaceSegments(trx, id, placeSegments(plan, startMs, row.operatory_id, row.provider_id))
+    }
+    const fromCancelled = row.state === 'cancelled'
+    const changed = await updateVisitIfVersion(trx, id, row.row_version, {
+      state: to, previous_state: null, state_changed_at: null, updated_by: user.id,
+      ...(fromCancelled ? { cancel_reason: null, ical_sequence: row.ical_sequence + 1 } : {}),
+    })
+    if (!changed) throw staleVersion()
+    await writeAudit(trx, { userId: user.id, action: 'visit_state_undone', entity: 'visit', entityId: id, before: { state: row.state }, after: { state: to } })
+    if (fromCancelled && calendar) await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient })
+    return loaded(trx, id)
+  })
+}
+
+/**
+ * "Anaesthetic given" (issue 13 §4): the moment the numbing countdown runs from, recorded once by the
+ * visit's provider, an assistant or a manager or admin of the site, on a visit with numbing whose
+ * patient is in the chair.
+ */
+export async function recordAnaesthetic(id: number, seenVersion: number, user: SessionUser): Promise<VisitDto> {
+  return inTransaction(async (trx) => {
+    const row = await liveVisit(trx, id, user)
+    enforce(mayRecordAnaesthetic(await actorOf(trx, user), { siteId: row.site_id, providerId: row.provider_id }), { field: 'anaesthetic' })
+    const plan = parseJson<VisitPlan>(row.plan, {} as VisitPlan)
+    if (!mayGiveAnaesthetic({ plan, state: row.state })) {
+      const why = (plan.anaesthesia ?? []).length === 0
+        ? 'This visit has no local anaesthetic planned.'
+        : `The patient is not in the chair (the visit is ${VISIT_STATE_LABELS[row.state].toLowerCase()}): the anaesthetic can be recorded once they have arrived.`
+      throw conflict(why, { field: 'state', state: row.state })
+    }
+    if (row.anaesthetic_given_at) throw conflict('The anaesthetic was already recorded for this visit.', { field: 'anaesthetic', anaestheticGivenAt: row.anaesthetic_given_at.toISOString() })
+    if (seenVersion !== row.row_version) throw staleVersion()
+    const givenAt = new Date(scheduleNowMs())
+    if (!(await updateVisitIfVersion(trx, id, row.row_version, { anaesthetic_given_at: givenAt, updated_by: user.id }))) throw staleVersion()
+    await writeAudit(trx, { userId: user.id, action: 'visit_anaesthetic_given', entity: 'visit', entityId: id, before: { anaestheticGivenAt: null }, after: { anaestheticGivenAt: givenAt.toISOString() } })
     return loaded(trx, id)
   })
 }

@@ -66,6 +66,8 @@ async function cancelAtOnce(db: Db, context: MailContext): Promise<void> {
   const { visit } = context
   const changed = await updateVisitIfVersion(db, visit.id, visit.rowVersion, {
     state: 'cancelled', cancel_reason: PATIENT_CANCEL_REASON, ical_sequence: visit.icalSequence + 1, cancel_requested_at: new Date(),
+    // The patient's own cancellation is not undone by staff: no previous state kept.
+    previous_state: null, state_changed_at: null,
   })
   if (!changed) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
   await replaceSegments(db, visit.id, [])

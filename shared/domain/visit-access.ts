@@ -81,3 +81,16 @@ export function visitOffers(
   // A visit in treatment may still be moved or given another length, but no longer cancelled.
   return { states, rebook: mayRebook(actor, visit), cancel: mayChangeState(actor, visit, 'cancelled', nowMs) }
 }
+
+export const ANAESTHETIC_WHO = 'Only the visit\'s own provider, the assistants of this site, and its managers and admins may record the anaesthetic.'
+
+/**
+ * Who records "anaesthetic given" (issue 13 §4): the visit's own provider, an assistant of the site,
+ * or a manager or admin of the site. The front desk does not: it is a chairside fact.
+ */
+export function mayRecordAnaesthetic(actor: VisitActor, visit: Pick<VisitFacts, 'siteId' | 'providerId'>): Verdict {
+  if (isOwnProvider(actor, visit)) return ALLOWED
+  const chairside: readonly Role[] = ['assistant', 'manager', 'admin']
+  if (chairside.includes(actor.role) && coversSite(actor, visit.siteId)) return ALLOWED
+  return refused(403, ANAESTHETIC_WHO)
+}

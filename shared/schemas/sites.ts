@@ -1,6 +1,7 @@
 // What the Sites & rooms screen sends: a site with its calendar, and its operatories.
 import { z } from 'zod'
 import { OPERATORY_CAPABILITIES } from '../types/chair-time'
+import { DEFAULT_LATE_AFTER_MINUTES, MAX_LATE_AFTER_MINUTES } from '../domain/late'
 import { IdSchema, plainText } from './common'
 import { ColourSchema, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, TimeZoneSchema } from './local-time'
 import { minutesOfDay } from '../utils/local-date'
@@ -29,6 +30,7 @@ const siteFields = {
   colour: ColourSchema,
   bookingUnitMinutes: z.number({ error: 'must be a number' }).refine((unit) => (BOOKING_UNITS as readonly number[]).includes(unit), 'must be 5, 10 or 15 minutes'),
   toothNotation: z.enum(['universal', 'iso'], { error: 'must be universal or iso' }),
+  lateAfterMinutes: z.number({ error: 'must be a number of minutes' }).int('must be whole minutes').min(0, 'cannot be negative').max(MAX_LATE_AFTER_MINUTES, `must be at most ${MAX_LATE_AFTER_MINUTES} minutes`),
   openingHours: OpeningHoursSchema,
   closedDates: z.array(LocalDateSchema, { error: 'must be a list of dates' }).max(400, 'has too many dates'),
   active: z.boolean({ error: 'must be yes or no' }),
@@ -43,6 +45,7 @@ export const SiteSchema = z.object({
   colour: siteFields.colour.default('#4b5563'),
   bookingUnitMinutes: siteFields.bookingUnitMinutes.default(5),
   toothNotation: siteFields.toothNotation.default('universal'),
+  lateAfterMinutes: siteFields.lateAfterMinutes.default(DEFAULT_LATE_AFTER_MINUTES),
   closedDates: siteFields.closedDates.default([]),
   active: siteFields.active.default(true),
 })

@@ -44,6 +44,11 @@ export const ChangeStateSchema = z.object({
   rowVersion: rowVersion.optional(),
 })
 
+/** Undo and "anaesthetic given": only the version the caller last saw (a stale one is a 409). */
+export const VisitVersionSchema = z.object({
+  rowVersion: z.number({ error: 'is required (the version you last saw)' }).int('must be a whole number').positive('must be positive').max(MAX_ID, `must be at most ${MAX_ID}`),
+})
+
 export const CancelSchema = z.object({
   reason: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(300, 'is too long')),
   rowVersion: rowVersion.optional(),

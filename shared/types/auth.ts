@@ -31,6 +31,8 @@ export interface SiteSummary {
   colour: string
   bookingUnitMinutes: number
   toothNotation: ToothNotation
+  /** A booked visit not arrived this many minutes after its start is late (issue 13 §3; shared/domain/late.ts). */
+  lateAfterMinutes: number
 }
 
 export interface MeResponse {

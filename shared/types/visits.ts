@@ -29,6 +29,12 @@ export interface VisitDto {
   icalSequence: number
   plan: VisitPlan
   segments: SegmentDto[]
+  /** The state before the last staff change, which can be undone on the same local day (issue 13 §3), or null. */
+  previousState: VisitState | null
+  /** When that change was made (UTC), or null. */
+  stateChangedAt: string | null
+  /** When the anaesthetic was given (UTC), or null: the numbing countdown runs from it (issue 13 §4). */
+  anaestheticGivenAt: string | null
 }
 
 /** What a 409 says about the booking it collided with. */

@@ -1,22 +1,8 @@
 // Pure helpers for drawing visits on a site's local clock (My day, week views): a visit placed on a
-// week grid, the numbing segment running now, countdown text. No Vue, no fetching; the local date
+// week grid, countdown text (the numbing clock itself is shared/domain/numbing-clock.ts). No Vue, no fetching; the local date
 // and time arithmetic itself is in local-date.ts.
-import type { BoardVisitDto, SegmentDto } from '../types/visits'
-import { isClosed } from '../domain/visit-states'
+import type { BoardVisitDto } from '../types/visits'
 import { localDateAt, minutesIntoDay } from './local-date'
-
-/** The numbing segment a visit is in at `nowMs`, if any: the patient is ready at its end. */
-export function numbingSegmentAt(segments: readonly SegmentDto[], nowMs: number): SegmentDto | null {
-  return segments.find((segment) => segment.kind === 'numbing'
-    && Date.parse(segment.startUtc) <= nowMs && nowMs < Date.parse(segment.endUtc)) ?? null
-}
-
-/** Milliseconds until the patient is ready, or null when the visit is not numbing at `nowMs`. */
-export function msUntilReady(visit: Pick<BoardVisitDto, 'segments' | 'state'>, nowMs: number): number | null {
-  if (isClosed(visit.state)) return null
-  const segment = numbingSegmentAt(visit.segments, nowMs)
-  return segment ? Date.parse(segment.endUtc) - nowMs : null
-}
 
 /** 372 500 ms → "6:13" (whole seconds rounded up, so it reads 0:01 until the moment it is ready). */
 export function countdownText(ms: number): string {

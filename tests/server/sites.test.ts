@@ -71,6 +71,22 @@ describe('sites', () => {
     expect((await new ApiClient().post('/api/sites', siteBody())).status).toBe(401)
   })
 
+  it('keeps "late after" minutes per site: 10 by default, whole minutes 0–120 (issue 13 §3)', async () => {
+    const created = await admin.post('/api/sites', siteBody())
+    expect(created.body.lateAfterMinutes).toBe(10)
+    const changed = await admin.patch(`/api/sites/${created.body.id}`, { lateAfterMinutes: 15 })
+    expect(changed.status).toBe(200)
+    expect(changed.body.lateAfterMinutes).toBe(15)
+    for (const [value, reason] of [[121, 'must be at most 120 minutes'], [-1, 'cannot be negative'], [2.5, 'must be whole minutes']] as const) {
+      const wrong = await admin.patch(`/api/sites/${created.body.id}`, { lateAfterMinutes: value })
+      expect(wrong.status, String(value)).toBe(400)
+      expect(wrong.body.data).toMatchObject({ field: 'lateAfterMinutes', reason })
+    }
+    // Every screen that marks visits late reads it from the site summary.
+    const quarry = (await desk.get('/api/sites')).body[0]
+    expect(quarry.lateAfterMinutes).toBe(10)
+  })
+
   it('shows a front desk only its own site', async () => {
     const aspen = await siteIdBySlug('aspen-gulch')
     expect((await desk.get(`/api/sites/${aspen}`)).status).toBe(403)

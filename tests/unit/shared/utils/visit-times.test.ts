@@ -1,17 +1,8 @@
-// Pure helpers behind My day and the week views: a visit placed on its site-local date, numbing countdowns.
+// Pure helpers behind My day and the week views: a visit placed on its site-local date, countdown text (the numbing clock: tests/unit/shared/domain/numbing-clock.test.ts).
 import { describe, expect, it } from 'vitest'
-import type { SegmentDto } from '../../../../shared/types/visits'
-import { countdownText, msUntilReady, placeOnWeek } from '../../../../shared/utils/visit-times'
+import { countdownText, placeOnWeek } from '../../../../shared/utils/visit-times'
 
 // Fixed dates on purpose: these helpers are pure and take "now" and "today" as arguments.
-const segment = (kind: SegmentDto['kind'], startUtc: string, endUtc: string): SegmentDto => ({ kind, label: kind, operatoryId: 1, providerId: 1, startUtc, endUtc })
-const SEGMENTS = [
-  segment('assist', '2027-03-15T17:00:00Z', '2027-03-15T17:05:00Z'),
-  segment('hands_on', '2027-03-15T17:05:00Z', '2027-03-15T17:10:00Z'),
-  segment('numbing', '2027-03-15T17:10:00Z', '2027-03-15T17:20:00Z'),
-  segment('hands_on', '2027-03-15T17:20:00Z', '2027-03-15T17:50:00Z'),
-]
-
 describe('week placement', () => {
   it('places a visit on its site-local date, never the browser’s', () => {
     const visit = { startUtc: '2027-03-16T05:30:00Z', endUtc: '2027-03-16T06:30:00Z' } as Parameters<typeof placeOnWeek>[0]
@@ -20,15 +11,7 @@ describe('week placement', () => {
   })
 })
 
-describe('numbing countdown', () => {
-  it('counts down to the end of the numbing segment the visit is in', () => {
-    const visit = { segments: SEGMENTS, state: 'arrived' as const }
-    expect(msUntilReady(visit, Date.parse('2027-03-15T17:12:30Z'))).toBe(7.5 * 60_000)
-    expect(msUntilReady(visit, Date.parse('2027-03-15T17:09:59Z'))).toBeNull()
-    expect(msUntilReady(visit, Date.parse('2027-03-15T17:20:00Z'))).toBeNull()
-    expect(msUntilReady({ ...visit, state: 'finished' }, Date.parse('2027-03-15T17:12:30Z'))).toBeNull()
-  })
-
+describe('countdown text', () => {
   it('writes the time left as m:ss, rounding up to the next whole second', () => {
     expect(countdownText(7.5 * 60_000)).toBe('7:30')
     expect(countdownText(400)).toBe('0:01')
