@@ -3,6 +3,7 @@ import type { Db } from '../utils/db'
 import type { SiteSummary } from '#shared/types/auth'
 import type { SiteDetail } from '#shared/types/sites'
 import type { ToothNotation } from '#shared/types/teeth'
+import type { ClockStyle, DateOrder } from '#shared/types/display'
 import type { OpeningHours, SiteCalendar } from '#shared/types/rota'
 import type { SiteBody, SitePatch } from '#shared/schemas/sites'
 import { parseJson } from './json'
@@ -15,6 +16,8 @@ interface SiteRow {
   colour: string
   booking_unit_minutes: number
   tooth_notation: ToothNotation
+  clock: ClockStyle
+  date_order: DateOrder
   address: string
   phone: string
   email: string
@@ -25,7 +28,7 @@ interface SiteRow {
 
 const NO_HOURS: OpeningHours = { '1': [], '2': [], '3': [], '4': [], '5': [], '6': [], '7': [] }
 
-type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation'>
+type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation' | 'clock' | 'date_order'>
 
 function toSummary(row: SummaryRow): SiteSummary {
   return {
@@ -36,6 +39,8 @@ function toSummary(row: SummaryRow): SiteSummary {
     colour: row.colour,
     bookingUnitMinutes: row.booking_unit_minutes,
     toothNotation: row.tooth_notation,
+    clock: row.clock,
+    dateOrder: row.date_order,
   }
 }
 
@@ -59,7 +64,7 @@ export function toCalendar(site: SiteDetail): SiteCalendar {
 export async function listSites(db: Db, scope: { allSites: boolean; siteIds: number[] }): Promise<SiteSummary[]> {
   const query = db<SiteRow>('sites').where('active', true).orderBy('name')
   if (!scope.allSites) query.whereIn('id', scope.siteIds)
-  return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation')).map(toSummary)
+  return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation', 'clock', 'date_order')).map(toSummary)
 }
 
 /** The same scope, with contact and calendar, including inactive sites (for the admin's table). */
@@ -95,6 +100,8 @@ function siteColumns(site: SitePatch): Record<string, unknown> {
   if (site.colour !== undefined) columns.colour = site.colour
   if (site.bookingUnitMinutes !== undefined) columns.booking_unit_minutes = site.bookingUnitMinutes
   if (site.toothNotation !== undefined) columns.tooth_notation = site.toothNotation
+  if (site.clock !== undefined) columns.clock = site.clock
+  if (site.dateOrder !== undefined) columns.date_order = site.dateOrder
   if (site.openingHours !== undefined) columns.opening_hours = JSON.stringify(site.openingHours)
   if (site.closedDates !== undefined) columns.closed_dates = JSON.stringify([...new Set(site.closedDates)].sort())
   if (site.active !== undefined) columns.active = site.active

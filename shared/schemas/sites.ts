@@ -1,6 +1,7 @@
 // What the Sites & rooms screen sends: a site with its calendar, and its operatories.
 import { z } from 'zod'
 import { OPERATORY_CAPABILITIES } from '../types/chair-time'
+import { CLOCK_STYLES, DATE_ORDERS } from '../types/display'
 import { IdSchema, plainText } from './common'
 import { ColourSchema, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, minutesOf, TimeZoneSchema } from './local-time'
 
@@ -28,6 +29,8 @@ const siteFields = {
   colour: ColourSchema,
   bookingUnitMinutes: z.number({ error: 'must be a number' }).refine((unit) => (BOOKING_UNITS as readonly number[]).includes(unit), 'must be 5, 10 or 15 minutes'),
   toothNotation: z.enum(['universal', 'iso'], { error: 'must be universal or iso' }),
+  clock: z.enum(CLOCK_STYLES, { error: 'must be 12h or 24h' }),
+  dateOrder: z.enum(DATE_ORDERS, { error: `must be one of ${DATE_ORDERS.join(', ')}` }),
   openingHours: OpeningHoursSchema,
   closedDates: z.array(LocalDateSchema, { error: 'must be a list of dates' }).max(400, 'has too many dates'),
   active: z.boolean({ error: 'must be yes or no' }),
@@ -42,6 +45,8 @@ export const SiteSchema = z.object({
   colour: siteFields.colour.default('#4b5563'),
   bookingUnitMinutes: siteFields.bookingUnitMinutes.default(5),
   toothNotation: siteFields.toothNotation.default('universal'),
+  clock: siteFields.clock.default('12h'),
+  dateOrder: siteFields.dateOrder.default('month-day-year'),
   closedDates: siteFields.closedDates.default([]),
   active: siteFields.active.default(true),
 })

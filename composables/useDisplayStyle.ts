@@ -1,0 +1,22 @@
+// The shared formatter (shared/utils/display-time.ts) bound to a site's display style: its zone,
+// clock and date order, from the signed-in user's sites. Screens format every time and date through
+// `styleOf(site)`; a site outside the list (or none yet) reads with the defaults in the given zone.
+import type { DisplayStyle } from '#shared/types/display'
+import { DEFAULT_DISPLAY } from '#shared/utils/display-time'
+
+export function useDisplayStyle() {
+  const session = useSessionStore()
+
+  /** The style of a site (by id), or of the first of the user's sites in a zone (by zone name). */
+  function styleOf(site: number | string | null | undefined): DisplayStyle {
+    const found = typeof site === 'number'
+      ? session.sites.find((candidate) => candidate.id === site)
+      : session.sites.find((candidate) => candidate.timeZone === site)
+    if (found) return { timeZone: found.timeZone, clock: found.clock, dateOrder: found.dateOrder }
+    return { timeZone: typeof site === 'string' ? site : session.selectedSite?.timeZone ?? 'UTC', ...DEFAULT_DISPLAY }
+  }
+
+  /** The selected site's style. */
+  const current = computed<DisplayStyle>(() => styleOf(session.selectedSite?.id))
+  return { styleOf, current }
+}
