@@ -52,6 +52,12 @@ export function formatWallTime(time: LocalTime, style: Pick<DisplayStyle, 'clock
   return `${hour12}:${String(minutes).padStart(2, '0')} ${hours % 24 < 12 ? 'AM' : 'PM'}`
 }
 
+/** An hour line on a day axis: '7 AM' or '07:00'. */
+export function formatHour(hour: number, style: Pick<DisplayStyle, 'clock'>): string {
+  if (style.clock === '24h') return `${String(hour).padStart(2, '0')}:00`
+  return `${hour % 12 === 0 ? 12 : hour % 12} ${hour % 24 < 12 ? 'AM' : 'PM'}`
+}
+
 /** The time of an instant on the site's wall clock. */
 export function formatTime(instant: Instant, style: DisplayStyle): string {
   return DateTime.fromMillis(msOf(instant), { zone: style.timeZone }).setLocale('en-US').toFormat(TIME_PATTERNS[style.clock])
