@@ -44,7 +44,7 @@ describe('My day', () => {
 
     await signInThroughForm(page, 'dentist@fernhollow.test')
     await page.waitForURL(/\/my-day$/)
-    await expect.poll(() => page.getByTestId('myday-site').textContent()).toContain('Fernhollow Quarry Street · times in America/Los_Angeles')
+    await expect.poll(() => page.getByTestId('myday-site').textContent()).toContain('Fernhollow Quarry Street · times in Pacific time, UTC\u2212')
     const block = page.locator(`[data-testid="myday-visit"][data-visit-id="${booking.visit.id}"]`)
     await expect.poll(() => block.count()).toBe(1)
     expect(await block.textContent()).toContain(booking.patientName)
@@ -56,7 +56,8 @@ describe('My day', () => {
     // Ready at the end of the numbing segment, counting down every second.
     const countdown = block.getByTestId('numbing-countdown')
     await expect.poll(() => countdown.textContent()).toMatch(/Ready in \d+:\d\d/)
-    const readyAt = DateTime.fromISO(numbing.endUtc).setZone(ZONE).toFormat('HH:mm')
+    // Quarry Street keeps the 12-hour clock (issue 14).
+    const readyAt = DateTime.fromISO(numbing.endUtc).setZone(ZONE).toFormat('h:mm a')
     expect(await countdown.getAttribute('aria-label')).toBe(`Numbing, ready at ${readyAt}`)
     const first = await countdown.textContent()
     await expect.poll(() => countdown.textContent(), { timeout: 5000 }).not.toBe(first)
@@ -94,12 +95,12 @@ describe('My day', () => {
     const wednesday = weekdayAhead(1, WEDNESDAY, 'America/Phoenix')
     await page.getByLabel('Day to show').fill(wednesday)
     await page.waitForURL(new RegExp(`/my-day\\?date=${wednesday}$`))
-    await expect.poll(() => page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in America/Phoenix')
+    await expect.poll(() => page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in Mountain time, UTC\u22127')
     expect(await page.getByTestId('myday-empty').textContent()).toContain('No visits booked for you at Fernhollow Saguaro Flats')
-    expect(await page.getByText('On shift 07:00–15:00').count()).toBe(1)
+    expect(await page.getByText('On shift 7:00 AM–3:00 PM').count()).toBe(1)
     // The same day straight from its address (rendered on the server first).
     await page.reload()
-    await expect.poll(() => page.getByText('On shift 07:00–15:00').count()).toBe(1)
-    expect(await page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in America/Phoenix')
+    await expect.poll(() => page.getByText('On shift 7:00 AM–3:00 PM').count()).toBe(1)
+    expect(await page.getByTestId('myday-site').textContent()).toBe('Fernhollow Saguaro Flats · times in Mountain time, UTC\u22127')
   })
 })
