@@ -17,7 +17,7 @@ export interface PatientRow {
 }
 
 /** Typed % and _ are letters to search for, not wildcards. */
-function escapeLike(text: string): string {
+export function escapeLike(text: string): string {
   return text.replace(/[\\%_]/g, '\\$&')
 }
 
