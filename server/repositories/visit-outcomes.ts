@@ -10,16 +10,13 @@ interface OutcomeRow {
 }
 
 export async function visitOutcomes(db: Db, siteId: number, fromMs: number, toMs: number): Promise<VisitOutcome[]> {
-  const rows = await db('visits')
+  const cancelledAt = db('audit_log').max('audit_log.created_at')
+    .where({ 'audit_log.entity': 'visit', 'audit_log.action': 'visit_cancelled' })
+    .whereRaw('audit_log.entity_id = CAST(visits.id AS CHAR)')
+  const rows: OutcomeRow[] = await db('visits')
     .where('visits.site_id', siteId)
     .where('visits.start_utc', '>=', new Date(fromMs))
     .where('visits.start_utc', '<', new Date(toMs))
-    .select<OutcomeRow[]>(
-      'visits.state', 'visits.start_utc',
-      db('audit_log').max('audit_log.created_at')
-        .where({ 'audit_log.entity': 'visit', 'audit_log.action': 'visit_cancelled' })
-        .whereRaw('audit_log.entity_id = CAST(visits.id AS CHAR)')
-        .as('cancelled_at'),
-    )
+    .select('visits.state', 'visits.start_utc', db.raw('(?) AS cancelled_at', [cancelledAt]))
   return rows.map((row) => ({ state: row.state, startMs: row.start_utc.getTime(), cancelledAtMs: row.cancelled_at ? new Date(row.cancelled_at).getTime() : null }))
 }
