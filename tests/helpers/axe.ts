@@ -1,11 +1,11 @@
-// axe-core in real Chromium (issue 14): injects axe from node_modules into the page and runs it with
+// axe-core in real Chromium (issue 14): injects axe (npm axe-core) into the page and runs it with
 // the WCAG 2.0, 2.1 and 2.2 level A and AA rules. The page's CSP (script-src with a nonce) does not
 // apply: playwright evaluates the source through the DevTools protocol, not as a page <script>.
-import { readFileSync } from 'node:fs'
-import { createRequire } from 'node:module'
+import axeCore from 'axe-core'
 import type { Page } from 'playwright-core'
 
-const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8')
+// axe-core's own copy of its browser script (the package's `source`).
+const AXE_SOURCE = axeCore.source
 
 /** axe-core's tags for WCAG 2.2 level A and AA (2.0, 2.1 and 2.2 success criteria). */
 export const WCAG_22_AA_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']
