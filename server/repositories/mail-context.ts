@@ -1,5 +1,6 @@
 // Everything one patient e-mail needs about its visit, read in one go.
 import type { Db } from '../utils/db'
+import type { ClockStyle, DateOrder } from '#shared/types/display'
 import type { CancelRequestDto } from '#shared/types/outbox'
 import type { VisitPlan } from '#shared/types/chair-time'
 import type { VisitState } from '#shared/domain/visit-states'
@@ -24,6 +25,8 @@ export interface MailSite {
   phone: string
   email: string
   timeZone: string
+  clock: ClockStyle
+  dateOrder: DateOrder
   settings: Record<string, unknown>
 }
 
@@ -51,6 +54,7 @@ export async function loadMailContext(db: Db, visitId: number): Promise<MailCont
       'visits.ical_sequence', 'visits.plan', 'visits.cancel_requested_at', 'visits.row_version',
       'sites.id as site_id', 'sites.name as site_name', 'sites.address as site_address', 'sites.phone as site_phone',
       'sites.email as site_email', 'sites.time_zone as site_time_zone', 'sites.settings as site_settings',
+      'sites.clock as site_clock', 'sites.date_order as site_date_order',
       'patients.id as patient_id', 'patients.first_name', 'patients.last_name', 'patients.email as patient_email', 'patients.email_consent',
     )
   if (!row) return undefined
@@ -61,7 +65,7 @@ export async function loadMailContext(db: Db, visitId: number): Promise<MailCont
     },
     site: {
       id: row.site_id, name: row.site_name, address: row.site_address, phone: row.site_phone, email: row.site_email,
-      timeZone: row.site_time_zone, settings: parseJson<Record<string, unknown>>(row.site_settings, {}),
+      timeZone: row.site_time_zone, clock: row.site_clock, dateOrder: row.site_date_order, settings: parseJson<Record<string, unknown>>(row.site_settings, {}),
     },
     patient: { id: row.patient_id, firstName: row.first_name, lastName: row.last_name, email: row.patient_email, emailConsent: Boolean(row.email_consent) },
   }

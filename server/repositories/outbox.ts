@@ -1,5 +1,6 @@
 // Patient e-mails waiting to be sent. Rows are written inside the booking transaction and claimed by
 // dispatchers with SELECT … FOR UPDATE SKIP LOCKED, so several processes never take the same row.
+import { escapeLike } from './patients'
 import type { Db } from '../utils/db'
 import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
 import { parseJson } from './json'
@@ -135,6 +136,8 @@ export interface OutboxFilter {
   siteId?: number
   visitId?: number
   state?: OutboxState
+  patient?: string
+  beforeId?: number
   limit: number
 }
 
@@ -160,6 +163,16 @@ export async function listOutbox(db: Db, filter: OutboxFilter): Promise<OutboxMe
   if (filter.siteId !== undefined) query.where('outbox.site_id', filter.siteId)
   if (filter.visitId !== undefined) query.where('outbox.visit_id', filter.visitId)
   if (filter.state !== undefined) query.where('outbox.state', filter.state)
+  if (filter.beforeId !== undefined) query.where('outbox.id', '<', filter.beforeId)
+  if (filter.patient !== undefined) {
+    const text = filter.patient
+    if (text.includes('@')) query.where('patients.email', 'like', `%${escapeLike(text)}%`)
+    else {
+      for (const word of text.split(/\s+/).filter(Boolean)) {
+        query.where((name) => name.where('patients.first_name', 'like', `${escapeLike(word)}%`).orWhere('patients.last_name', 'like', `${escapeLike(word)}%`))
+      }
+    }
+  }
   return ((await query) as ListedRow[]).map(toOutboxDto)
 }
 

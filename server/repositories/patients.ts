@@ -1,4 +1,6 @@
 // Patients: search for booking and quick registration.
+import type { DateOrder } from '#shared/types/display'
+import { parseDateInput } from '#shared/utils/display-time'
 import type { Db } from '../utils/db'
 import type { PatientDto } from '#shared/types/visits'
 
@@ -15,7 +17,7 @@ export interface PatientRow {
 }
 
 /** Typed % and _ are letters to search for, not wildcards. */
-function escapeLike(text: string): string {
+export function escapeLike(text: string): string {
   return text.replace(/[\\%_]/g, '\\$&')
 }
 
@@ -31,12 +33,16 @@ export async function findPatient(db: Db, id: number): Promise<PatientDto | unde
   return row ? toPatientDto(row) : undefined
 }
 
-/** Matches names (each word), a birth date (YYYY-MM-DD), digits of a phone number or an e-mail. */
-export async function searchPatients(db: Db, text: string, limit: number): Promise<PatientDto[]> {
+/**
+ * Matches names (each word), a birth date (ISO 'YYYY-MM-DD', or as the screen's site writes it:
+ * '09/13/1973' month first by default), digits of a phone number or an e-mail.
+ */
+export async function searchPatients(db: Db, text: string, limit: number, dateOrder: DateOrder = 'month-day-year'): Promise<PatientDto[]> {
   const query = db<PatientRow>('patients').orderBy(['last_name', 'first_name']).limit(limit)
   const digits = text.replace(/\D/g, '')
-  if (/^\d{4}-\d{2}-\d{2}$/.test(text)) {
-    query.where('date_of_birth', text)
+  const birthDate = parseDateInput(text, dateOrder)
+  if (birthDate) {
+    query.where('date_of_birth', birthDate)
   } else if (text.includes('@')) {
     query.where('email', 'like', `%${escapeLike(text)}%`)
   } else if (digits.length >= 4 && digits.length === text.replace(/[\s()+\-.]/g, '').length) {

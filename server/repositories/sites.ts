@@ -3,6 +3,7 @@ import type { Db } from '../utils/db'
 import type { SiteSummary } from '#shared/types/auth'
 import type { SiteDetail } from '#shared/types/sites'
 import type { ToothNotation } from '#shared/types/teeth'
+import type { ClockStyle, DateOrder } from '#shared/types/display'
 import type { OpeningHours, SiteCalendar } from '#shared/types/rota'
 import type { SiteBody, SitePatch } from '#shared/schemas/sites'
 import { parseJson } from './json'
@@ -16,6 +17,8 @@ interface SiteRow {
   booking_unit_minutes: number
   tooth_notation: ToothNotation
   late_after_minutes: number
+  clock: ClockStyle
+  date_order: DateOrder
   address: string
   phone: string
   email: string
@@ -27,6 +30,7 @@ interface SiteRow {
 const NO_HOURS: OpeningHours = { '1': [], '2': [], '3': [], '4': [], '5': [], '6': [], '7': [] }
 
 type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation' | 'late_after_minutes'>
+type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation' | 'clock' | 'date_order'>
 
 function toSummary(row: SummaryRow): SiteSummary {
   return {
@@ -38,6 +42,8 @@ function toSummary(row: SummaryRow): SiteSummary {
     bookingUnitMinutes: row.booking_unit_minutes,
     toothNotation: row.tooth_notation,
     lateAfterMinutes: row.late_after_minutes,
+    clock: row.clock,
+    dateOrder: row.date_order,
   }
 }
 
@@ -62,6 +68,7 @@ export async function listSites(db: Db, scope: { allSites: boolean; siteIds: num
   const query = db<SiteRow>('sites').where('active', true).orderBy('name')
   if (!scope.allSites) query.whereIn('id', scope.siteIds)
   return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation', 'late_after_minutes')).map(toSummary)
+  return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation', 'clock', 'date_order')).map(toSummary)
 }
 
 /** The same scope, with contact and calendar, including inactive sites (for the admin's table). */
@@ -98,6 +105,8 @@ function siteColumns(site: SitePatch): Record<string, unknown> {
   if (site.bookingUnitMinutes !== undefined) columns.booking_unit_minutes = site.bookingUnitMinutes
   if (site.toothNotation !== undefined) columns.tooth_notation = site.toothNotation
   if (site.lateAfterMinutes !== undefined) columns.late_after_minutes = site.lateAfterMinutes
+  if (site.clock !== undefined) columns.clock = site.clock
+  if (site.dateOrder !== undefined) columns.date_order = site.dateOrder
   if (site.openingHours !== undefined) columns.opening_hours = JSON.stringify(site.openingHours)
   if (site.closedDates !== undefined) columns.closed_dates = JSON.stringify([...new Set(site.closedDates)].sort())
   if (site.active !== undefined) columns.active = site.active

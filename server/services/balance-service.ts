@@ -12,6 +12,9 @@ import { requireSiteAccess } from '../utils/auth'
 import { listSites } from '../repositories/sites'
 import { loadSiteCalendar } from '../repositories/site-calendar'
 import { busySegments, providersByIds } from '../repositories/openings-inputs'
+import { visitOutcomes } from '../repositories/visit-outcomes'
+import { LATE_CANCEL_HOURS, outcomeRates } from '#shared/domain/visit-outcomes'
+import { scheduleNowMs } from '../utils/clock'
 
 /** Each local date from..to with its own start and end instants (23 or 25 hours across a DST change). */
 function localDays(from: string, to: string, zone: string) {
@@ -36,8 +39,9 @@ async function oneSite(db: Db, site: { id: number; name: string }, query: Balanc
     operatories: rooms.map((room) => ({ operatoryId: room.id, intervals: availability.operatories.find((entry) => entry.operatoryId === room.id)?.intervals ?? [] })),
     providers: availability.providers.filter((entry) => names.has(entry.providerId)),
   }, thresholds)
+  const outcomes = outcomeRates(await visitOutcomes(db, site.id, fromMs, toMs), scheduleNowMs())
   return {
-    siteId: site.id, siteName: site.name, timeZone: zone, chairs: figures.chairs, days: figures.days,
+    siteId: site.id, siteName: site.name, timeZone: zone, chairs: figures.chairs, days: figures.days, outcomes,
     operatories: figures.operatories.map(({ operatoryId, ...use }) => ({ id: operatoryId, name: rooms.find((room) => room.id === operatoryId)!.name, ...use })),
     providers: figures.providers.map(({ providerId, ...use }) => ({ id: providerId, name: names.get(providerId)!, ...use }))
       .sort((a, b) => a.name.localeCompare(b.name)),
@@ -50,5 +54,5 @@ export async function balanceAcrossSites(user: SessionUser, query: BalanceQuery)
   const sites = (await listSites(db, user)).filter((site) => query.siteId === undefined || site.id === query.siteId)
   if (query.siteId !== undefined && !sites.length) throw badRequest('siteId', 'no such site')
   const thresholds = { quietBelow: query.quietBelow, tightFrom: query.tightFrom }
-  return { from: query.from, to: query.to, thresholds, sites: await Promise.all(sites.map((site) => oneSite(db, site, query, thresholds))) }
+  return { from: query.from, to: query.to, lateCancelHours: LATE_CANCEL_HOURS, thresholds, sites: await Promise.all(sites.map((site) => oneSite(db, site, query, thresholds))) }
 }

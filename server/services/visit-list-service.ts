@@ -25,6 +25,7 @@ function toBoardVisit(row: BoardRow, segments: Parameters<typeof toVisitDto>[1])
   return {
     ...visit,
     patientName: `${row.patient_first_name} ${row.patient_last_name}`,
+    patientPhone: row.patient_phone,
     providerName: row.provider_name,
     providerInitials: initials(row.provider_name),
     procedures: (visit.plan.items ?? []).map((item) => procedureLine(item, row.site_tooth_notation)),

@@ -2,10 +2,12 @@
 // range. Pure; times are epoch milliseconds. A chair is "held" by any segment of a live visit (the
 // chair is taken while numbing and during reset too); a provider is "working" only in hands_on
 // segments, the time nobody else can use. Shares are of the time open (chairs) or on shift
-// (providers) inside the range.
+// (providers) inside the range. When the caller gives the site's days, a chair's open time on a day
+// with nobody on shift at the site is not counted (nobody could have worked in it, so it is not
+// "quiet" time going unused); such a day is marked `nobodyOnShift`.
 import type { EpochInterval } from '../types/rota'
 import type { StepKind } from '../types/chair-time'
-import { clipIntervals, intersectIntervals, mergeIntervals, totalDurationMs } from './intervals'
+import { clipIntervals, intersectIntervals, mergeIntervals, subtractIntervals, totalDurationMs } from './intervals'
 
 export interface BalanceSegment {
   operatoryId: number
@@ -53,7 +55,11 @@ export interface UseFigures {
 export interface ChairUse extends UseFigures { operatoryId: number }
 export interface ProviderUse extends UseFigures { providerId: number }
 
-export interface DayUse extends UseFigures { date: string }
+export interface DayUse extends UseFigures {
+  date: string
+  /** No provider had shift time at the site that day: its open chair hours are left out. */
+  nobodyOnShift: boolean
+}
 
 export interface SiteBalance {
   operatories: ChairUse[]
@@ -83,11 +89,15 @@ function usedWithin(available: readonly EpochInterval[], used: EpochInterval[]):
 
 export function siteBalance(input: BalanceInput, thresholds: BalanceThresholds = DEFAULT_BALANCE_THRESHOLDS): SiteBalance {
   const range = { startMs: input.fromMs, endMs: input.toMs }
+  const shiftTime = mergeIntervals(input.providers.flatMap((provider) => provider.intervals))
+  const unstaffed = (input.days ?? []).filter((day) => clipIntervals(shiftTime, day.startMs, day.endMs).length === 0)
+  const unstaffedSpans = unstaffed.map((day) => ({ startMs: day.startMs, endMs: day.endMs }))
   const clip = (intervals: readonly EpochInterval[]) => clipIntervals(mergeIntervals(intervals), range.startMs, range.endMs)
+  const openTime = (intervals: readonly EpochInterval[]) => subtractIntervals(clip(intervals), unstaffedSpans)
   let chairsAvailable = 0
   let chairsUsed = 0
   const operatories = input.operatories.map(({ operatoryId, intervals }) => {
-    const open = clip(intervals)
+    const open = openTime(intervals)
     const held = input.segments.filter((segment) => segment.operatoryId === operatoryId)
     const availableMs = totalDurationMs(open)
     const usedMs = usedWithin(open, held)
@@ -108,7 +118,10 @@ export function siteBalance(input: BalanceInput, thresholds: BalanceThresholds =
       availableMs += totalDurationMs(open)
       usedMs += usedWithin(open, input.segments.filter((segment) => segment.operatoryId === operatoryId))
     }
-    return { date: day.date, ...figures(availableMs, usedMs, thresholds) }
+    const nobodyOnShift = unstaffed.includes(day)
+    return nobodyOnShift
+      ? { date: day.date, ...figures(0, 0, thresholds), nobodyOnShift }
+      : { date: day.date, ...figures(availableMs, usedMs, thresholds), nobodyOnShift }
   })
   return { operatories, providers, chairs: figures(chairsAvailable, chairsUsed, thresholds), days }
 }

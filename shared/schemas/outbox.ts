@@ -1,12 +1,19 @@
 import { z } from 'zod'
-import { IdSchema } from './common'
+import { IdSchema, plainText } from './common'
 import { OUTBOX_STATES } from '../types/outbox'
+
+/** The most messages one Outbox page returns; older ones come with `beforeId`. */
+export const OUTBOX_PAGE_MAX = 500
 
 export const OutboxQuerySchema = z.object({
   siteId: IdSchema.optional(),
   visitId: IdSchema.optional(),
   state: z.enum(OUTBOX_STATES, { error: `must be one of ${OUTBOX_STATES.join(', ')}` }).optional(),
-  limit: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(500, 'must be at most 500').default(100),
+  /** A patient's name (each word starts a first or last name) or part of their e-mail address. */
+  patient: plainText(z.string({ error: 'must be text' }).trim().min(2, 'type at least 2 characters').max(100, 'is too long')).optional(),
+  /** Paging cursor: only messages older than this one (its id), newest first. */
+  beforeId: IdSchema.optional(),
+  limit: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(OUTBOX_PAGE_MAX, `must be at most ${OUTBOX_PAGE_MAX}`).default(100),
 })
 export type OutboxQuery = z.infer<typeof OutboxQuerySchema>
 

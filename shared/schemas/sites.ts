@@ -2,6 +2,7 @@
 import { z } from 'zod'
 import { OPERATORY_CAPABILITIES } from '../types/chair-time'
 import { DEFAULT_LATE_AFTER_MINUTES, MAX_LATE_AFTER_MINUTES } from '../domain/late'
+import { CLOCK_STYLES, DATE_ORDERS } from '../types/display'
 import { IdSchema, plainText } from './common'
 import { ColourSchema, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, TimeZoneSchema } from './local-time'
 import { minutesOfDay } from '../utils/local-date'
@@ -31,6 +32,8 @@ const siteFields = {
   bookingUnitMinutes: z.number({ error: 'must be a number' }).refine((unit) => (BOOKING_UNITS as readonly number[]).includes(unit), 'must be 5, 10 or 15 minutes'),
   toothNotation: z.enum(['universal', 'iso'], { error: 'must be universal or iso' }),
   lateAfterMinutes: z.number({ error: 'must be a number of minutes' }).int('must be whole minutes').min(0, 'cannot be negative').max(MAX_LATE_AFTER_MINUTES, `must be at most ${MAX_LATE_AFTER_MINUTES} minutes`),
+  clock: z.enum(CLOCK_STYLES, { error: 'must be 12h or 24h' }),
+  dateOrder: z.enum(DATE_ORDERS, { error: `must be one of ${DATE_ORDERS.join(', ')}` }),
   openingHours: OpeningHoursSchema,
   closedDates: z.array(LocalDateSchema, { error: 'must be a list of dates' }).max(400, 'has too many dates'),
   active: z.boolean({ error: 'must be yes or no' }),
@@ -46,6 +49,8 @@ export const SiteSchema = z.object({
   bookingUnitMinutes: siteFields.bookingUnitMinutes.default(5),
   toothNotation: siteFields.toothNotation.default('universal'),
   lateAfterMinutes: siteFields.lateAfterMinutes.default(DEFAULT_LATE_AFTER_MINUTES),
+  clock: siteFields.clock.default('12h'),
+  dateOrder: siteFields.dateOrder.default('month-day-year'),
   closedDates: siteFields.closedDates.default([]),
   active: siteFields.active.default(true),
 })

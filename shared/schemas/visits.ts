@@ -1,3 +1,4 @@
+import { DATE_ORDERS } from '../types/display'
 import { z } from 'zod'
 import { ChairTimeItemSchema } from './templates'
 import { VISIT_STATES } from '../domain/visit-states'
@@ -57,6 +58,8 @@ export const CancelSchema = z.object({
 export const PatientSearchSchema = z.object({
   q: plainText(z.string({ error: 'is required' }).trim().min(2, 'type at least 2 characters').max(100, 'is too long')),
   limit: z.coerce.number().int().min(1).max(50).default(20),
+  /** How a typed birth date is read besides ISO (the searching screen's site order). */
+  dateOrder: z.enum(DATE_ORDERS, { error: `must be one of ${DATE_ORDERS.join(', ')}` }).default('month-day-year'),
 })
 
 export const NewPatientSchema = z.object({

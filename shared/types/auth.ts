@@ -1,5 +1,6 @@
 // Who is signed in, as both the server and the client see it.
 import type { ToothNotation } from './teeth'
+import type { ClockStyle, DateOrder } from './display'
 
 export const ROLES = ['admin', 'manager', 'front_desk', 'dentist', 'hygienist', 'assistant'] as const
 export type Role = (typeof ROLES)[number]
@@ -33,6 +34,10 @@ export interface SiteSummary {
   toothNotation: ToothNotation
   /** A booked visit not arrived this many minutes after its start is late (issue 13 §3; shared/domain/late.ts). */
   lateAfterMinutes: number
+  /** How this site shows times: '12h' (9:05 AM) or '24h' (09:05). */
+  clock: ClockStyle
+  /** Order of a numeric date: month-day-year (09/13/1973), day-month-year, year-month-day (1973-09-13). */
+  dateOrder: DateOrder
 }
 
 export interface MeResponse {

@@ -1,5 +1,6 @@
 // What the Balance screen shows: per site, its chairs together, each chair and each provider.
 import type { BalanceThresholds, DayUse, UseFigures } from '../domain/balance'
+import type { OutcomeRates } from '../domain/visit-outcomes'
 
 export interface NamedUse extends UseFigures {
   id: number
@@ -15,11 +16,15 @@ export interface SiteBalanceDto {
   days: DayUse[]
   operatories: NamedUse[]
   providers: NamedUse[]
+  /** How the site's visits in the range turned out: no-show and late-cancellation rates. */
+  outcomes: OutcomeRates
 }
 
 export interface BalanceResponse {
   from: string
   to: string
+  /** Hours before the start within which a cancellation counts as late (LATE_CANCEL_HOURS). */
+  lateCancelHours: number
   thresholds: BalanceThresholds
   sites: SiteBalanceDto[]
 }

@@ -80,6 +80,8 @@ export interface OpeningsResponse {
 /** A visit as the Chairboard, My day and week views draw it. */
 export interface BoardVisitDto extends VisitDto {
   patientName: string
+  /** For the printed day sheet and calls from the board; null when none is on record. */
+  patientPhone: string | null
   providerName: string
   providerInitials: string
   /** e.g. "Posterior composite 19 MO" per item, in the site's tooth notation. */

@@ -158,7 +158,7 @@ describe('Chairboard', () => {
 
     await panel.getByLabel('Chair').selectOption({ label: rooms[2].name })
     await panel.getByRole('button', { name: 'Move visit' }).press('Enter')
-    await expect.poll(() => page.getByTestId('board-notice').textContent()).toMatch(new RegExp(`moved to 10:30 in ${rooms[2].name}`))
+    await expect.poll(() => page.getByTestId('board-notice').textContent()).toMatch(new RegExp(`moved to 10:30 AM in ${rooms[2].name}`))
     const saved = await testDb()('visits').where({ id: moving.body.id }).first()
     expect(saved.operatory_id).toBe(rooms[2].id)
     expect(saved.start_utc.toISOString()).toBe(new Date(utcAt(`${DAY}T10:30`, ZONE)).toISOString())

@@ -60,7 +60,7 @@ describe('Outbox screen', () => {
     const { page } = patient
     await page.goto(visitLinkOf(mail))
     await expect.poll(() => page.getByTestId('visit-status').textContent()).toBe('Please let us know whether you are coming.')
-    expect(await page.getByTestId('visit-when').textContent()).toContain(`${DateTime.fromISO(weekdayAhead(2, MONDAY, 'America/Los_Angeles')).toFormat('cccc, d LLLL yyyy')} at 10:30 AM`)
+    expect(await page.getByTestId('visit-when').textContent()).toContain(`${DateTime.fromISO(weekdayAhead(2, MONDAY, 'America/Los_Angeles')).toFormat('cccc, LLLL d, yyyy')} at 10:30 AM`)
     await screenshot(page, 'visit-link-before')
     await page.getByRole('button', { name: 'I will be there' }).click()
     await expect.poll(() => page.getByTestId('visit-status').textContent()).toBe('You have confirmed this visit. Thank you.')

@@ -28,7 +28,7 @@ describe('Rota', () => {
     await page.getByTestId('site-switcher').selectOption(String(aspen))
     await page.getByRole('link', { name: 'Rota' }).click()
     await page.waitForURL(/\/rota$/)
-    await expect.poll(() => page.getByText('Fernhollow Aspen Gulch · times in America/Denver').count()).toBe(1)
+    await expect.poll(() => page.getByText(/^Fernhollow Aspen Gulch · times in Mountain time, UTC\u2212[67]$/).count()).toBe(1)
 
     await page.getByRole('button', { name: 'Add shift' }).click()
     await expect.poll(() => page.getByRole('dialog', { name: 'Add shift' }).isVisible()).toBe(true)

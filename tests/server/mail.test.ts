@@ -85,7 +85,8 @@ describe('invitation, update and cancellation', () => {
     // The zone's name follows daylight saving time on the visit's date (IANA tz database, US rule).
     const local = DateTime.fromISO(atAhead(2, MONDAY, '10:00', ZONE)).setZone(ZONE)
     const zoneName = local.isInDST ? 'Pacific Daylight Time' : 'Pacific Standard Time'
-    expect(text).toContain(`${local.toFormat('cccc, d LLLL yyyy')} at 10:00 AM (${zoneName})`)
+    // The annex keeps the default display style: 12-hour clock, month-day-year (issue 14).
+    expect(text).toContain(`${local.toFormat('cccc, LLLL d, yyyy')} at 10:00 AM (${zoneName})`)
     expect(local.toFormat('cccc')).toBe('Monday')
     expect(text).toMatch(/Plan for: about \d/)
     expect(text).toMatch(/Please bring a photo ID/)
@@ -116,7 +117,8 @@ describe('invitation, update and cancellation', () => {
     const local = DateTime.fromISO(atAhead(2, TUESDAY, '14:00', ZONE)).setZone(ZONE)
     expect(local.toFormat('cccc h:mm a')).toBe('Tuesday 2:00 PM')
     const zoneName = local.isInDST ? 'Pacific Daylight Time' : 'Pacific Standard Time'
-    expect(update.parsed.text).toContain(`${local.toFormat('cccc, d LLLL yyyy')} at 2:00 PM (${zoneName})`)
+    expect(update.parsed.text).toContain(`${local.toFormat('cccc, LLLL d, yyyy')} at 2:00 PM (${zoneName})`)
+    expect(update.parsed.subject).toContain(`${local.toFormat('ccc, LLL d')}, 2:00 PM`)
   })
 
   it('re-plans the reminders of a moved visit, outside quiet hours', async () => {

@@ -1,4 +1,5 @@
-// GET /api/outbox?siteId=&state=&visitId=&limit=: patient e-mails of the caller's sites, newest first.
+// GET /api/outbox?siteId=&state=&visitId=&patient=&beforeId=&limit=: patient e-mails of the caller's
+// sites, newest first, at most OUTBOX_PAGE_MAX at a time; `beforeId` (the last id seen) pages on.
 import { OutboxQuerySchema } from '#shared/schemas/outbox'
 import type { OutboxMessageDto } from '#shared/types/outbox'
 import { BOOKING_ROLES, requireRole } from '../../utils/auth'

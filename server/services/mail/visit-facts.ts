@@ -1,13 +1,14 @@
 // The plain facts a patient message states about a visit, in the site's zone (luxon at the edge).
 import { DateTime } from 'luxon'
 import type { MailContext } from '../../repositories/mail-context'
+import { formatDateTime } from '#shared/utils/display-time'
 import { mailSettingsOf, type MailSettings } from '#shared/domain/site-settings'
 
 export interface VisitFacts {
   settings: MailSettings
-  /** "Monday, 11 January 2027 at 9:00 AM" */
+  /** "Monday, January 11, 2027 at 9:00 AM", in the site's clock and date order (shared/utils/display-time.ts) */
   whenLocal: string
-  /** "Mon 11 Jan, 9:00 AM" for subjects */
+  /** "Mon, Jan 11, 9:00 AM" for subjects */
   shortWhen: string
   /** "Pacific Standard Time" */
   zoneName: string
@@ -37,13 +38,14 @@ export function patientMinutes(context: MailContext): number {
 
 export function visitFacts(context: MailContext): VisitFacts {
   const settings = mailSettingsOf(context.site.settings)
+  const style = { timeZone: context.site.timeZone, clock: context.site.clock, dateOrder: context.site.dateOrder }
   const start = DateTime.fromJSDate(context.visit.startUtc, { zone: context.site.timeZone }).setLocale('en-US')
   const minutes = patientMinutes(context)
   const names = [...new Set((context.visit.plan.items ?? []).map((item) => item.templateName).filter(Boolean))]
   return {
     settings,
-    whenLocal: start.toFormat("cccc, d LLLL yyyy 'at' h:mm a"),
-    shortWhen: start.toFormat('ccc d LLL, h:mm a'),
+    whenLocal: formatDateTime(context.visit.startUtc, style, 'long'),
+    shortWhen: formatDateTime(context.visit.startUtc, style, 'short'),
     zoneName: start.toFormat('ZZZZZ'),
     minutes,
     howLong: durationWords(minutes),

@@ -80,13 +80,13 @@ describe('siteBalance day by day', () => {
     const result = siteBalance({
       fromMs: at(0), toMs: at(48),
       operatories: [{ operatoryId: 1, intervals: [...morning, { startMs: nextDay(8), endMs: nextDay(12) }] }],
-      providers: [],
+      providers: [{ providerId: 7, intervals: [...morning, { startMs: nextDay(8), endMs: nextDay(12) }] }],
       segments: [segment('hands_on', 9, 12), { kind: 'hands_on', operatoryId: 1, providerId: 7, startMs: nextDay(8), endMs: nextDay(9) }],
       days: [{ date: '2027-01-11', startMs: at(0), endMs: at(24) }, { date: '2027-01-12', startMs: at(24), endMs: at(48) }],
     })
     expect(result.days).toEqual([
-      { date: '2027-01-11', availableMinutes: 240, usedMinutes: 180, share: 0.75, band: 'steady' },
-      { date: '2027-01-12', availableMinutes: 240, usedMinutes: 60, share: 0.25, band: 'quiet' },
+      { date: '2027-01-11', availableMinutes: 240, usedMinutes: 180, share: 0.75, band: 'steady', nobodyOnShift: false },
+      { date: '2027-01-12', availableMinutes: 240, usedMinutes: 60, share: 0.25, band: 'quiet', nobodyOnShift: false },
     ])
     expect(result.chairs).toMatchObject({ availableMinutes: 480, usedMinutes: 240 })
   })
@@ -100,6 +100,30 @@ describe('siteBalance day by day', () => {
       days: [{ date: '2027-01-12', startMs: at(24), endMs: at(48) }],
     })
     expect(result.days[0]).toMatchObject({ availableMinutes: 0, share: null, band: null })
+  })
+})
+
+describe('days with nobody on shift (issue 14)', () => {
+  it('leaves a day with open chairs but nobody on shift out of the open hours, so it does not read as quiet', () => {
+    const nextDay = (hours: number) => at(24 + hours)
+    const result = siteBalance({
+      fromMs: at(0), toMs: at(48),
+      operatories: [{ operatoryId: 1, intervals: [...morning, { startMs: nextDay(8), endMs: nextDay(12) }] }],
+      // On shift on the first day only.
+      providers: [{ providerId: 7, intervals: morning }],
+      segments: [segment('hands_on', 9, 12)],
+      days: [{ date: '2027-01-11', startMs: at(0), endMs: at(24) }, { date: '2027-01-12', startMs: at(24), endMs: at(48) }],
+    })
+    expect(result.days[0]).toMatchObject({ availableMinutes: 240, usedMinutes: 180, band: 'steady', nobodyOnShift: false })
+    expect(result.days[1]).toMatchObject({ availableMinutes: 0, share: null, band: null, nobodyOnShift: true })
+    // The chair's figures keep only the staffed day: 3 of 4 hours, not 3 of 8 (which would read quiet).
+    expect(result.operatories[0]).toMatchObject({ availableMinutes: 240, usedMinutes: 180, band: 'steady' })
+    expect(result.chairs).toMatchObject({ availableMinutes: 240, usedMinutes: 180 })
+  })
+
+  it('counts open hours as before when no days are given', () => {
+    const result = siteBalance({ fromMs: at(0), toMs: at(24), operatories: [{ operatoryId: 1, intervals: morning }], providers: [], segments: [] })
+    expect(result.operatories[0]).toMatchObject({ availableMinutes: 240 })
   })
 })
 
