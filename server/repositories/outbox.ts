@@ -28,6 +28,8 @@ export interface OutboxPayload {
   startUtc?: string
   offsetHours?: number
   resendOf?: number
+  /** Updates: what the patient sees that changed (issue 15), and the length they were told before. */
+  change?: { time: boolean; length: boolean; what: boolean; minutesBefore?: number }
 }
 
 export interface NewOutboxMessage {
@@ -104,6 +106,11 @@ export async function claimDueMessages(trx: Db, options: ClaimOptions): Promise<
 
 function ours(db: Db, row: OutboxRow) {
   return db('outbox').where({ id: row.id, state: 'sending', lease_until: row.lease_until })
+}
+
+/** Keeps the row's Message-ID before the first try (false when the lease is no longer ours). */
+export async function fixMessageId(db: Db, row: OutboxRow, messageId: string): Promise<boolean> {
+  return (await ours(db, row).whereNull('message_id').update({ message_id: messageId })) === 1
 }
 
 export async function markSent(db: Db, row: OutboxRow, messageId: string, rendered: RenderedMessage): Promise<boolean> {

@@ -28,9 +28,9 @@ export interface RenderedMessage {
   subject: string
   text: string
   html: string
-  /** The iCalendar part (RFC 5545), METHOD REQUEST or CANCEL. */
-  ics: string
-  method: 'REQUEST' | 'CANCEL'
+  /** The iCalendar part (RFC 5545), METHOD REQUEST or CANCEL; null for reminders, which carry none. */
+  ics: string | null
+  method: 'REQUEST' | 'CANCEL' | null
 }
 
 export interface OutboxDetailDto extends OutboxMessageDto {
@@ -58,6 +58,8 @@ export interface PublicVisitDto {
   canConfirm: boolean
   canCancel: boolean
   icsUrl: string
+  /** The patient turned e-mail reminders off. */
+  remindersOff: boolean
 }
 
 /** A patient's request to cancel, waiting for the front desk. */
