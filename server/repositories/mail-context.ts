@@ -71,6 +71,12 @@ export async function loadMailContext(db: Db, visitId: number): Promise<MailCont
   }
 }
 
+/** The visit whose calendar event has this UID (RFC 5545 §3.8.4.7). */
+export async function findVisitIdByUid(db: Db, icalUid: string): Promise<number | undefined> {
+  const row = await db('visits').where({ ical_uid: icalUid }).first('id')
+  return row?.id
+}
+
 /** The patient confirmed through the signed link. */
 export async function confirmVisit(db: Db, id: number, rowVersion: number): Promise<boolean> {
   const changed = await db('visits').where({ id, row_version: rowVersion, state: 'booked' })

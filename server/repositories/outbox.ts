@@ -1,5 +1,6 @@
 // Patient e-mails waiting to be sent. Rows are written inside the booking transaction and claimed by
 // dispatchers with SELECT … FOR UPDATE SKIP LOCKED, so several processes never take the same row.
+import { hostname } from 'node:os'
 import type { Db } from '../utils/db'
 import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
 import { parseJson } from './json'
@@ -114,7 +115,10 @@ export async function fixMessageId(db: Db, row: OutboxRow, messageId: string): P
 }
 
 export async function markSent(db: Db, row: OutboxRow, messageId: string, rendered: RenderedMessage): Promise<boolean> {
-  const changed = await ours(db, row).update({ state: 'sent', message_id: messageId.slice(0, 300), sent_at: new Date(), lease_until: null, last_error: null, rendered: JSON.stringify(rendered) })
+  const changed = await ours(db, row).update({
+    state: 'sent', message_id: messageId.slice(0, 300), sent_at: new Date(), sent_by: `${hostname()}:${process.pid}`.slice(0, 100),
+    lease_until: null, last_error: null, rendered: JSON.stringify(rendered),
+  })
   return changed === 1
 }
 

@@ -2,8 +2,6 @@
 // site's id, e.g. `replies+{site}@cuspline.test`. Patients' calendars send their iTIP REPLY there
 // (RFC 5546 §3.2.3); the inbound endpoint reads the site back from the address. Pure.
 
-export const DEFAULT_REPLY_ADDRESS = 'replies+{site}@cuspline.test'
-
 /** The site's reply address, or null when the template is empty or malformed (then the site's own e-mail is used). */
 export function replyAddressOf(template: string, siteId: number): string | null {
   if (!isReplyTemplate(template)) return null

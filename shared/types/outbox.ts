@@ -72,3 +72,15 @@ export interface CancelRequestDto {
   requestedAt: string
   rowVersion: number
 }
+
+/** A calendar reply (iTIP REPLY) that matched no visit, kept for the Outbox screen. */
+export interface UnmatchedReplyDto {
+  id: number
+  siteId: number | null
+  receivedAt: string
+  sender: string | null
+  subject: string | null
+  /** Why it matched nothing, in words. */
+  note: string
+  partstat: string | null
+}
