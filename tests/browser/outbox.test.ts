@@ -47,7 +47,7 @@ describe('Outbox screen', () => {
     await row.getByRole('button').click()
     await expect.poll(() => page.getByTestId('outbox-subject').textContent()).toMatch(/^Your dental visit at Test annex/)
     // The HTML part as the patient sees it, in a sandboxed frame.
-    await page.frameLocator('iframe[title="E-mail as the patient sees it"]').getByText('Confirm or ask to cancel').waitFor()
+    await page.frameLocator('iframe[title="E-mail as the patient sees it"]').getByText('Confirm I am coming').waitFor()
     await screenshot(page, 'outbox-invitation')
     await page.getByRole('tab', { name: 'Calendar (.ics)' }).click()
     expect(await page.getByTestId('outbox-ics').textContent()).toContain('METHOD:REQUEST')
