@@ -32,7 +32,7 @@ async function forward(raw: Buffer, recipient: string): Promise<void> {
         [INBOUND_HEADERS.signature]: inboundSignature(inboundSecret, id, timestamp, raw),
         [INBOUND_HEADERS.recipient]: recipient,
       },
-      body: raw,
+      body: new Uint8Array(raw),
     })
     console.log(`mail catcher: reply for ${recipient} posted to ${inboundUrl}: ${response.status}`)
   } catch (error) {

@@ -127,7 +127,7 @@ describe('giving up and taking over', () => {
       attempts: 1, lease_until: new Date(Date.now() - 1000), payload: JSON.stringify({ visitId: booked.body.id }),
     })
     await expect.poll(async () => (await testDb()('outbox').where({ id: stranded }).first()).state, { timeout: 20_000, interval: 200 }).toBe('sent')
-    expect(await deliveriesPerRow(catcher.received).get(stranded as number)).toBe(1)
+    expect((await deliveriesPerRow(catcher.received)).get(stranded as number)).toBe(1)
     // The failed one stays failed until someone presses "resend".
     expect((await invitation()).state).toBe('failed')
   })
