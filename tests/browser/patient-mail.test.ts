@@ -2,8 +2,7 @@
 // reminder and a cancellation, taken from the real mail catcher, rendered in Chromium at 390 and
 // 800 px (screenshots in tests/artifacts/, looked at); and the visit page's cancel link, which asks
 // before sending and takes an optional reason. Own test annex (week 10).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { inject } from 'vitest'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { openBrowser, screenshot, type BrowserSession } from '../helpers/browser'
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'

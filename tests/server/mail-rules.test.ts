@@ -3,7 +3,7 @@
 // against the rule it must keep, with the RFC section beside each check. Own test annexes, so any
 // weeks (2–6 here).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import ICAL from 'ical.js'
+import type ICAL from 'ical.js'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
 import { bookingFor, createMailAnnex, outboxRowsOf, type MailAnnex } from '../helpers/mail-fixtures'
