@@ -131,3 +131,19 @@ export function ownCatcher(port: number): OwnCatcher {
     }),
   }
 }
+
+/** Reads until `ok` holds (for setup code, where expect.poll is not allowed); throws after the timeout. */
+export async function pollUntil<T>(read: () => Promise<T>, ok: (value: T) => boolean, timeoutMs = 20_000): Promise<T> {
+  const deadline = Date.now() + timeoutMs
+  for (;;) {
+    const value = await read()
+    if (ok(value)) return value
+    if (Date.now() > deadline) throw new Error(`condition not met within ${timeoutMs} ms`)
+    await new Promise((wait) => setTimeout(wait, 200))
+  }
+}
+
+/** A JSON column as stored (mysql2 may hand it back parsed or as text). */
+export function jsonOf(value: unknown): Record<string, unknown> {
+  return typeof value === 'string' ? JSON.parse(value) : (value as Record<string, unknown>)
+}

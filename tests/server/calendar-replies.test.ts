@@ -15,7 +15,7 @@ import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
 import { freePort } from '../helpers/app-server'
 import { bookingFor, createMailAnnex, outboxRowsOf, type MailAnnex } from '../helpers/mail-fixtures'
-import { calendarPart, parseCalendar, veventOf, waitForOutboxMail } from '../helpers/mail'
+import { calendarPart, jsonOf, parseCalendar, pollUntil, veventOf, waitForOutboxMail } from '../helpers/mail'
 import { atAhead, MONDAY, TUESDAY, WEDNESDAY } from '../helpers/dates'
 
 const ZONE = 'America/Los_Angeles'
@@ -43,7 +43,7 @@ beforeAll(async () => {
     env: { ...process.env, SMTP_PORT: String(port), MAIL_DIR: mkdtempSync(join(tmpdir(), 'cuspline-replies-')), INBOUND_MAIL_URL: `${manager.baseURL}/api/inbound/mail`, NUXT_MAIL_INBOUND_SECRET: SECRET },
     stdio: 'ignore',
   })
-  await expect.poll(() => portOpen(port), { timeout: 20_000, interval: 200 }).toBe(true)
+  await pollUntil(() => portOpen(port), Boolean)
   smtp = nodemailer.createTransport({ host: '127.0.0.1', port, secure: false, ignoreTLS: true })
 })
 
@@ -64,8 +64,8 @@ interface Invited {
 async function bookAndInvite(patient: number, startUtc: string): Promise<Invited> {
   const booked = await manager.post('/api/visits', bookingFor(annex, patient, startUtc))
   expect(booked.status).toBe(201)
-  await expect.poll(async () => (await outboxRowsOf(booked.body.id)).some((row) => row.kind === 'invitation'), { timeout: 10_000 }).toBe(true)
-  const row = (await outboxRowsOf(booked.body.id)).find((found) => found.kind === 'invitation')!
+  const rows = await pollUntil(() => outboxRowsOf(booked.body.id), (found) => found.some((row) => row.kind === 'invitation'))
+  const row = rows.find((found) => found.kind === 'invitation')!
   const mail = await waitForOutboxMail(annex.emails[patient]!, row.id)
   const vevent = veventOf(parseCalendar(calendarPart(mail).content.toString('utf8')))
   return {
@@ -117,7 +117,7 @@ describe('replies from the patient\'s calendar', () => {
     await sendReply(invited, replyCalendar(invited, 'ACCEPTED', 'apple'), 'quoted-printable')
     await expect.poll(async () => (await testDb()('visits').where({ id: invited.visitId }).first()).state, { timeout: 20_000, interval: 200 }).toBe('confirmed')
     const [audit] = await testDb()('audit_log').where({ action: 'visit_confirmed', entity: 'visit', entity_id: String(invited.visitId) })
-    expect(JSON.parse(audit.after)).toMatchObject({ by: 'calendar reply', partstat: 'ACCEPTED' })
+    expect(jsonOf(audit.after)).toMatchObject({ by: 'calendar reply', partstat: 'ACCEPTED' })
     expect((await inboundOf(invited.visitId)).map((row) => row.outcome)).toEqual(['matched'])
   })
 
@@ -129,7 +129,7 @@ describe('replies from the patient\'s calendar', () => {
     // The site's policy is 'request' (default): the front desk decides, the visit stands.
     expect(row.state).toBe('booked')
     const [audit] = await testDb()('audit_log').where({ action: 'visit_cancel_requested', entity_id: String(invited.visitId) })
-    expect(JSON.parse(audit.after)).toMatchObject({ by: 'calendar reply' })
+    expect(jsonOf(audit.after)).toMatchObject({ by: 'calendar reply' })
     const requests = await manager.get(`/api/outbox/cancel-requests?siteId=${annex.siteId}`)
     expect(requests.body.map((request: { visitId: number }) => request.visitId)).toContain(invited.visitId)
   })

@@ -7,7 +7,7 @@ import type ICAL from 'ical.js'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
 import { bookingFor, createMailAnnex, outboxRowsOf, type MailAnnex } from '../helpers/mail-fixtures'
-import { calendarMethodParam, calendarPart, parseCalendar, veventOf, waitForOutboxMail, type Arrived } from '../helpers/mail'
+import { calendarMethodParam, calendarPart, jsonOf, parseCalendar, pollUntil, veventOf, waitForOutboxMail, type Arrived } from '../helpers/mail'
 import { atAhead, MONDAY, TUESDAY, WEDNESDAY } from '../helpers/dates'
 
 const ZONE = 'America/Los_Angeles'
@@ -27,8 +27,8 @@ beforeAll(async () => {
 afterAll(closeTestDb)
 
 async function rowOf(visitId: number, kind: string) {
-  await expect.poll(async () => (await outboxRowsOf(visitId)).filter((row) => row.kind === kind).length, { timeout: 15_000 }).toBeGreaterThan(0)
-  return (await outboxRowsOf(visitId)).filter((row) => row.kind === kind).at(-1)!
+  const rows = await pollUntil(() => outboxRowsOf(visitId), (found) => found.some((row) => row.kind === kind))
+  return rows.filter((row) => row.kind === kind).at(-1)!
 }
 
 async function arrived(visitId: number, kind: string, email: string): Promise<Arrived> {
@@ -55,6 +55,13 @@ function calendarOctetLines(mail: Arrived): Buffer[] {
     }
   }
   return lines
+}
+
+/** A header as sent, unfolded (RFC 5322 §2.2.3); mailparser turns List-* headers into objects. */
+function rawHeader(mail: Arrived, name: string): string {
+  const head = mail.raw.split(/\r?\n\r?\n/)[0]!.replace(/\r?\n[ \t]+/g, ' ')
+  const line = head.split(/\r?\n/).find((found) => found.toLowerCase().startsWith(`${name.toLowerCase()}:`))
+  return line ? line.slice(name.length + 1).trim() : ''
 }
 
 function calendarPartsIn(mail: Arrived): number {
@@ -127,12 +134,12 @@ describe('an invitation for a patient whose name has ", ;, ,, :, \\, non-ASCII a
   it('names the site\'s reply address as ORGANIZER (RFC 5546 §3.2.3: replies go to the ORGANIZER)', () => {
     const organizer = veventOf(parseCalendar(calendarPart(mail).content.toString('utf8'))).getFirstProperty('organizer')!
     expect(String(organizer.getFirstValue()).toLowerCase()).toBe(`mailto:replies+${annex.siteId}@cuspline.test`)
-    expect(organizer.getParameter('cn')).toBe('Test annex')
+    expect(organizer.getParameter('cn')).toMatch(/^Test annex/)
   })
 
   it('runs the event from seating to dismissal, the same span in the text, the HTML, the visit page and the .ics download', async () => {
     const row = await testDb()('visits').where({ id: visitId }).first()
-    const plan = JSON.parse(row.plan) as { segments: Array<{ kind: string; startMinute: number }> }
+    const plan = jsonOf(row.plan) as unknown as { segments: Array<{ kind: string; startMinute: number }> }
     const last = plan.segments.at(-1)!
     // This template ends with a room reset: the chair is held longer than the patient stays.
     expect(last.kind).toBe('reset')
@@ -170,7 +177,7 @@ describe('an invitation for a patient whose name has ", ;, ,, :, \\, non-ASCII a
   it('says it was sent by a program, carries no internal headers, and has a random Message-ID (RFC 3834 §5, RFC 5322 §3.6.4)', () => {
     expectCommonHeaders(mail)
     // RFC 8058 is for reminders only: the invitation is a message the patient needs.
-    expect(mail.parsed.headers.has('list-unsubscribe')).toBe(false)
+    expect(rawHeader(mail, 'List-Unsubscribe')).toBe('')
   })
 
   it('reads on a phone: viewport, site name at the top, a footer saying why and how to reach the site', () => {
@@ -241,9 +248,9 @@ describe('reminders', () => {
   })
 
   it('offers a one-click stop (RFC 8058 §3.1: List-Unsubscribe with an https/http URI and List-Unsubscribe-Post) and a visible link', () => {
-    const header = String(reminder.parsed.headers.get('list-unsubscribe') ?? '')
+    const header = rawHeader(reminder, 'List-Unsubscribe')
     expect(header).toMatch(/^<https?:\/\/\S+\/api\/visit\/\S+\/reminders-off>$/)
-    expect(reminder.parsed.headers.get('list-unsubscribe-post')).toBe('List-Unsubscribe=One-Click')
+    expect(rawHeader(reminder, 'List-Unsubscribe-Post')).toBe('List-Unsubscribe=One-Click')
     expect(reminder.parsed.text).toMatch(/Stop reminders by e-mail .*: https?:\/\/\S+\?do=stop-reminders/)
     expect(String(reminder.parsed.html)).toContain('Stop reminders by e-mail')
   })
@@ -258,7 +265,7 @@ describe('reminders', () => {
   })
 
   it('one-click POST turns reminders off, with an audit row; the cancellation still comes (RFC 8058 §3.2)', async () => {
-    const url = /^<(.+)>$/.exec(String(reminder.parsed.headers.get('list-unsubscribe')))![1]!
+    const url = /^<(.+)>$/.exec(rawHeader(reminder, 'List-Unsubscribe'))![1]!
     // As a mail client sends it: a form body, no cookie, no Origin.
     const response = await fetch(url, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: 'List-Unsubscribe=One-Click' })
     expect(response.status).toBe(200)
@@ -266,7 +273,7 @@ describe('reminders', () => {
     expect(patient.reminders_off_at).not.toBeNull()
     const audit = await testDb()('audit_log').where({ action: 'patient_reminders_off', entity: 'patient', entity_id: String(annex.patientIds[3]) })
     expect(audit).toHaveLength(1)
-    expect(JSON.parse(audit[0].after)).toMatchObject({ by: 'one-click unsubscribe' })
+    expect(jsonOf(audit[0].after)).toMatchObject({ by: 'one-click unsubscribe' })
     // A second click changes nothing and writes nothing more.
     expect((await fetch(url, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: 'List-Unsubscribe=One-Click' })).status).toBe(200)
     expect(await testDb()('audit_log').where({ action: 'patient_reminders_off', entity_id: String(annex.patientIds[3]) })).toHaveLength(1)
@@ -287,7 +294,7 @@ describe('reminders', () => {
     expect(vevent.getAllSubcomponents('valarm')).toHaveLength(0)
     expectCommonHeaders(cancellation)
     expectPhoneHtml(cancellation)
-    expect(cancellation.parsed.headers.has('list-unsubscribe')).toBe(false)
+    expect(rawHeader(cancellation, 'List-Unsubscribe')).toBe('')
   })
 
   it('refuses a forged unsubscribe link (404) and any other form post (415)', async () => {
@@ -311,6 +318,6 @@ describe('asking to cancel from the link', () => {
     expect(asked.status).toBe(200)
     expect(asked.body.cancelRequested).toBe(true)
     const [audit] = await testDb()('audit_log').where({ action: 'visit_cancel_requested', entity_id: String(booked.body.id) })
-    expect(JSON.parse(audit.after)).toMatchObject({ by: 'patient link', note: 'Away for work' })
+    expect(jsonOf(audit.after)).toMatchObject({ by: 'patient link', note: 'Away for work' })
   })
 })
