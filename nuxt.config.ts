@@ -53,7 +53,13 @@ export default defineNuxtConfig({
     },
     smtp: { host: '127.0.0.1', port: 1025, secure: false, user: '', password: '', from: '' },
     // Patient links (confirm / ask to cancel / .ics): HMAC secret and the address patients open.
-    mail: { linkSecret: '', publicUrl: 'http://127.0.0.1:3000' },
+    mail: {
+      linkSecret: '', publicUrl: 'http://127.0.0.1:3000',
+      // Each site's calendar reply address (ORGANIZER); '{site}' is the site's id. '' = the site's own e-mail.
+      replyAddress: 'replies+{site}@cuspline.test',
+      // Shared secret of the inbound-mail webhook (POST /api/inbound/mail); '' refuses every post.
+      inboundSecret: '',
+    },
     // The outbox dispatcher loop (server/plugins/outbox-dispatcher.ts).
     outbox: {
       dispatcher: true,

@@ -33,6 +33,14 @@ export NUXT_SESSION_PASSWORD
 NUXT_MAIL_LINK_SECRET="${NUXT_MAIL_LINK_SECRET:-$(secret_file mail-link-secret)}"
 export NUXT_MAIL_LINK_SECRET
 export NUXT_MAIL_PUBLIC_URL="${NUXT_MAIL_PUBLIC_URL:-http://$HOST:$PORT}"
+# Calendar replies: each site's ORGANIZER address, and the secret the mail catcher signs its posts
+# to the app's inbound endpoint with (as a hosted inbound-mail service would).
+REPLY_ADDRESS_DEFAULT='replies+{site}@cuspline.test'
+export NUXT_MAIL_REPLY_ADDRESS="${NUXT_MAIL_REPLY_ADDRESS-$REPLY_ADDRESS_DEFAULT}"
+NUXT_MAIL_INBOUND_SECRET="${NUXT_MAIL_INBOUND_SECRET:-$(secret_file mail-inbound-secret)}"
+export NUXT_MAIL_INBOUND_SECRET
+# Where the catcher posts the replies it receives (the app started by npm start / npm run dev).
+export INBOUND_MAIL_URL="${INBOUND_MAIL_URL:-http://$HOST:$PORT/api/inbound/mail}"
 
 # What the app reads (runtimeConfig is overridden by NUXT_* variables).
 export NUXT_DB_HOST="$DB_HOST" NUXT_DB_PORT="$DB_PORT" NUXT_DB_USER="$DB_USER"

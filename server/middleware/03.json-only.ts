@@ -7,6 +7,13 @@ import { MESSAGES } from '../utils/errors'
 
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
 const JSON_TYPE = /^application\/(?:[\w.+-]+\+)?json\s*(?:;|$)/i
+// Two routes that outside senders post to in their own format: a mail client's one-click unsubscribe
+// (RFC 8058 §3.1: a form body, no cookies, no Origin), and the inbound-mail webhook (a raw message,
+// signed with the shared secret). Each reads nothing a form could forge.
+const OWN_FORMATS: Array<[RegExp, RegExp]> = [
+  [/^\/api\/visit\/[^/?]+\/reminders-off(?:\?|$)/, /^application\/x-www-form-urlencoded\s*(?:;|$)/i],
+  [/^\/api\/inbound\/mail(?:\?|$)/, /^message\/rfc822\s*(?:;|$)/i],
+]
 
 function hasBody(headers: Record<string, string | string[] | undefined>): boolean {
   if (headers['transfer-encoding']) return true
@@ -19,5 +26,6 @@ export default defineEventHandler((event) => {
   if (!hasBody(event.node.req.headers)) return
   const type = getRequestHeader(event, 'content-type') ?? ''
   if (JSON_TYPE.test(type)) return
+  if (OWN_FORMATS.some(([path, allowed]) => path.test(event.path) && allowed.test(type))) return
   throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: MESSAGES.jsonOnly })
 })

@@ -21,6 +21,7 @@ export default defineNitroPlugin((nitroApp) => {
     batchSize: Number(outbox.batchSize), leaseSeconds: Number(outbox.leaseSeconds), lane: String(outbox.lane ?? ''),
     retry: { baseSeconds: Number(outbox.retryBaseSeconds), maxSeconds: Number(outbox.retryMaxSeconds), maxAttempts: Number(outbox.maxAttempts) },
     from: String(smtp.from ?? ''), publicUrl: String(config.mail.publicUrl), linkSecret: useVisitLinkSecret(),
+    replyAddress: String(config.mail.replyAddress ?? ''),
   }
   const pollMs = Math.max(50, Number(outbox.pollMs))
   let stopped = false

@@ -27,6 +27,8 @@ export interface MailSite {
   timeZone: string
   clock: ClockStyle
   dateOrder: DateOrder
+  /** The site's colour (#rrggbb), shown at the top of its e-mails. */
+  colour: string
   settings: Record<string, unknown>
 }
 
@@ -36,6 +38,8 @@ export interface MailPatient {
   lastName: string
   email: string | null
   emailConsent: boolean
+  /** When the patient turned e-mail reminders off, or null. */
+  remindersOffAt: Date | null
 }
 
 export interface MailContext {
@@ -53,9 +57,9 @@ export async function loadMailContext(db: Db, visitId: number): Promise<MailCont
       'visits.id', 'visits.state', 'visits.start_utc', 'visits.end_utc', 'visits.ical_uid',
       'visits.ical_sequence', 'visits.plan', 'visits.cancel_requested_at', 'visits.row_version',
       'sites.id as site_id', 'sites.name as site_name', 'sites.address as site_address', 'sites.phone as site_phone',
-      'sites.email as site_email', 'sites.time_zone as site_time_zone', 'sites.settings as site_settings',
+      'sites.email as site_email', 'sites.time_zone as site_time_zone', 'sites.settings as site_settings', 'sites.colour as site_colour',
       'sites.clock as site_clock', 'sites.date_order as site_date_order',
-      'patients.id as patient_id', 'patients.first_name', 'patients.last_name', 'patients.email as patient_email', 'patients.email_consent',
+      'patients.id as patient_id', 'patients.first_name', 'patients.last_name', 'patients.email as patient_email', 'patients.email_consent', 'patients.reminders_off_at',
     )
   if (!row) return undefined
   return {
@@ -65,10 +69,16 @@ export async function loadMailContext(db: Db, visitId: number): Promise<MailCont
     },
     site: {
       id: row.site_id, name: row.site_name, address: row.site_address, phone: row.site_phone, email: row.site_email,
-      timeZone: row.site_time_zone, clock: row.site_clock, dateOrder: row.site_date_order, settings: parseJson<Record<string, unknown>>(row.site_settings, {}),
+      timeZone: row.site_time_zone, clock: row.site_clock, dateOrder: row.site_date_order, colour: row.site_colour, settings: parseJson<Record<string, unknown>>(row.site_settings, {}),
     },
-    patient: { id: row.patient_id, firstName: row.first_name, lastName: row.last_name, email: row.patient_email, emailConsent: Boolean(row.email_consent) },
+    patient: { id: row.patient_id, firstName: row.first_name, lastName: row.last_name, email: row.patient_email, emailConsent: Boolean(row.email_consent), remindersOffAt: row.reminders_off_at ?? null },
   }
+}
+
+/** The visit whose calendar event has this UID (RFC 5545 §3.8.4.7). */
+export async function findVisitIdByUid(db: Db, icalUid: string): Promise<number | undefined> {
+  const row = await db('visits').where({ ical_uid: icalUid }).first('id')
+  return row?.id
 }
 
 /** The patient confirmed through the signed link (a patient's change is not undone by staff: no previous state kept). */
@@ -76,6 +86,11 @@ export async function confirmVisit(db: Db, id: number, rowVersion: number): Prom
   const changed = await db('visits').where({ id, row_version: rowVersion, state: 'booked' })
     .update({ state: 'confirmed', confirmed_at: new Date(), previous_state: null, state_changed_at: null, row_version: rowVersion + 1, updated_at: db.fn.now(3) })
   return changed === 1
+}
+
+/** The patient turned e-mail reminders off (true when this call did it). */
+export async function turnRemindersOff(db: Db, patientId: number): Promise<boolean> {
+  return (await db('patients').where({ id: patientId }).whereNull('reminders_off_at').update({ reminders_off_at: new Date() })) === 1
 }
 
 /** The patient asked to cancel; the front desk decides (or the site cancels at once, see the service). */

@@ -1,5 +1,6 @@
 // Patient e-mails waiting to be sent. Rows are written inside the booking transaction and claimed by
 // dispatchers with SELECT … FOR UPDATE SKIP LOCKED, so several processes never take the same row.
+import { hostname } from 'node:os'
 import { escapeLike } from './patients'
 import type { Db } from '../utils/db'
 import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
@@ -29,6 +30,8 @@ export interface OutboxPayload {
   startUtc?: string
   offsetHours?: number
   resendOf?: number
+  /** Updates: what the patient sees that changed (issue 15), and the length they were told before. */
+  change?: { time: boolean; length: boolean; what: boolean; minutesBefore?: number }
 }
 
 export interface NewOutboxMessage {
@@ -107,8 +110,16 @@ function ours(db: Db, row: OutboxRow) {
   return db('outbox').where({ id: row.id, state: 'sending', lease_until: row.lease_until })
 }
 
+/** Keeps the row's Message-ID before the first try (false when the lease is no longer ours). */
+export async function fixMessageId(db: Db, row: OutboxRow, messageId: string): Promise<boolean> {
+  return (await ours(db, row).whereNull('message_id').update({ message_id: messageId })) === 1
+}
+
 export async function markSent(db: Db, row: OutboxRow, messageId: string, rendered: RenderedMessage): Promise<boolean> {
-  const changed = await ours(db, row).update({ state: 'sent', message_id: messageId.slice(0, 300), sent_at: new Date(), lease_until: null, last_error: null, rendered: JSON.stringify(rendered) })
+  const changed = await ours(db, row).update({
+    state: 'sent', message_id: messageId.slice(0, 300), sent_at: new Date(), sent_by: `${hostname()}:${process.pid}`.slice(0, 100),
+    lease_until: null, last_error: null, rendered: JSON.stringify(rendered),
+  })
   return changed === 1
 }
 

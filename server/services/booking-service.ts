@@ -22,6 +22,8 @@ import { lockForBooking } from '../repositories/booking-locks'
 import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
 import { enqueueMessages } from '../repositories/outbox'
 import { dropQueuedReminders, reminderMessages } from './mail/reminders'
+import { seenChange, seenVisitOf, type SeenVisit } from '#shared/domain/patient-time'
+import { mailSettingsOf } from '#shared/domain/site-settings'
 import { findPatient } from '../repositories/patients'
 import { writeAudit } from '../repositories/audit-log'
 import { findProviderIdOfUser } from '../repositories/providers'
@@ -51,6 +53,8 @@ interface VisitMail {
   startMs: number
   calendar: SiteCalendarInputs
   patient: PatientDto | undefined
+  /** Updates: what the patient sees, before and after; no update is sent when none of it changed. */
+  seen?: { before: SeenVisit; after: SeenVisit }
 }
 
 /** No consent, no e-mail (the dispatcher checks again at send time). */
@@ -60,12 +64,17 @@ function mayMail(patient: PatientDto | undefined): boolean {
 
 /** The patient's invitation or update and the visit's reminders, in one insert. */
 async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: VisitMail): Promise<void> {
+  // A change the patient cannot see (the chair, the provider, the room reset after they leave) sends
+  // nothing, and the reminders planned for the same start stay.
+  const change = visit.seen ? seenChange(visit.seen.before, visit.seen.after) : undefined
+  if (kind === 'update' && change === null) return
   // Reminders not yet sent belong to the old time: planned again below.
   if (kind === 'update') await dropQueuedReminders(db, visit.visitId)
   if (!mayMail(visit.patient)) return
   const site = { id: visit.calendar.site.id, timeZone: visit.calendar.site.timeZone, settings: visit.calendar.settings }
+  const payload = change && visit.seen ? { visitId: visit.visitId, change: { ...change, minutesBefore: visit.seen.before.minutes } } : { visitId: visit.visitId }
   await enqueueMessages(db, [
-    { kind, visitId: visit.visitId, siteId: site.id, dueAt: new Date(), payload: { visitId: visit.visitId } },
+    { kind, visitId: visit.visitId, siteId: site.id, dueAt: new Date(), payload },
     ...reminderMessages({ visitId: visit.visitId, startMs: visit.startMs, site }),
   ])
 }
@@ -203,7 +212,12 @@ export async function moveVisit(id: number, input: MoveVisitInput, user: Session
     // A stranded visit moved to a time that holds leaves the Rebook list.
     if (row.stranded_reason) await settleStranded(trx, id, user.id)
     await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'visit', entityId: id, before: { start: row.start_utc, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
-    await queueVisitMail(trx, 'update', { visitId: id, startMs, calendar, patient })
+    const namesShown = mailSettingsOf(calendar.settings).includeProcedureNames
+    const seen = {
+      before: seenVisitOf(parseJson<VisitPlan>(row.plan, {} as VisitPlan), row.start_utc.getTime(), row.end_utc.getTime(), namesShown),
+      after: seenVisitOf(plan, startMs, visitEnd(plan, startMs), namesShown),
+    }
+    await queueVisitMail(trx, 'update', { visitId: id, startMs, calendar, patient, seen })
     return loaded(trx, id)
   })
 }

@@ -34,7 +34,7 @@ export async function messageDetail(id: number, user: SessionUser): Promise<Outb
   const context = row.visit_id === null ? undefined : await loadMailContext(useDb(), row.visit_id)
   if (!context || !context.patient.email) return { ...dto, rendered: null, preview: true }
   const { mail, smtp } = useRuntimeConfig()
-  const composed = renderFor(row, context, { from: String(smtp.from ?? ''), publicUrl: String(mail.publicUrl), linkSecret: useVisitLinkSecret() })
+  const composed = renderFor(row, context, { from: String(smtp.from ?? ''), publicUrl: String(mail.publicUrl), linkSecret: useVisitLinkSecret(), replyAddress: String(mail.replyAddress ?? '') })
   return { ...dto, rendered: composed.rendered, preview: true }
 }
 

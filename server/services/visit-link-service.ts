@@ -8,17 +8,18 @@ import { conflict, notFound } from '../utils/errors'
 import { inTransaction } from '../utils/db-retry'
 import { hasValidSignature, readVisitToken } from '../utils/visit-token'
 import { useVisitLinkSecret } from '../utils/visit-link-secret'
-import { confirmVisit, loadMailContext, recordCancelRequest, type MailContext } from '../repositories/mail-context'
+import { confirmVisit, loadMailContext, recordCancelRequest, turnRemindersOff, type MailContext } from '../repositories/mail-context'
 import { replaceSegments, updateVisitIfVersion } from '../repositories/visits'
 import { writeAudit } from '../repositories/audit-log'
 import { enqueueMessage } from '../repositories/outbox'
 import { visitFacts } from './mail/visit-facts'
-import { methodFor, visitCalendar } from './mail/calendar'
+import { methodFor, patientSpan, visitCalendar } from './mail/calendar'
+import { organizerOf } from './mail/dispatcher'
 import { mailSettingsOf } from '#shared/domain/site-settings'
 import { dropQueuedReminders } from './mail/reminders'
 
 const LINK_NOT_FOUND = 'This link is not valid. Please call the practice.'
-const PATIENT_CANCEL_REASON = 'Cancelled by the patient through the e-mail link'
+const PATIENT_CANCEL_REASON = 'The patient asked to cancel'
 
 function expired() {
   return createError({ statusCode: 410, statusMessage: 'Gone', message: 'This link has expired: the visit is over. Please call the practice.' })
@@ -40,10 +41,12 @@ function toPublicVisit(context: MailContext, token: string): PublicVisitDto {
   const upcoming = visit.state === 'booked' || visit.state === 'confirmed'
   return {
     siteName: site.name, siteAddress: site.address, sitePhone: site.phone, timeZone: site.timeZone, zoneName: facts.zoneName,
-    startUtc: visit.startUtc.toISOString(), endUtc: visit.endUtc.toISOString(), whenLocal: facts.whenLocal, minutes: facts.minutes,
+    // The patient's span (seating to dismissal), as in the e-mail and the calendar event.
+    startUtc: visit.startUtc.toISOString(), endUtc: new Date(patientSpan(context, facts).endMs).toISOString(), whenLocal: facts.whenLocal, minutes: facts.minutes,
     state: visit.state, cancelRequested: visit.cancelRequestedAt !== null, cancelPolicy: facts.settings.patientCancel,
     canConfirm: visit.state === 'booked', canCancel: upcoming && visit.cancelRequestedAt === null,
     icsUrl: `/api/visits/${visit.id}/ics?token=${encodeURIComponent(token)}`,
+    remindersOff: context.patient.remindersOffAt !== null,
   }
 }
 
@@ -62,10 +65,10 @@ export async function confirmByPatient(token: string): Promise<PublicVisitDto> {
   return publicVisit(token)
 }
 
-async function cancelAtOnce(db: Db, context: MailContext): Promise<void> {
+async function cancelAtOnce(db: Db, context: MailContext, reason: string): Promise<void> {
   const { visit } = context
   const changed = await updateVisitIfVersion(db, visit.id, visit.rowVersion, {
-    state: 'cancelled', cancel_reason: PATIENT_CANCEL_REASON, ical_sequence: visit.icalSequence + 1, cancel_requested_at: new Date(),
+    state: 'cancelled', cancel_reason: reason, ical_sequence: visit.icalSequence + 1, cancel_requested_at: new Date(),
     // The patient's own cancellation is not undone by staff: no previous state kept.
     previous_state: null, state_changed_at: null,
   })
@@ -77,18 +80,38 @@ async function cancelAtOnce(db: Db, context: MailContext): Promise<void> {
   }
 }
 
-export async function requestCancelByPatient(token: string): Promise<PublicVisitDto> {
+/**
+ * The patient asks to cancel, through the link or by declining in their calendar (inbound-service):
+ * a request for the front desk, or a cancellation at once where the site's `patientCancel` says so.
+ * Returns false when there was nothing to do (already cancelled or asked).
+ */
+export async function patientAsksToCancel(trx: Db, context: MailContext, by: string, note?: string): Promise<boolean> {
+  const { visit } = context
+  if (visit.state === 'cancelled' || visit.cancelRequestedAt) return false
+  if (!canMoveToState(visit.state, 'cancelled') || (visit.state !== 'booked' && visit.state !== 'confirmed')) {
+    throw conflict(`A ${visit.state} visit cannot be cancelled from the link. Please call the practice.`, { field: 'state' })
+  }
+  const reason = note ? `${PATIENT_CANCEL_REASON} (${by}): ${note}` : `${PATIENT_CANCEL_REASON} (${by})`
+  const atOnce = mailSettingsOf(context.site.settings).patientCancel === 'cancel'
+  if (atOnce) await cancelAtOnce(trx, context, reason.slice(0, 500))
+  else await recordCancelRequest(trx, visit.id)
+  await writeAudit(trx, { userId: null, action: atOnce ? 'visit_cancelled' : 'visit_cancel_requested', entity: 'visit', entityId: visit.id, before: { state: visit.state }, after: { by, reason: PATIENT_CANCEL_REASON, ...(note ? { note } : {}) } })
+  return true
+}
+
+export async function requestCancelByPatient(token: string, note?: string): Promise<PublicVisitDto> {
+  await inTransaction(async (trx) => {
+    await patientAsksToCancel(trx, await visitOfToken(trx, token), 'patient link', note)
+  })
+  return publicVisit(token)
+}
+
+/** The patient stops e-mail reminders (the link or List-Unsubscribe one-click, RFC 8058); other messages keep coming. */
+export async function remindersOffByPatient(token: string, by: 'patient link' | 'one-click unsubscribe'): Promise<PublicVisitDto> {
   await inTransaction(async (trx) => {
     const context = await visitOfToken(trx, token)
-    const { visit } = context
-    if (visit.state === 'cancelled' || visit.cancelRequestedAt) return
-    if (!canMoveToState(visit.state, 'cancelled') || (visit.state !== 'booked' && visit.state !== 'confirmed')) {
-      throw conflict(`A ${visit.state} visit cannot be cancelled from the link. Please call the practice.`, { field: 'state' })
-    }
-    const atOnce = mailSettingsOf(context.site.settings).patientCancel === 'cancel'
-    if (atOnce) await cancelAtOnce(trx, context)
-    else await recordCancelRequest(trx, visit.id)
-    await writeAudit(trx, { userId: null, action: atOnce ? 'visit_cancelled' : 'visit_cancel_requested', entity: 'visit', entityId: visit.id, before: { state: visit.state }, after: { by: 'patient link', reason: PATIENT_CANCEL_REASON } })
+    if (!(await turnRemindersOff(trx, context.patient.id))) return
+    await writeAudit(trx, { userId: null, action: 'patient_reminders_off', entity: 'patient', entityId: context.patient.id, before: { reminders: 'on' }, after: { reminders: 'off', by, visitId: context.visit.id } })
   })
   return publicVisit(token)
 }
@@ -97,5 +120,6 @@ export async function requestCancelByPatient(token: string): Promise<PublicVisit
 export async function currentCalendar(visitId: number, token: string): Promise<{ ics: string; method: 'REQUEST' | 'CANCEL' }> {
   const context = await visitOfToken(useDb(), token, visitId)
   const method = methodFor(context)
-  return { ics: visitCalendar(context, visitFacts(context), method), method }
+  const organizer = organizerOf(context, String(useRuntimeConfig().mail.replyAddress ?? ''))
+  return { ics: visitCalendar(context, visitFacts(context), method, { organizerEmail: organizer }), method }
 }

@@ -3,6 +3,7 @@
 // a wrong value stops the server with its variable's name instead of turning up later as a 500.
 // Only checked, never converted: the code that reads a setting keeps reading it as before.
 import { z } from 'zod'
+import { isReplyTemplate } from '#shared/domain/reply-address'
 
 // NUXT_* values arrive parsed: '5' is 5, 'true' is true; anything else stays a string. Numbers are read
 // with Number() where they are used, so a string that is a number passes too.
@@ -51,7 +52,12 @@ const RuntimeConfigSchema = z.object({
     cookie: z.object({ sameSite: z.enum(['lax', 'strict', 'none'], 'must be lax, strict or none'), httpOnly: flag, secure: flag }),
   }),
   smtp: z.object({ host: required, port, secure: flag, user: text, password: text, from: text }),
-  mail: z.object({ linkSecret: secret, publicUrl: httpAddress }),
+  mail: z.object({
+    linkSecret: secret,
+    publicUrl: httpAddress,
+    replyAddress: z.unknown().refine((value) => value === '' || (typeof value === 'string' && isReplyTemplate(value)), "must be empty or one address with '{site}' in its local part, e.g. replies+{site}@example.org"),
+    inboundSecret: z.unknown().refine((value) => value === '' || (isText(value) && String(value).length >= 32), 'must be empty or at least 32 characters'),
+  }),
   outbox: z.object({
     dispatcher: flag,
     lane: text,

@@ -20,3 +20,9 @@ export type OutboxQuery = z.infer<typeof OutboxQuerySchema>
 export const VisitTokenQuerySchema = z.object({
   token: z.string({ error: 'is required' }).min(1, 'is required').max(200, 'is too long'),
 })
+
+/** POST /api/visit/:token/cancel: the patient may say why (optional). */
+export const PatientCancelSchema = z.object({
+  reason: plainText(z.string({ error: 'must be text' }).trim().max(300, 'is too long')).optional(),
+}).optional()
+export type PatientCancelInput = z.infer<typeof PatientCancelSchema>

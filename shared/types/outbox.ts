@@ -28,9 +28,9 @@ export interface RenderedMessage {
   subject: string
   text: string
   html: string
-  /** The iCalendar part (RFC 5545), METHOD REQUEST or CANCEL. */
-  ics: string
-  method: 'REQUEST' | 'CANCEL'
+  /** The iCalendar part (RFC 5545), METHOD REQUEST or CANCEL; null for reminders, which carry none. */
+  ics: string | null
+  method: 'REQUEST' | 'CANCEL' | null
 }
 
 export interface OutboxDetailDto extends OutboxMessageDto {
@@ -58,6 +58,8 @@ export interface PublicVisitDto {
   canConfirm: boolean
   canCancel: boolean
   icsUrl: string
+  /** The patient turned e-mail reminders off. */
+  remindersOff: boolean
 }
 
 /** A patient's request to cancel, waiting for the front desk. */
@@ -69,4 +71,16 @@ export interface CancelRequestDto {
   state: VisitState
   requestedAt: string
   rowVersion: number
+}
+
+/** A calendar reply (iTIP REPLY) that matched no visit, kept for the Outbox screen. */
+export interface UnmatchedReplyDto {
+  id: number
+  siteId: number | null
+  receivedAt: string
+  sender: string | null
+  subject: string | null
+  /** Why it matched nothing, in words. */
+  note: string
+  partstat: string | null
 }

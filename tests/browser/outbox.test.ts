@@ -47,7 +47,7 @@ describe('Outbox screen', () => {
     await row.getByRole('button').click()
     await expect.poll(() => page.getByTestId('outbox-subject').textContent()).toMatch(/^Your dental visit at Test annex/)
     // The HTML part as the patient sees it, in a sandboxed frame.
-    await page.frameLocator('iframe[title="E-mail as the patient sees it"]').getByText('Confirm or ask to cancel').waitFor()
+    await page.frameLocator('iframe[title="E-mail as the patient sees it"]').getByText('Confirm I am coming').waitFor()
     await screenshot(page, 'outbox-invitation')
     await page.getByRole('tab', { name: 'Calendar (.ics)' }).click()
     expect(await page.getByTestId('outbox-ics').textContent()).toContain('METHOD:REQUEST')
@@ -71,7 +71,8 @@ describe('Outbox screen', () => {
 
   it('shows a tampered link as not valid', async () => {
     const mail = await waitForOutboxMail(annex.emails[0]!, invitationId)
-    const link = visitLinkOf(mail)
+    // The visit page's own address (the first link is the confirm link, ?do=confirm).
+    const link = visitLinkOf(mail).split('?')[0]!
     await patient.page.goto(`${link.slice(0, -3)}xyz`)
     await expect.poll(() => patient.page.getByTestId('visit-link-error').textContent()).toMatch(/not valid/)
     await screenshot(patient.page, 'visit-link-tampered')

@@ -5,6 +5,7 @@ import { join } from 'node:path'
 import { simpleParser, type ParsedMail, type Attachment } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
 import ICAL from 'ical.js'
+import { testDb } from './db'
 
 export const MAIL_DIR = process.env.MAIL_DIR ?? join(process.cwd(), '.data', 'mail')
 
@@ -33,20 +34,34 @@ export async function mailsContaining(needle: string): Promise<Arrived[]> {
   return found
 }
 
-export function outboxIdOf(mail: Arrived): number | null {
-  const header = mail.parsed.headers.get('x-cuspline-outbox')
-  return header === undefined ? null : Number(header)
-}
-
-/** Waits until the message for this outbox row has arrived in the shared catcher. */
+/**
+ * Waits until the message for this outbox row has arrived in the shared catcher. Patients' messages
+ * carry no internal headers: the row's Message-ID (kept in the database) finds it.
+ */
 export async function waitForOutboxMail(needle: string, outboxId: number, timeoutMs = 20_000): Promise<Arrived> {
   const deadline = Date.now() + timeoutMs
   while (Date.now() < deadline) {
-    const match = (await mailsContaining(needle)).find((mail) => outboxIdOf(mail) === outboxId)
-    if (match) return match
+    const row = await testDb()('outbox').where({ id: outboxId }).first('message_id')
+    if (row?.message_id) {
+      const match = (await mailsContaining(needle)).find((mail) => mail.parsed.messageId === row.message_id)
+      if (match) return match
+    }
     await new Promise((wait) => setTimeout(wait, 200))
   }
   throw new Error(`no e-mail for outbox row ${outboxId} (${needle}) within ${timeoutMs} ms`)
+}
+
+/** How many times each outbox row arrived, by the Message-ID each row keeps. */
+export async function deliveriesPerRow(received: Arrived[]): Promise<Map<number, number>> {
+  const ids = received.map((mail) => mail.parsed.messageId).filter((id): id is string => Boolean(id))
+  const rows: Array<{ id: number; message_id: string }> = ids.length ? await testDb()('outbox').whereIn('message_id', [...new Set(ids)]).select('id', 'message_id') : []
+  const rowOf = new Map(rows.map((row) => [row.message_id, row.id]))
+  const counts = new Map<number, number>()
+  for (const id of ids) {
+    const rowId = rowOf.get(id)
+    if (rowId !== undefined) counts.set(rowId, (counts.get(rowId) ?? 0) + 1)
+  }
+  return counts
 }
 
 /** The text/calendar part: nodemailer's icalEvent is an alternative that mailparser lists with attachments. */
@@ -115,4 +130,20 @@ export function ownCatcher(port: number): OwnCatcher {
       server = undefined
     }),
   }
+}
+
+/** Reads until `ok` holds (for setup code, where expect.poll is not allowed); throws after the timeout. */
+export async function pollUntil<T>(read: () => Promise<T>, ok: (value: T) => boolean, timeoutMs = 20_000): Promise<T> {
+  const deadline = Date.now() + timeoutMs
+  for (;;) {
+    const value = await read()
+    if (ok(value)) return value
+    if (Date.now() > deadline) throw new Error(`condition not met within ${timeoutMs} ms`)
+    await new Promise((wait) => setTimeout(wait, 200))
+  }
+}
+
+/** A JSON column as stored (mysql2 may hand it back parsed or as text). */
+export function jsonOf(value: unknown): Record<string, unknown> {
+  return typeof value === 'string' ? JSON.parse(value) : (value as Record<string, unknown>)
 }

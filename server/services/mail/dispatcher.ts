@@ -6,7 +6,9 @@ import { inTransaction } from '../../utils/db-retry'
 import type { Transporter } from 'nodemailer'
 import { retryDelaySeconds, givesUp, type RetryPolicy } from '#shared/domain/outbox-retry'
 import { isClosed } from '#shared/domain/visit-states'
-import { claimDueMessages, markFailed, markRetry, markSent, markSkipped, payloadOf, type OutboxRow } from '../../repositories/outbox'
+import { randomBytes } from 'node:crypto'
+import { claimDueMessages, fixMessageId, markFailed, markRetry, markSent, markSkipped, payloadOf, type OutboxRow } from '../../repositories/outbox'
+import { replyAddressOf } from '#shared/domain/reply-address'
 import { loadMailContext, type MailContext } from '../../repositories/mail-context'
 import { composeMessage, type ComposedMessage } from './compose'
 import { patientLinks, visitToken } from './links'
@@ -20,6 +22,8 @@ export interface DispatchSettings {
   from: string
   publicUrl: string
   linkSecret: string
+  /** The calendar reply address template (`replies+{site}@…`); '' uses each site's own e-mail. */
+  replyAddress: string
 }
 
 export interface DispatchRound {
@@ -43,6 +47,7 @@ export function reasonToSkip(row: OutboxRow, context: MailContext | undefined, n
   }
   if (!live) return `the visit is ${context.visit.state}`
   if (row.kind === 'reminder') {
+    if (context.patient.remindersOffAt) return 'the patient turned reminders off'
     const payload = payloadOf(row)
     if (payload.startUtc && new Date(payload.startUtc).getTime() !== context.visit.startUtc.getTime()) return 'the visit moved; a new reminder was planned'
   }
@@ -51,9 +56,26 @@ export function reasonToSkip(row: OutboxRow, context: MailContext | undefined, n
   return null
 }
 
-export function renderFor(row: OutboxRow, context: MailContext, settings: Pick<DispatchSettings, 'from' | 'publicUrl' | 'linkSecret'>) {
+/** The ORGANIZER of a site's events: its reply address, or the site's own e-mail without one. */
+export function organizerOf(context: MailContext, replyAddress: string): string {
+  return replyAddressOf(replyAddress, context.site.id) ?? context.site.email
+}
+
+type RenderSettings = Pick<DispatchSettings, 'from' | 'publicUrl' | 'linkSecret' | 'replyAddress'>
+
+export function renderFor(row: OutboxRow, context: MailContext, settings: RenderSettings, messageId?: string) {
   const links = patientLinks(settings.publicUrl, visitToken(settings.linkSecret, context), context.visit.id)
-  return composeMessage(row.kind, context, links, settings.from, row.id)
+  return composeMessage(row.kind, context, links, { from: settings.from, organizerEmail: organizerOf(context, settings.replyAddress), messageId, payload: payloadOf(row) })
+}
+
+/**
+ * One Message-ID per outbox row (RFC 5322 §3.6.4), with a random part so that IDs from two databases
+ * never meet; kept on the row before the first try, so a copy sent again after a crash carries the
+ * same ID and mail systems that drop repeated IDs show the patient one message. A resend is a new row.
+ */
+function newMessageId(row: OutboxRow, sender: string): string {
+  const domain = sender.split('@')[1]?.replace(/[^A-Za-z0-9.-]/g, '') || 'cuspline.invalid'
+  return `<${row.id}.${randomBytes(12).toString('hex')}@${domain}>`
 }
 
 function describe(error: unknown): string {
@@ -86,7 +108,9 @@ async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, setting
       round.skipped += 1
       return
     }
-    const composed = renderFor(row, context!, settings)
+    const messageId = row.message_id ?? newMessageId(row, settings.from || context!.site.email)
+    if (!row.message_id && !(await fixMessageId(db, row, messageId))) return
+    const composed = renderFor(row, context!, settings, messageId)
     const info = await transporter.sendMail(composed.mail)
     sent = { messageId: String(info.messageId ?? ''), rendered: composed.rendered }
   } catch (error) {

@@ -1,4 +1,5 @@
-// The signed links every patient e-mail carries: the visit page and the current .ics.
+// The signed links every patient e-mail carries: the visit page (and its confirm, cancel and
+// stop-reminders views), the current .ics, and the one-click reminder opt-out (RFC 8058).
 import type { MailContext } from '../../repositories/mail-context'
 import type { PatientLinks } from './compose'
 import { signVisitToken } from '../../utils/visit-token'
@@ -10,8 +11,13 @@ export function visitToken(secret: string, context: MailContext): string {
 
 export function patientLinks(publicUrl: string, token: string, visitId: number): PatientLinks {
   const base = publicUrl.replace(/\/+$/, '')
+  const page = `${base}/visit/${encodeURIComponent(token)}`
   return {
-    visitPage: `${base}/visit/${encodeURIComponent(token)}`,
+    visitPage: page,
+    confirm: `${page}?do=confirm`,
+    cancel: `${page}?do=cancel`,
+    stopReminders: `${page}?do=stop-reminders`,
     ics: `${base}/api/visits/${visitId}/ics?token=${encodeURIComponent(token)}`,
+    unsubscribePost: `${base}/api/visit/${encodeURIComponent(token)}/reminders-off`,
   }
 }

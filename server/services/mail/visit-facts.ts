@@ -3,6 +3,7 @@ import { DateTime } from 'luxon'
 import type { MailContext } from '../../repositories/mail-context'
 import { formatDateTime } from '#shared/utils/display-time'
 import { mailSettingsOf, type MailSettings } from '#shared/domain/site-settings'
+import { patientMinutesOf } from '#shared/domain/patient-time'
 
 export interface VisitFacts {
   settings: MailSettings
@@ -28,12 +29,8 @@ export function durationWords(minutes: number): string {
 }
 
 /** The patient's own minutes: from the start until the last segment that is not room turnover. */
-export function patientMinutes(context: MailContext): number {
-  const chairMinutes = Math.round((context.visit.endUtc.getTime() - context.visit.startUtc.getTime()) / 60_000)
-  const segments = context.visit.plan.segments ?? []
-  let end = chairMinutes
-  for (let index = segments.length - 1; index >= 0 && segments[index]!.kind === 'reset'; index -= 1) end = segments[index]!.startMinute
-  return end > 0 ? end : chairMinutes
+function patientMinutes(context: MailContext): number {
+  return patientMinutesOf(context.visit.plan, Math.round((context.visit.endUtc.getTime() - context.visit.startUtc.getTime()) / 60_000))
 }
 
 export function visitFacts(context: MailContext): VisitFacts {

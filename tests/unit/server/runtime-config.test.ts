@@ -15,7 +15,7 @@ function config() {
     },
     session: { password: SECRET, maxAge: 43200, cookie: { sameSite: 'lax', httpOnly: true, secure: true }, name: 'nuxt-session' },
     smtp: { host: '127.0.0.1', port: 1025, secure: false, user: '', password: '', from: '' },
-    mail: { linkSecret: SECRET, publicUrl: 'http://127.0.0.1:3000' },
+    mail: { linkSecret: SECRET, publicUrl: 'http://127.0.0.1:3000', replyAddress: 'replies+{site}@cuspline.test', inboundSecret: '' },
     outbox: { dispatcher: true, lane: '', pollMs: 2000, batchSize: 20, leaseSeconds: 120, maxAttempts: 8, retryBaseSeconds: 30, retryMaxSeconds: 3600 },
     scheduleClockOffsetMinutes: 0,
     public: {},
