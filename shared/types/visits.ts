@@ -74,6 +74,8 @@ export interface OpeningsResponse {
 /** A visit as the Chairboard, My day and week views draw it. */
 export interface BoardVisitDto extends VisitDto {
   patientName: string
+  /** The patient record's alert for the front desk and the chair (a few words), or null. */
+  patientAlert: string | null
   providerName: string
   providerInitials: string
   /** e.g. "Posterior composite 19 MO" per item, in the site's tooth notation. */

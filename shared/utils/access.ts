@@ -50,6 +50,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/people', label: 'People', roles: MANAGING_ROLES },
   { path: '/sites', label: 'Sites & rooms', roles: MANAGING_ROLES },
   { path: '/outbox', label: 'Outbox', roles: BOOKING_ROLES },
+  { path: '/audit', label: 'Audit', roles: MANAGING_ROLES },
 ]
 
 export function navItemsFor(role: Role): NavItem[] {
