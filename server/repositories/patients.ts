@@ -1,4 +1,5 @@
 // Patients: search for booking and quick registration, the whole record, duplicates' candidates.
+import type { Knex } from 'knex'
 import type { Db } from '../utils/db'
 import type { PatientDto } from '#shared/types/visits'
 import type { PatientRecordDto } from '#shared/types/patients'
@@ -109,8 +110,7 @@ export async function duplicateCandidates(db: Db, people: { email?: string | nul
 }
 
 /** Matches names (each word), a birth date (YYYY-MM-DD), digits of a phone number or an e-mail. */
-export async function searchPatients(db: Db, text: string, limit: number): Promise<PatientDto[]> {
-  const query = db<PatientRow>('patients').whereNull('merged_into_id').orderBy(['last_name', 'first_name', 'id']).limit(limit)
+function whereSearch<T extends Knex.QueryBuilder>(query: T, text: string): T {
   const digits = text.replace(/\D/g, '')
   if (/^\d{4}-\d{2}-\d{2}$/.test(text)) {
     query.where('date_of_birth', text)
@@ -123,10 +123,26 @@ export async function searchPatients(db: Db, text: string, limit: number): Promi
       query.where((name) => name.where('first_name', 'like', `${escapeLike(word)}%`).orWhere('last_name', 'like', `${escapeLike(word)}%`))
     }
   }
-  return (await query).map(toPatientDto)
+  return query
+}
+
+export async function searchPatients(db: Db, text: string, limit: number): Promise<PatientDto[]> {
+  const query = db<PatientRow>('patients').whereNull('merged_into_id').orderBy(['last_name', 'first_name', 'id']).limit(limit)
+  return (await whereSearch(query, text)).map(toPatientDto)
+}
+
+/** Every record (merged-away ones left out), or those a search finds, for the export. */
+export async function allPatientRecords(db: Db, text?: string): Promise<PatientRecordDto[]> {
+  const query = db<PatientRecordRow>('patients').whereNull('merged_into_id').orderBy(['last_name', 'first_name', 'id'])
+  return (await (text ? whereSearch(query, text) : query)).map(toPatientRecordDto)
 }
 
 export async function insertPatient(db: Db, columns: Record<string, unknown>): Promise<number> {
   const [id] = await db('patients').insert(columns)
   return id as number
+}
+
+/** Sets the given columns (an import's merge fills a record's empty fields) and counts a new version. */
+export async function fillPatientBlanks(db: Db, id: number, columns: Record<string, unknown>): Promise<void> {
+  await db('patients').where({ id }).update({ ...columns, row_version: db.raw('row_version + 1'), updated_at: db.fn.now(3) })
 }

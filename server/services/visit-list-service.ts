@@ -21,7 +21,7 @@ function procedureLine(item: PlanItemSummary, notation: 'universal' | 'iso'): st
   return `${item.templateName}${tooth}${surfaces}`
 }
 
-function toBoardVisit(row: BoardRow, segments: Parameters<typeof toVisitDto>[1]): BoardVisitDto {
+export function toBoardVisit(row: BoardRow, segments: Parameters<typeof toVisitDto>[1]): BoardVisitDto {
   const visit = toVisitDto(row, segments)
   return {
     ...visit,

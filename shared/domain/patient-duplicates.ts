@@ -75,3 +75,34 @@ export function findDuplicates<T extends PatientIdentity>(person: PatientIdentit
     .filter((match) => match.reasons.length > 0)
     .sort((a, b) => b.reasons.length - a.reasons.length)
 }
+
+/**
+ * The same matching over many people (an imported file against the database): candidates filed by
+ * e-mail, phone and birth date, so each person is compared only with those sharing one of them.
+ */
+export class DuplicateIndex<T extends PatientIdentity> {
+  private readonly byKey = new Map<string, T[]>()
+
+  constructor(candidates: Iterable<T> = []) {
+    for (const candidate of candidates) this.add(candidate)
+  }
+
+  add(candidate: T): void {
+    const email = normaliseEmail(candidate.email)
+    for (const key of [email && `e:${email}`, candidate.phone && `p:${candidate.phone}`, `d:${candidate.dateOfBirth}`]) {
+      if (!key) continue
+      const list = this.byKey.get(key) ?? []
+      list.push(candidate)
+      this.byKey.set(key, list)
+    }
+  }
+
+  match(person: PatientIdentity): DuplicateMatch<T>[] {
+    const email = normaliseEmail(person.email)
+    const near = new Set<T>()
+    for (const key of [email && `e:${email}`, person.phone && `p:${person.phone}`, `d:${person.dateOfBirth}`]) {
+      for (const candidate of (key && this.byKey.get(key)) || []) near.add(candidate)
+    }
+    return findDuplicates(person, [...near])
+  }
+}
