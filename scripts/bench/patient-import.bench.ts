@@ -12,7 +12,7 @@ const HOME_DATABASE = dbSettingsFromEnv().database
 process.env.NUXT_DB_DATABASE = DATABASE
 const { startAppServer } = await import('../lib/app-server')
 
-/** Invented people: names from syllables, birth dates spread over 80 years, 555-01xx phones on three area codes. */
+/** Invented people: names from syllables, birth dates spread over 80 years, a few 555-01xx phones. */
 function sampleCsv(rows: number): string {
   const syllables = ['ka', 'lo', 'mi', 'ren', 'tha', 'vo', 'sel', 'dun', 'pri', 'wen', 'or', 'bel']
   const word = (n: number, parts: number) => Array.from({ length: parts }, (_, index) => syllables[(n >> (index * 3)) % syllables.length]).join('')
@@ -22,8 +22,8 @@ function sampleCsv(rows: number): string {
     const family = word(index * 13 + 5, 3)
     const born = new Date(Date.UTC(1940, 0, 1) + (index * 2_654_435) % (80 * 365 * 86_400_000 / 1000) * 1000)
     const date = `${String(born.getUTCMonth() + 1).padStart(2, '0')}/${String(born.getUTCDate()).padStart(2, '0')}/${born.getUTCFullYear()}`
-    const phone = `(${['209', '307', '520'][index % 3]}) 555-01${String(index % 100).padStart(2, '0')}`
-    lines.push(`${given[0]!.toUpperCase()}${given.slice(1)};${family[0]!.toUpperCase()}${family.slice(1)}${index};${date};p${index}@bench.fernhollow.test;${index % 4 ? '' : phone};${index} Bench Road;Fernhollow;9${String(index % 10_000).padStart(4, '0')}`)
+    const phone = index < 100 ? `(415) 555-01${String(index).padStart(2, '0')}` : '' // 555-01xx gives only 100 numbers per area code
+    lines.push(`${given[0]!.toUpperCase()}${given.slice(1)};${family[0]!.toUpperCase()}${family.slice(1)}${index};${date};p${index}@bench.fernhollow.test;${phone};${index} Bench Road;Fernhollow;9${String(index % 10_000).padStart(4, '0')}`)
   }
   return `${lines.join('\r\n')}\r\n`
 }
