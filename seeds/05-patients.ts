@@ -21,7 +21,7 @@ export async function seedPatients(ctx: SeedContext): Promise<void> {
       last_name: last,
       date_of_birth: faker.date.birthdate({ min: 2, max: 90, mode: 'age', refDate: '2026-12-01T00:00:00Z' }).toISOString().slice(0, 10),
       email: hasEmail ? `${asciiSlug(first)}.${asciiSlug(last)}.${index + 1}@${DEMO_DOMAIN}` : null,
-      phone: `(${faker.helpers.arrayElement(AREA_CODES)}) 555-01${String(faker.number.int({ min: 0, max: 99 })).padStart(2, '0')}`,
+      phone: `+1${faker.helpers.arrayElement(AREA_CODES)}55501${String(faker.number.int({ min: 0, max: 99 })).padStart(2, '0')}`, // E.164, as the app stores phones
       preferred_site_id: faker.helpers.arrayElement(siteIds),
       email_consent: hasEmail && faker.number.float() < 0.9,
     }

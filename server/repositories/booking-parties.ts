@@ -41,7 +41,8 @@ export async function findBookingParties(db: Db, providerId: number, patientId: 
   const { provider_id: id, provider_name: name, provider_kind: kind, provider_capabilities: capabilities, provider_active: active, ...patient } = row
   return {
     provider: id === null ? undefined : { id, name, kind, capabilities: parseJson<string[]>(capabilities, []), active: Boolean(active) },
-    patient: toPatientDto(patient as PatientRow),
+    // A record merged into another (issue 16 §2) is no longer booked: the survivor is.
+    patient: (patient as { merged_into_id?: number | null }).merged_into_id ? undefined : toPatientDto(patient as PatientRow),
   }
 }
 

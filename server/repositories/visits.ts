@@ -208,6 +208,7 @@ export interface BoardRow extends VisitRow {
   patient_first_name: string
   patient_last_name: string
   patient_phone: string | null
+  patient_alert: string | null
   provider_name: string
   site_tooth_notation: 'universal' | 'iso'
 }
@@ -221,7 +222,7 @@ export async function listVisits(db: Db, filter: VisitListFilter): Promise<{ row
     .join('sites', 'sites.id', 'visits.site_id')
     .where('visits.start_utc', '<', new Date(filter.toMs)).where('visits.end_utc', '>', new Date(filter.fromMs))
     .orderBy(['visits.start_utc', 'visits.id'])
-    .select('visits.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'patients.phone as patient_phone', 'users.name as provider_name', 'sites.tooth_notation as site_tooth_notation')
+    .select('visits.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'patients.phone as patient_phone', 'patients.alert_text as patient_alert', 'users.name as provider_name', 'sites.tooth_notation as site_tooth_notation')
   if (filter.siteId !== undefined) query.where('visits.site_id', filter.siteId)
   if (filter.providerId !== undefined) query.where('visits.provider_id', filter.providerId)
   if (filter.patientId !== undefined) query.where('visits.patient_id', filter.patientId)

@@ -82,7 +82,7 @@ async function assertPeopleAndRoom(db: Db, request: BookingRequest) {
   if (!provider || !provider.active) throw badRequest('providerId', 'is not an active provider')
   const unskilled = request.templates.find((template) => !provider.capabilities.includes(template.category))
   if (unskilled) throw badRequest('providerId', `${provider.name} does not do ${unskilled.category} procedures (${unskilled.name})`)
-  if (!patient) throw badRequest('patientId', 'no such patient')
+  if (!patient) throw badRequest('patientId', 'no such patient (or the record was merged into another)')
   return { room, provider, patient }
 }
 

@@ -2,6 +2,7 @@
 import type { SessionUser } from '#shared/types/auth'
 import type { BoardVisitDto } from '#shared/types/visits'
 import type { PlanItemSummary } from '#shared/types/chair-time'
+import { DATE_BOUNDS } from '#shared/domain/input-bounds'
 import { useDb } from '../utils/db'
 import { requireSiteAccess } from '../utils/auth'
 import { groupSegments, listVisits, toVisitDto, type BoardRow, type VisitListFilter } from '../repositories/visits'
@@ -20,12 +21,13 @@ function procedureLine(item: PlanItemSummary, notation: 'universal' | 'iso'): st
   return `${item.templateName}${tooth}${surfaces}`
 }
 
-function toBoardVisit(row: BoardRow, segments: Parameters<typeof toVisitDto>[1]): BoardVisitDto {
+export function toBoardVisit(row: BoardRow, segments: Parameters<typeof toVisitDto>[1]): BoardVisitDto {
   const visit = toVisitDto(row, segments)
   return {
     ...visit,
     patientName: `${row.patient_first_name} ${row.patient_last_name}`,
     patientPhone: row.patient_phone,
+    patientAlert: row.patient_alert,
     providerName: row.provider_name,
     providerInitials: initials(row.provider_name),
     procedures: (visit.plan.items ?? []).map((item) => procedureLine(item, row.site_tooth_notation)),
@@ -40,4 +42,10 @@ export async function visitsFor(request: VisitListRequest, user: SessionUser): P
   })
   const bySegment = groupSegments(segments)
   return rows.map((row) => toBoardVisit(row, bySegment.get(row.id) ?? []))
+}
+
+/** A patient's visits from the earliest date the app keeps to the furthest it books, cancelled ones included. */
+export function patientHistory(patientId: number, user: SessionUser): Promise<BoardVisitDto[]> {
+  const { earliest, yearsAhead } = DATE_BOUNDS
+  return visitsFor({ patientId, fromMs: Date.parse(`${earliest}T00:00:00Z`), toMs: Date.now() + (yearsAhead + 1) * 366 * 86_400_000, includeCancelled: true }, user)
 }

@@ -5,6 +5,7 @@ import { VISIT_STATES } from '../domain/visit-states'
 import { inclusiveDays, MAX_ID, MAX_WINDOW_DAYS } from '../domain/input-bounds'
 import { dateInBounds, IdSchema, instantInBounds, plainText } from './common'
 import { calendarDate } from './local-time'
+import { PatientFieldsSchema } from './patients'
 
 const id = (what: string) => z.number({ error: `must be a ${what} id` }).int(`must be a ${what} id`).positive(`must be a ${what} id`).max(MAX_ID, `must be a ${what} id`)
 const rowVersion = z.number({ error: 'must be the version you last saw' }).int('must be a whole number').positive('must be positive').max(MAX_ID, `must be at most ${MAX_ID}`)
@@ -62,16 +63,10 @@ export const PatientSearchSchema = z.object({
   dateOrder: z.enum(DATE_ORDERS, { error: `must be one of ${DATE_ORDERS.join(', ')}` }).default('month-day-year'),
 })
 
-export const NewPatientSchema = z.object({
-  firstName: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long')),
-  lastName: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(80, 'is too long')),
-  dateOfBirth: calendarDate('must be a date such as 1980-04-30')
-    .refine((date) => date >= '1900-01-01', 'must be 1900-01-01 or later'),
-  email: plainText(z.string({ error: 'must be text' }).trim().toLowerCase().max(254, 'is too long').email('is not an e-mail address')).nullable().optional(),
-  phone: z.string().trim().regex(/^[0-9+()\-. ]{7,25}$/, 'is not a phone number').nullable().optional(),
-  preferredSiteId: id('site').nullable().optional(),
-  emailConsent: z.boolean().default(false),
-}).refine((patient) => !patient.emailConsent || Boolean(patient.email), { message: 'needs an e-mail address', path: ['emailConsent'] })
+/** Registering: every field of the record may be given; consent without a source is taken as said at the desk. */
+export const NewPatientSchema = PatientFieldsSchema
+  .refine((patient) => !patient.emailConsent || Boolean(patient.email || patient.guardianEmail), { message: 'needs an e-mail address', path: ['emailConsent'] })
+  .refine((patient) => !patient.smsConsent || Boolean(patient.phone || patient.guardianPhone), { message: 'needs a mobile phone', path: ['smsConsent'] })
 export type NewPatientInput = z.infer<typeof NewPatientSchema>
 
 const localDate = calendarDate('must be a date such as 2027-01-11').superRefine(dateInBounds)

@@ -82,6 +82,8 @@ export interface BoardVisitDto extends VisitDto {
   patientName: string
   /** For the printed day sheet and calls from the board; null when none is on record. */
   patientPhone: string | null
+  /** The patient record's alert for the front desk and the chair (a few words), or null. */
+  patientAlert: string | null
   providerName: string
   providerInitials: string
   /** e.g. "Posterior composite 19 MO" per item, in the site's tooth notation. */

@@ -20,6 +20,8 @@ import { closeTestDb, createTestUser, testDb } from '../helpers/db'
 import { daysFromToday } from '../helpers/dates'
 import { SignInSchema } from '../../shared/schemas/auth'
 import { BookVisitSchema, NewPatientSchema } from '../../shared/schemas/visits'
+import { PatientMergeSchema } from '../../shared/schemas/patients'
+import { ImportUploadSchema } from '../../shared/schemas/patient-imports'
 import { OperatorySchema, SiteSchema } from '../../shared/schemas/sites'
 import { ProviderSchema, StaffSchema } from '../../shared/schemas/people'
 import { BlockSchema, ShiftExceptionSchema, ShiftSchema } from '../../shared/schemas/rota'
@@ -63,6 +65,8 @@ const CREATE_GUARDS: Record<string, ZodType> = {
   'POST /api/blocks': BlockSchema,
   'POST /api/operatories': OperatorySchema,
   'POST /api/patients': NewPatientSchema,
+  'POST /api/patient-imports': ImportUploadSchema,
+  'POST /api/patient-merges': PatientMergeSchema,
   'POST /api/providers': ProviderSchema,
   'POST /api/shift-exceptions': ShiftExceptionSchema,
   'POST /api/shifts': ShiftSchema,
@@ -116,7 +120,7 @@ const FIELD_NAMES = [
   'rowVersion', 'state', 'role', 'kind', 'category', 'capability', 'capabilities', 'colour', 'limit', 'sortOrder', 'chairMinutes',
   'bookingUnitMinutes', 'minimumNoticeMinutes', 'reminderOffsetsHours', 'alarmMinutes', 'quietBelow', 'tightFrom',
   'active', 'allSites', 'emailConsent', 'fewestGaps', 'includeProcedureNames', 'partOfDay', 'patientCancel', 'toothNotation',
-  'templateCode', 'tooth', 'teeth', 'surfaces', 'notation', 'token', '__proto__', 'constructor', 'prototype', 'toString', 'hasOwnProperty',
+  'templateCode', 'survivorId', 'mergedId', 'take', 'mapping', 'dateOrder', 'choices', 'csv', 'fileName', 'alertText', 'smsConsent', 'exceptId', 'page', 'tooth', 'teeth', 'surfaces', 'notation', 'token', '__proto__', 'constructor', 'prototype', 'toString', 'hasOwnProperty',
 ] as const
 const fieldName = fc.oneof({ weight: 9, arbitrary: fc.constantFrom(...FIELD_NAMES) }, { weight: 1, arbitrary: fc.string({ maxLength: 12 }) })
 

@@ -1,18 +1,16 @@
-// POST /api/patients: register a patient (front desk, managers, admins).
-import { DateTime } from 'luxon'
+// POST /api/patients: register a patient (front desk, managers, admins). The screens ask
+// GET /api/patients/duplicates first and warn; this route registers what it is sent.
 import { NewPatientSchema } from '#shared/schemas/visits'
-import type { PatientDto } from '#shared/types/visits'
+import type { PatientRecordDto } from '#shared/types/patients'
 import { BOOKING_ROLES, requireRole } from '../../utils/auth'
-import { badRequest, validateWith } from '../../utils/errors'
+import { validateWith } from '../../utils/errors'
+import { clientIp } from '../../utils/client-ip'
 import { registerPatient } from '../../services/patient-service'
 
-export default defineEventHandler(async (event): Promise<PatientDto> => {
+export default defineEventHandler(async (event): Promise<PatientRecordDto> => {
   const user = requireRole(event, BOOKING_ROLES)
   const input = await readValidatedBody(event, validateWith(NewPatientSchema))
-  const born = DateTime.fromISO(input.dateOfBirth, { zone: 'UTC' })
-  if (!born.isValid) throw badRequest('dateOfBirth', 'is not a real date')
-  if (born > DateTime.utc()) throw badRequest('dateOfBirth', 'cannot be in the future')
-  const patient = await registerPatient(user, input)
+  const patient = await registerPatient(user, input, clientIp(event))
   setResponseStatus(event, 201)
   return patient
 })

@@ -1,0 +1,55 @@
+// Spreadsheets out (issue 16 §3): patients (all, or those a search finds) and a site's visits over
+// local dates, as CSV with a header row. Cells are escaped against formula injection (shared/utils/csv.ts).
+// Dates are ISO (yyyy-MM-dd) and times the site's 24-hour clock until the site date format setting lands.
+import type { SessionUser } from '#shared/types/auth'
+import type { VisitsExportQuery } from '#shared/schemas/exports'
+import { toCsv } from '#shared/utils/csv'
+import { formatPhone } from '#shared/domain/phone'
+import { localDateAt, localDayRange, localTime } from '#shared/utils/local-date'
+import { requireSiteAccess } from '../utils/auth'
+import { useDb } from '../utils/db'
+import { notFound } from '../utils/errors'
+import { allPatientRecords } from '../repositories/patients'
+import { listVisits } from '../repositories/visits'
+import { listOperatories } from '../repositories/operatories'
+import { findSite } from '../repositories/sites'
+import { writeAudit } from '../repositories/audit-log'
+import { toBoardVisit } from './visit-list-service'
+
+const PATIENT_HEADER = ['Patient id', 'Given name', 'Family name', 'Preferred name', 'Birth date', 'E-mail', 'Mobile phone', 'Street', 'Town or city',
+  'State or region', 'Postal code', 'E-mail consent', 'E-mail consent since', 'Text consent', 'Text consent since', 'Guardian', 'Guardian e-mail',
+  'Guardian phone', 'Front desk note', 'Alert']
+
+export async function exportPatients(user: SessionUser, search: string | undefined, ip: string): Promise<string> {
+  const db = useDb()
+  const records = await allPatientRecords(db, search)
+  await writeAudit(db, { userId: user.id, action: 'patients_exported', entity: 'patient', entityId: null, after: { search: search ?? null, rows: records.length }, ip })
+  const yesNo = (value: boolean) => (value ? 'yes' : 'no')
+  return toCsv(PATIENT_HEADER, records.map((patient) => [
+    patient.id, patient.firstName, patient.lastName, patient.preferredName, patient.dateOfBirth, patient.email, formatPhone(patient.phone),
+    patient.addressStreet, patient.addressCity, patient.addressRegion, patient.addressPostalCode, yesNo(patient.emailConsent),
+    patient.emailConsentAt?.slice(0, 10), yesNo(patient.smsConsent), patient.smsConsentAt?.slice(0, 10), patient.guardianName,
+    patient.guardianEmail, formatPhone(patient.guardianPhone), patient.frontDeskNote, patient.alertText,
+  ]))
+}
+
+const VISIT_HEADER = ['Visit id', 'Date', 'Start', 'End', 'Chair', 'Provider', 'Patient id', 'Patient', 'Procedures', 'State', 'Cancel reason']
+
+export async function exportVisits(user: SessionUser, query: VisitsExportQuery, ip: string): Promise<string> {
+  requireSiteAccess(user, query.siteId)
+  const db = useDb()
+  const site = await findSite(db, query.siteId)
+  if (!site) throw notFound('No such site.')
+  const zone = site.timeZone
+  const fromMs = Date.parse(localDayRange(query.from, zone).fromUtc)
+  const toMs = Date.parse(localDayRange(query.to, zone).toUtc)
+  const { rows, segments } = await listVisits(db, { siteIds: [query.siteId], siteId: query.siteId, fromMs, toMs, includeCancelled: true })
+  const chairs = new Map((await listOperatories(db, query.siteId)).map((chair) => [chair.id, chair.name]))
+  await writeAudit(db, { userId: user.id, action: 'visits_exported', entity: 'site', entityId: query.siteId, after: { from: query.from, to: query.to, rows: rows.length }, ip })
+  return toCsv(VISIT_HEADER, rows.map((row) => {
+    const visit = toBoardVisit(row, segments.filter((segment) => segment.visit_id === row.id))
+    const startMs = Date.parse(visit.startUtc)
+    return [visit.id, localDateAt(startMs, zone), localTime(visit.startUtc, zone), localTime(visit.endUtc, zone), chairs.get(visit.operatoryId) ?? '',
+      visit.providerName, visit.patientId, visit.patientName, visit.procedures.join('; '), visit.state, visit.cancelReason]
+  }))
+}
