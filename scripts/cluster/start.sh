@@ -4,16 +4,16 @@
 # through the write listener. Installs what is missing. Safe to run again.
 # CLUSTER_FRESH=1 throws the cluster's data away first.
 set -euo pipefail
+if [ "${CLUSTER_FRESH:-}" = "1" ]; then
+  # Before env.sh: it reads (or makes) the cluster's secrets in the directory removed here.
+  bash "$(dirname "$0")/stop.sh"
+  fresh_dir="${CLUSTER_DIR:-$(cd "$(dirname "$0")/../.." && pwd)/.data/cluster}"
+  echo "removing $fresh_dir (CLUSTER_FRESH=1)"
+  rm -rf "$fresh_dir"
+fi
 source "$(dirname "$0")/env.sh"
 source "$(dirname "$0")/lib.sh"
 cd "$ROOT"
-
-if [ "${CLUSTER_FRESH:-}" = "1" ]; then
-  bash scripts/cluster/stop.sh
-  log "removing $CLUSTER_DIR (CLUSTER_FRESH=1)"
-  rm -rf "$CLUSTER_DIR"
-  mkdir -p "$CLUSTER_DIR"
-fi
 
 bash scripts/ensure-node-modules.sh
 ensure_cluster_packages
