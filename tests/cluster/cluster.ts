@@ -70,6 +70,8 @@ export interface Answer {
   status: number
   body: { id?: number } & Record<string, unknown>
   attempts: number
+  /** When the answering try began, and when its answer came (epoch ms). */
+  startedAt: number
   at: number
 }
 
@@ -80,13 +82,14 @@ export interface Answer {
 export async function bookWithRetry(client: ApiClient, body: unknown, key: string, deadlineMs = 120_000): Promise<Answer> {
   const giveUp = Date.now() + deadlineMs
   for (let attempts = 1; ; attempts += 1) {
+    const startedAt = Date.now()
     try {
       const response = await client.post('/api/visits', body, { headers: { 'idempotency-key': key } })
-      if (response.status < 500) return { status: response.status, body: response.body, attempts, at: Date.now() }
+      if (response.status < 500) return { status: response.status, body: response.body, attempts, startedAt, at: Date.now() }
     } catch {
       // connection reset or refused: try again
     }
-    if (Date.now() > giveUp) return { status: 0, body: {}, attempts, at: Date.now() }
+    if (Date.now() > giveUp) return { status: 0, body: {}, attempts, startedAt, at: Date.now() }
     await new Promise((wait) => setTimeout(wait, Math.min(1000, 50 * attempts)))
   }
 }
@@ -99,4 +102,21 @@ export async function waitFor(check: () => Promise<boolean>, what: string, deadl
     await new Promise((wait) => setTimeout(wait, 250))
   }
   return Date.now() - started
+}
+
+/** Runs `count` jobs with `workers` at a time; `onDone` sees each answer as it arrives. */
+export async function burst<T>(count: number, workers: number, job: (index: number) => Promise<T>, onDone: (answer: T, done: number) => void = () => {}): Promise<T[]> {
+  const answers: T[] = new Array(count)
+  let next = 0
+  let done = 0
+  await Promise.all(Array.from({ length: workers }, async () => {
+    while (next < count) {
+      const index = next
+      next += 1
+      answers[index] = await job(index)
+      done += 1
+      onDone(answers[index]!, done)
+    }
+  }))
+  return answers
 }
