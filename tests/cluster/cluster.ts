@@ -1,6 +1,8 @@
 // The running local cluster (scripts/cluster/): its HTTP address through HAProxy, its nodes, and
 // the parts tests stop and start (scripts/cluster/node.sh).
 import { execFile } from 'node:child_process'
+import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
 import { promisify } from 'node:util'
 import { createConnection } from 'mysql2/promise'
 import { ApiClient } from '../helpers/api-client'
@@ -119,4 +121,10 @@ export async function burst<T>(count: number, workers: number, job: (index: numb
     }
   }))
   return answers
+}
+
+/** Pauses (SIGSTOP) or resumes (SIGCONT) the cluster's mail catcher (started by setsid, so it leads its own group), so sends hang mid-SMTP. */
+export function signalMailCatcher(signal: 'SIGSTOP' | 'SIGCONT'): void {
+  const pid = Number(readFileSync(join(env.CLUSTER_DIR ?? '.data/cluster', 'mail-catcher.pid'), 'utf8'))
+  process.kill(-pid, signal) // its process group: tsx runs the catcher in a child process
 }
