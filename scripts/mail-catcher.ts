@@ -1,7 +1,11 @@
 // The local stand-in for a hosted e-mail service: accepts SMTP on loopback and writes each
 // message it receives, untouched, as an .eml file (written to a temp name, then renamed, so a
 // reader never sees half a message).
-import { mkdirSync, renameSync, writeFileSync } from 'node:fs'
+// Like a sending service with idempotent submission, it keeps one copy per Message-ID: a message
+// submitted again with an ID it already holds (the outbox gives each row one ID, so a dispatcher
+// that died after the server took a message but before recording it sends the same ID again) is
+// accepted and not kept twice; each such repeat is noted in .duplicates, one Message-ID a line.
+import { appendFileSync, existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
 import { SMTPServer } from 'smtp-server'
@@ -11,6 +15,15 @@ const port = Number(process.env.SMTP_PORT ?? 1025)
 const mailDir = process.env.MAIL_DIR ?? join(process.cwd(), '.data', 'mail')
 mkdirSync(mailDir, { recursive: true })
 
+const idsFile = join(mailDir, '.message-ids')
+const kept = new Set(existsSync(idsFile) ? readFileSync(idsFile, 'utf8').split('\n').filter(Boolean) : [])
+
+function messageIdOf(raw: Buffer): string | null {
+  const end = raw.indexOf('\r\n\r\n')
+  const head = raw.subarray(0, end === -1 ? raw.length : end).toString('utf8')
+  return /^message-id:[ \t]*(<[^>\r\n]+>)/im.exec(head)?.[1] ?? null
+}
+
 const server = new SMTPServer({
   authOptional: true,
   disabledCommands: ['STARTTLS'],
@@ -19,10 +32,20 @@ const server = new SMTPServer({
     const chunks: Buffer[] = []
     stream.on('data', (chunk: Buffer) => chunks.push(chunk))
     stream.on('end', () => {
+      const raw = Buffer.concat(chunks)
+      const messageId = messageIdOf(raw)
+      if (messageId && kept.has(messageId)) {
+        appendFileSync(join(mailDir, '.duplicates'), `${messageId}\n`)
+        return callback()
+      }
       const name = `${new Date().toISOString().replace(/[:.]/g, '-')}-${randomUUID()}.eml`
       const temp = join(mailDir, `.${name}.part`)
-      writeFileSync(temp, Buffer.concat(chunks))
+      writeFileSync(temp, raw)
       renameSync(temp, join(mailDir, name))
+      if (messageId) {
+        kept.add(messageId)
+        appendFileSync(idsFile, `${messageId}\n`)
+      }
       callback()
     })
   },

@@ -1,5 +1,6 @@
 // Patient e-mails waiting to be sent. Rows are written inside the booking transaction and claimed by
 // dispatchers with SELECT … FOR UPDATE SKIP LOCKED, so several processes never take the same row.
+import { randomUUID } from 'node:crypto'
 import type { Db } from '../utils/db'
 import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
 import { parseJson } from './json'
@@ -18,6 +19,8 @@ export interface OutboxRow {
   last_error: string | null
   lease_until: Date | null
   message_id: string | null
+  /** The send intent: given at the first claim, kept for every later try (the Message-ID's unique part). */
+  send_key: string | null
   sent_at: Date | null
   rendered: string | null
 }
@@ -98,8 +101,15 @@ export async function claimDueMessages(trx: Db, options: ClaimOptions): Promise<
   const rows = await query.select('*')
   if (!rows.length) return []
   const leaseUntil = new Date(now.getTime() + options.leaseSeconds * 1000)
-  await trx('outbox').whereIn('id', rows.map((row) => row.id)).update({ state: 'sending', lease_until: leaseUntil, attempts: trx.raw('attempts + 1') })
-  return rows.map((row) => ({ ...row, state: 'sending' as const, lease_until: leaseUntil, attempts: row.attempts + 1 }))
+  // A row claimed for the first time gets its send key in the same statement; a row taken over
+  // after a lease ran out, or tried again, keeps the one it has.
+  const keyed = rows.map((row) => ({ ...row, send_key: row.send_key ?? randomUUID().replace(/-/g, '') }))
+  const fresh = keyed.filter((row, index) => rows[index]!.send_key === null)
+  await trx('outbox').whereIn('id', rows.map((row) => row.id)).update({
+    state: 'sending', lease_until: leaseUntil, attempts: trx.raw('attempts + 1'),
+    ...(fresh.length ? { send_key: trx.raw(`COALESCE(send_key, CASE id ${fresh.map(() => 'WHEN ? THEN ?').join(' ')} END)`, fresh.flatMap((row) => [row.id, row.send_key])) } : {}),
+  })
+  return keyed.map((row) => ({ ...row, state: 'sending' as const, lease_until: leaseUntil, attempts: row.attempts + 1 }))
 }
 
 function ours(db: Db, row: OutboxRow) {

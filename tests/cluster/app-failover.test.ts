@@ -2,13 +2,18 @@
 // invitation e-mail: HAProxy sends everything to the other process, which also sends the rows the
 // dead one had claimed once their lease runs out. Duplicate e-mails at the catcher are counted.
 // The kill comes while the mail catcher is paused, so both dispatchers hold claimed rows mid-send.
+// Then the one window left: a dispatcher killed after the SMTP server took a message and before the
+// 'sent' record. The copy the survivor sends after the lease carries the same Message-ID (the row's
+// send key), and the catcher, keeping one message per ID, delivers it once.
+import { existsSync, readFileSync } from 'node:fs'
+import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ApiClient } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
 import { utcAt } from '../helpers/booking-fixtures'
 import { createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
-import { mailsContaining, outboxIdOf } from '../helpers/mail'
-import { MONDAY, weekdayAhead } from '../helpers/dates'
+import { MAIL_DIR, mailsContaining, outboxIdOf } from '../helpers/mail'
+import { MONDAY, TUESDAY, weekdayAhead } from '../helpers/dates'
 import { bookWithRetry, burst, clientThroughProxy, clusterPart, signalMailCatcher, statuses, waitFor } from './cluster'
 
 const BOOKINGS = 60
@@ -86,5 +91,49 @@ describe('an app process killed mid-burst', () => {
     console.log(`[cluster] e-mail duplicates at the catcher: ${duplicates} of ${[...arrivals.values()].reduce((sum, count) => sum + count, 0)} messages (one Message-ID per outbox row, so a receiver that drops repeated Message-IDs shows each once)`)
     expect(rows.every((row) => (arrivals.get(Number(row.id)) ?? 0) >= 1)).toBe(true)
     expect(takenOver).toBeGreaterThan(0) // the dead process's claims, sent by the survivor after the lease
+    await clusterPart('app-start', 1)
+  })
+
+  it('killed after the SMTP server took a message but before recording it: the copy is submitted again, delivered once', async () => {
+    const second = await createMailAnnex({ patients: 12, settings: { reminderOffsetsHours: [] } })
+    const client = await clientThroughProxy('admin@fernhollow.test')
+    const appOnePid = readFileSync(join(process.env.CLUSTER_DIR ?? '.data/cluster', 'app1.pid'), 'utf8').trim()
+    const sending = () => testDb()('outbox').where({ site_id: second.siteId, state: 'sending' })
+    signalMailCatcher('SIGSTOP')
+    let hold: Awaited<ReturnType<ReturnType<typeof testDb>['transaction']>> | undefined
+    try {
+      const answers = await Promise.all(Array.from({ length: 12 }, (_, index) => bookWithRetry(client, {
+        ...bookingBody(index), siteId: second.siteId, operatoryId: second.operatoryIds[index % 2], providerId: second.providerIds[0], patientId: second.patientIds[index],
+        startUtc: utcAt(`${weekdayAhead(5, TUESDAY + Math.floor(index / 10), second.timeZone)}T${String(1 + 2 * (index % 10)).padStart(2, '0')}:00`, second.timeZone),
+      }, `dup-window-${second.siteId}-${index}`)))
+      expect(statuses(answers)).toEqual({ 201: 12 })
+      await waitFor(async () => (await sending()).length > BATCH, 'both dispatchers holding claims', 30_000)
+      // Hold the claimed rows, so each dispatcher's 'sent' record waits after its first message went out.
+      hold = await testDb().transaction()
+      await hold('outbox').where({ site_id: second.siteId, state: 'sending' }).forUpdate().select('id')
+    } finally {
+      signalMailCatcher('SIGCONT')
+    }
+    const fromAppOne = async () => {
+      const found = await Promise.all(second.emails.map((email) => mailsContaining(email)))
+      return found.flat().filter((mail) => String(mail.parsed.headers.get('x-cuspline-dispatcher')) === appOnePid).length
+    }
+    await waitFor(async () => (await fromAppOne()) > 0, 'a message from app process 1 at the catcher', 4_000).catch(() => 0)
+    const sentByAppOne = await fromAppOne()
+    await clusterPart('app-kill', 1)
+    await hold!.rollback()
+
+    const rowsOf = () => testDb()('outbox').where({ site_id: second.siteId, kind: 'invitation' })
+    await waitFor(async () => (await rowsOf()).every((row) => row.state === 'sent'), 'every invitation sent')
+    const rows = await rowsOf()
+    const kept = new Map<number, number>()
+    for (const email of second.emails) {
+      for (const mail of await mailsContaining(email)) kept.set(outboxIdOf(mail)!, (kept.get(outboxIdOf(mail)!) ?? 0) + 1)
+    }
+    const repeats = existsSync(join(MAIL_DIR, '.duplicates')) ? readFileSync(join(MAIL_DIR, '.duplicates'), 'utf8').split('\n') : []
+    const submittedAgain = repeats.filter((line) => rows.some((row) => line.startsWith(`<outbox-${row.id}.`))).length
+    console.log(`[cluster] crash between SMTP acceptance and the record: app process 1 had ${sentByAppOne} message(s) accepted when killed; ${submittedAgain} submitted again after the lease with the same Message-ID; ${[...kept.values()].reduce((sum, count) => sum + count - 1, 0)} kept twice at the catcher`)
+    expect(rows.map((row) => kept.get(Number(row.id)) ?? 0)).toEqual(rows.map(() => 1))
+    if (sentByAppOne > 0) expect(submittedAgain).toBeGreaterThan(0)
   })
 })

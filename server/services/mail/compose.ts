@@ -90,16 +90,18 @@ export interface ComposedMessage {
 }
 
 /**
- * One Message-ID per outbox row (RFC 5322 §3.6.4): should a dispatcher die after the SMTP server took
- * a message but before it was marked sent, the copy sent again carries the same ID, and mail systems
- * that drop repeated Message-IDs show the patient one message. A resend is a new row, a new ID.
+ * One Message-ID per outbox row (RFC 5322 §3.6.4), unique beyond this database: the row's id and its
+ * send key (given at its first claim, kept for every later try). Should a dispatcher die after the
+ * SMTP server took a message but before it was marked sent, the copy sent again carries the same ID,
+ * and servers that keep one message per ID (the local mail catcher) or mail systems that drop repeated
+ * Message-IDs show the patient one message. A resend is a new row, a new ID.
  */
-function messageIdOf(outboxId: number, sender: string): string {
+function messageIdOf(outboxId: number, sendKey: string | null, sender: string): string {
   const domain = sender.split('@')[1]?.replace(/[^A-Za-z0-9.-]/g, '') || 'cuspline.invalid'
-  return `<outbox-${outboxId}@${domain}>`
+  return `<outbox-${outboxId}${sendKey ? `.${sendKey.replace(/[^A-Za-z0-9]/g, '')}` : ''}@${domain}>`
 }
 
-export function composeMessage(kind: OutboxKind, context: MailContext, links: PatientLinks, from: string, outboxId?: number): ComposedMessage {
+export function composeMessage(kind: OutboxKind, context: MailContext, links: PatientLinks, from: string, outboxId?: number, sendKey: string | null = null): ComposedMessage {
   const facts = visitFacts(context)
   const wording = wordingFor(kind, context, facts)
   const method = methodFor(context)
@@ -119,7 +121,7 @@ export function composeMessage(kind: OutboxKind, context: MailContext, links: Pa
       icalEvent: { method, filename: method === 'CANCEL' ? 'cancelled-visit.ics' : 'visit.ics', content: ics },
       // Which outbox row and which dispatcher process sent it, for tracing a message back.
       headers: outboxId === undefined ? {} : { 'X-Cuspline-Outbox': String(outboxId), 'X-Cuspline-Dispatcher': String(process.pid) },
-      ...(outboxId === undefined ? {} : { messageId: messageIdOf(outboxId, from || context.site.email) }),
+      ...(outboxId === undefined ? {} : { messageId: messageIdOf(outboxId, sendKey, from || context.site.email) }),
     },
   }
 }

@@ -53,7 +53,7 @@ export function reasonToSkip(row: OutboxRow, context: MailContext | undefined, n
 
 export function renderFor(row: OutboxRow, context: MailContext, settings: Pick<DispatchSettings, 'from' | 'publicUrl' | 'linkSecret'>) {
   const links = patientLinks(settings.publicUrl, visitToken(settings.linkSecret, context), context.visit.id)
-  return composeMessage(row.kind, context, links, settings.from, row.id)
+  return composeMessage(row.kind, context, links, settings.from, row.id, row.send_key)
 }
 
 function describe(error: unknown): string {
@@ -93,8 +93,10 @@ async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, setting
     await retryOrGiveUp(db, row, error, settings, round)
     return
   }
-  // Sent: never scheduled again from here. If this update fails, the row stays 'sending' and is
-  // claimed again only after its lease (the one window where a message can go out twice).
+  // Sent: never scheduled again from here. If this update fails (or the process dies first), the row
+  // stays 'sending' and is claimed again only after its lease: the one window where a message goes
+  // out twice. The copy carries the same Message-ID (its send key), so a receiver that keeps one
+  // message per ID delivers it once.
   if (await markSent(db, row, sent.messageId, sent.rendered)) round.sent += 1
   else useLogger('outbox').warn(`row ${row.id} was sent but its lease had passed to another process`)
 }
