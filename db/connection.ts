@@ -12,6 +12,32 @@ export interface DbSettings {
   lockWaitSeconds?: number
 }
 
+interface RawConnection {
+  query: (sql: string, cb: (err: Error | null, rows?: unknown) => void) => void
+}
+
+/**
+ * On a Galera node (wsrep_on): a new connection's first read waits until the node has applied every
+ * transaction the cluster committed before it (wsrep_sync_wait, a causality check), then reads go
+ * back to the node's own pace. The app opens new connections after HAProxy moves writes to another
+ * node, so what the old writer committed is there before the new writer's first booking reads.
+ * Later reads need no wait: only the one writer writes. On a single MariaDB this is one SHOW.
+ */
+function catchUpOnGalera(connection: RawConnection, done: (err: Error | null) => void): void {
+  connection.query("SHOW VARIABLES LIKE 'wsrep_on'", (err, rows) => {
+    if (err) return done(err)
+    const on = (rows as Array<{ Value?: string }> | undefined)?.[0]?.Value === 'ON'
+    if (!on) return done(null)
+    connection.query('SET SESSION wsrep_sync_wait = 1', (setErr) => {
+      if (setErr) return done(setErr)
+      connection.query('SELECT 1', (readErr) => {
+        if (readErr) return done(readErr)
+        connection.query('SET SESSION wsrep_sync_wait = 0', (resetErr) => done(resetErr))
+      })
+    })
+  })
+}
+
 export function createDb(settings: DbSettings): Knex {
   return knex({
     client: 'mysql2',
@@ -36,9 +62,12 @@ export function createDb(settings: DbSettings): Knex {
       // NOW() and friends must also be UTC, whatever the server's own zone is. Transactions run at
       // READ COMMITTED (bookings rely on it: no gap locks, each statement sees the latest commits);
       // set once per connection, it saves each transaction the extra SET TRANSACTION round trip.
-      afterCreate(connection: { query: (sql: string, cb: (err: Error | null) => void) => void }, done: (err: Error | null, conn: unknown) => void) {
+      afterCreate(connection: RawConnection, done: (err: Error | null, conn: unknown) => void) {
         const lockWait = settings.lockWaitSeconds ? `, SESSION innodb_lock_wait_timeout = ${Math.max(1, Math.round(settings.lockWaitSeconds))}` : ''
-        connection.query(`SET time_zone = '+00:00', SESSION tx_isolation = 'READ-COMMITTED'${lockWait}`, (err) => done(err, connection))
+        connection.query(`SET time_zone = '+00:00', SESSION tx_isolation = 'READ-COMMITTED'${lockWait}`, (err) => {
+          if (err) return done(err, connection)
+          catchUpOnGalera(connection, (caughtUpErr) => done(caughtUpErr, connection))
+        })
       },
     },
   })

@@ -4,7 +4,11 @@
 // `replies+{site}@…`) is also posted to the app's inbound endpoint (INBOUND_MAIL_URL), raw, signed
 // with NUXT_MAIL_INBOUND_SECRET, as a hosted inbound-mail service posts to its webhook
 // (server/utils/inbound-signature.ts). The SMTP answer waits for that post.
-import { mkdirSync, renameSync, writeFileSync } from 'node:fs'
+// Like a sending service with idempotent submission, it keeps one copy per Message-ID: a message
+// submitted again with an ID it already holds (the outbox gives each row one ID, so a dispatcher
+// that died after the server took a message but before recording it sends the same ID again) is
+// accepted and not kept twice; each such repeat is noted in .duplicates, one Message-ID a line.
+import { appendFileSync, existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
 import { SMTPServer } from 'smtp-server'
@@ -40,6 +44,15 @@ async function forward(raw: Buffer, recipient: string): Promise<void> {
   }
 }
 
+const idsFile = join(mailDir, '.message-ids')
+const kept = new Set(existsSync(idsFile) ? readFileSync(idsFile, 'utf8').split('\n').filter(Boolean) : [])
+
+function messageIdOf(raw: Buffer): string | null {
+  const end = raw.indexOf('\r\n\r\n')
+  const head = raw.subarray(0, end === -1 ? raw.length : end).toString('utf8')
+  return /^message-id:[ \t]*(<[^>\r\n]+>)/im.exec(head)?.[1] ?? null
+}
+
 const server = new SMTPServer({
   authOptional: true,
   disabledCommands: ['STARTTLS'],
@@ -49,10 +62,19 @@ const server = new SMTPServer({
     stream.on('data', (chunk: Buffer) => chunks.push(chunk))
     stream.on('end', () => {
       const raw = Buffer.concat(chunks)
+      const messageId = messageIdOf(raw)
+      if (messageId && kept.has(messageId)) {
+        appendFileSync(join(mailDir, '.duplicates'), `${messageId}\n`)
+        return callback()
+      }
       const name = `${new Date().toISOString().replace(/[:.]/g, '-')}-${randomUUID()}.eml`
       const temp = join(mailDir, `.${name}.part`)
       writeFileSync(temp, raw)
       renameSync(temp, join(mailDir, name))
+      if (messageId) {
+        kept.add(messageId)
+        appendFileSync(idsFile, `${messageId}\n`)
+      }
       const replies = session.envelope.rcptTo.map((to) => to.address).filter((address) => siteOfReplyAddress(replyTemplate, address) !== null)
       Promise.all(replies.map((address) => forward(raw, address))).then(() => callback(), () => callback())
     })

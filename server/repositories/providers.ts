@@ -62,10 +62,15 @@ export async function findProviderIdOfUser(db: Db, userId: number): Promise<numb
   return row ? (row.id as number) : null
 }
 
-/** Locks the provider's row: shift saves for one provider run one at a time (clash check). */
+/**
+ * Locks the provider's row by writing it: shift saves for one provider run one at a time (clash
+ * check). Written, not only read FOR UPDATE, because Galera certifies written rows only: two saves
+ * that both write the row conflict on any node (1213, retried), even while a new writer still applies
+ * the old one's last transactions.
+ */
 export async function lockProvider(db: Db, id: number): Promise<boolean> {
-  const row = await db('providers').where({ id }).forUpdate().first('id')
-  return Boolean(row)
+  const changed = await db('providers').where({ id }).increment('booking_seq', 1)
+  return changed === 1
 }
 
 export async function insertProvider(db: Db, provider: ProviderBody): Promise<number> {

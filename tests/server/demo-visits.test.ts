@@ -10,6 +10,7 @@ import { createDb, dbSettingsFromEnv } from '../../db/connection'
 import { migratorConfig } from '../../db/migration-source'
 import { seedDemo } from '../../seeds/index'
 import { closeTestDb, testDb } from '../helpers/db'
+import { overlapCounts } from '../helpers/overlaps'
 
 const SCRATCH = 'cuspline_demo_check'
 const run = promisify(execFile)
@@ -61,13 +62,9 @@ describe('demo visits', () => {
   })
 
   it('never double-book a chair or a provider\'s hands-on time', async () => {
-    const [rooms] = await scratch.raw(`SELECT COUNT(*) AS n FROM visit_segments x JOIN visit_segments y
-      ON x.operatory_id = y.operatory_id AND x.visit_id < y.visit_id AND x.start_utc < y.end_utc AND x.end_utc > y.start_utc`)
-    const [hands] = await scratch.raw(`SELECT COUNT(*) AS n FROM visit_segments x JOIN visit_segments y
-      ON x.provider_id = y.provider_id AND x.visit_id < y.visit_id AND x.kind = 'hands_on' AND y.kind = 'hands_on'
-      AND x.start_utc < y.end_utc AND x.end_utc > y.start_utc`)
-    expect(Number(rooms[0].n)).toBe(0)
-    expect(Number(hands[0].n)).toBe(0)
+    const overlaps = await overlapCounts(scratch)
+    expect(overlaps.chairs).toBe(0)
+    expect(overlaps.handsOn).toBe(0)
   })
 
   it('never put a hygienist at two chairs at once: cleanings are theirs from seating to dismissal (issue 13 §5)', async () => {

@@ -117,8 +117,10 @@ async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, setting
     await retryOrGiveUp(db, row, error, settings, round)
     return
   }
-  // Sent: never scheduled again from here. If this update fails, the row stays 'sending' and is
-  // claimed again only after its lease (the one window where a message can go out twice).
+  // Sent: never scheduled again from here. If this update fails (or the process dies first), the row
+  // stays 'sending' and is claimed again only after its lease: the one window where a message goes
+  // out twice. The copy carries the same Message-ID (kept on the row before the first try), so a receiver that keeps one
+  // message per ID delivers it once.
   if (await markSent(db, row, sent.messageId, sent.rendered)) round.sent += 1
   else useLogger('outbox').warn(`row ${row.id} was sent but its lease had passed to another process`)
 }

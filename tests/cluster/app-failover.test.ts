@@ -1,0 +1,139 @@
+// An app process is killed (kill -9) in the middle of a burst of bookings that each queue an
+// invitation e-mail: HAProxy sends everything to the other process, which also sends the rows the
+// dead one had claimed once their lease runs out. Duplicate e-mails at the catcher are counted.
+// The kill comes while the mail catcher is paused, so both dispatchers hold claimed rows mid-send.
+// Then the one window left: a dispatcher killed after the SMTP server took a message and before the
+// 'sent' record. The copy the survivor sends after the lease carries the same Message-ID (the row's
+// Message-ID kept on the row), and the catcher, keeping one message per ID, delivers it once.
+import { existsSync, readFileSync } from 'node:fs'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { ApiClient } from '../helpers/api-client'
+import { closeTestDb, testDb } from '../helpers/db'
+import { utcAt } from '../helpers/booking-fixtures'
+import { createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
+import { MAIL_DIR, mailsContaining, outboxIdOf } from '../helpers/mail'
+import { MONDAY, TUESDAY, weekdayAhead } from '../helpers/dates'
+import { bookWithRetry, burst, clientThroughProxy, clusterPart, signalMailCatcher, statuses, waitFor } from './cluster'
+
+const BOOKINGS = 60
+const BATCH = Number(process.env.NUXT_OUTBOX_BATCH_SIZE ?? 20) // scripts/cluster/test.sh sets 5
+let annex: MailAnnex
+let clients: ApiClient[]
+
+beforeAll(async () => {
+  // No reminders: only the invitation, due at once, per booking.
+  annex = await createMailAnnex({ patients: BOOKINGS, settings: { reminderOffsetsHours: [] } })
+  clients = await Promise.all(Array.from({ length: 4 }, () => clientThroughProxy('admin@fernhollow.test')))
+})
+afterAll(async () => {
+  signalMailCatcher('SIGCONT')
+  await clusterPart('app-start', 1)
+  await closeTestDb()
+})
+
+function bookingBody(index: number) {
+  // One provider: two-hour slots, ten a day, Monday onwards in the annex's week 5.
+  const hour = String(1 + 2 * (index % 10)).padStart(2, '0')
+  return {
+    siteId: annex.siteId, operatoryId: annex.operatoryIds[index % 2], providerId: annex.providerIds[0], patientId: annex.patientIds[index],
+    startUtc: utcAt(`${weekdayAhead(5, MONDAY + Math.floor(index / 10), annex.timeZone)}T${hour}:00`, annex.timeZone),
+    items: [{ templateCode: 'COMP-POST', tooth: '19', surfaces: 'MO' }],
+  }
+}
+
+describe('an app process killed mid-burst', () => {
+  it('the other keeps serving and sends the dead one\'s claimed e-mails after the lease', async () => {
+    let killing: Promise<void> | undefined
+    let claimedAtKill = 0
+    const claimed = async () => (await testDb()('outbox').where({ site_id: annex.siteId, state: 'sending' }).count({ n: '*' }).first())!.n
+    const killWhileSending = async () => {
+      signalMailCatcher('SIGSTOP')
+      try {
+        // A dispatcher holds at most one batch while its first send hangs: more than one batch
+        // claimed means both processes hold claimed rows when one of them is killed.
+        await waitFor(async () => Number(await claimed()) > BATCH, 'both dispatchers holding claims', 60_000)
+        claimedAtKill = Number(await claimed())
+        await clusterPart('app-kill', 1)
+      } finally {
+        signalMailCatcher('SIGCONT')
+      }
+    }
+    const answers = await burst(BOOKINGS, 8, (index) => bookWithRetry(clients[index % clients.length]!, bookingBody(index), `app-kill-${annex.siteId}-${index}`), (_, done) => {
+      if (done === 20 && !killing) killing = killWhileSending()
+    })
+    await killing
+    expect(statuses(answers)).toEqual({ 201: BOOKINGS })
+    const visitIds = answers.map((answer) => Number(answer.body.id))
+    expect(new Set(visitIds).size).toBe(BOOKINGS)
+
+    const invitations = () => testDb()('outbox').whereIn('visit_id', visitIds).where({ kind: 'invitation' })
+    const waitedMs = await waitFor(async () => (await invitations().whereNot('state', 'sent')).length === 0, 'every invitation sent')
+    const rows = await invitations().select('id', 'attempts')
+    expect(rows).toHaveLength(BOOKINGS)
+
+    const arrivals = new Map<number, number>()
+    await waitFor(async () => {
+      arrivals.clear()
+      for (const email of annex.emails) {
+        for (const mail of await mailsContaining(email)) {
+          const id = outboxIdOf(mail)
+          if (id !== null) arrivals.set(id, (arrivals.get(id) ?? 0) + 1)
+        }
+      }
+      return rows.every((row) => arrivals.has(Number(row.id)))
+    }, 'every invitation at the mail catcher', 60_000)
+    const duplicates = [...arrivals.values()].reduce((sum, count) => sum + count - 1, 0)
+    const takenOver = rows.filter((row) => Number(row.attempts) > 1).length
+    console.log(`[cluster] app process 1 killed after 20 of ${BOOKINGS} bookings; ${answers.filter((answer) => answer.attempts > 1).length} bookings were tried again; answers ${JSON.stringify(statuses(answers))}`)
+    console.log(`[cluster] ${claimedAtKill} invitations were claimed (state sending) when app process 1 was killed`)
+    console.log(`[cluster] all ${BOOKINGS} invitations sent ${waitedMs} ms after the burst; ${takenOver} were claimed again after the lease (the dead process's claims)`)
+    console.log(`[cluster] e-mail duplicates at the catcher: ${duplicates} of ${[...arrivals.values()].reduce((sum, count) => sum + count, 0)} messages (one Message-ID per outbox row, so a receiver that drops repeated Message-IDs shows each once)`)
+    expect(rows.every((row) => (arrivals.get(Number(row.id)) ?? 0) >= 1)).toBe(true)
+    expect(takenOver).toBeGreaterThan(0) // the dead process's claims, sent by the survivor after the lease
+    await clusterPart('app-start', 1)
+  })
+
+  it('killed after the SMTP server took a message but before recording it: the copy is submitted again, delivered once', async () => {
+    const second = await createMailAnnex({ patients: 12, settings: { reminderOffsetsHours: [] } })
+    const client = await clientThroughProxy('admin@fernhollow.test')
+    const appOnePid = readFileSync(join(process.env.CLUSTER_DIR ?? '.data/cluster', 'app1.pid'), 'utf8').trim()
+    const sending = () => testDb()('outbox').where({ site_id: second.siteId, state: 'sending' })
+    signalMailCatcher('SIGSTOP')
+    let hold: Awaited<ReturnType<ReturnType<typeof testDb>['transaction']>> | undefined
+    try {
+      const answers = await Promise.all(Array.from({ length: 12 }, (_, index) => bookWithRetry(client, {
+        ...bookingBody(index), siteId: second.siteId, operatoryId: second.operatoryIds[index % 2], providerId: second.providerIds[0], patientId: second.patientIds[index],
+        startUtc: utcAt(`${weekdayAhead(5, TUESDAY + Math.floor(index / 10), second.timeZone)}T${String(1 + 2 * (index % 10)).padStart(2, '0')}:00`, second.timeZone),
+      }, `dup-window-${second.siteId}-${index}`)))
+      expect(statuses(answers)).toEqual({ 201: 12 })
+      await waitFor(async () => (await sending()).length > BATCH, 'both dispatchers holding claims', 30_000)
+      // Hold the claimed rows, so each dispatcher's 'sent' record waits after its first message went out.
+      hold = await testDb().transaction()
+      await hold('outbox').where({ site_id: second.siteId, state: 'sending' }).forUpdate().select('id')
+    } finally {
+      signalMailCatcher('SIGCONT')
+    }
+    const fromAppOne = async () => {
+      const found = await Promise.all(second.emails.map((email) => mailsContaining(email)))
+      return found.flat().filter((mail) => String(mail.parsed.headers.get('x-cuspline-dispatcher')) === appOnePid).length
+    }
+    await waitFor(async () => (await fromAppOne()) > 0, 'a message from app process 1 at the catcher', 4_000).catch(() => 0)
+    const sentByAppOne = await fromAppOne()
+    await clusterPart('app-kill', 1)
+    await hold!.rollback()
+
+    const rowsOf = () => testDb()('outbox').where({ site_id: second.siteId, kind: 'invitation' })
+    await waitFor(async () => (await rowsOf()).every((row) => row.state === 'sent'), 'every invitation sent')
+    const rows = await rowsOf()
+    const kept = new Map<number, number>()
+    for (const email of second.emails) {
+      for (const mail of await mailsContaining(email)) kept.set(outboxIdOf(mail)!, (kept.get(outboxIdOf(mail)!) ?? 0) + 1)
+    }
+    const repeats = existsSync(join(MAIL_DIR, '.duplicates')) ? readFileSync(join(MAIL_DIR, '.duplicates'), 'utf8').split('\n') : []
+    const submittedAgain = repeats.filter((line) => rows.some((row) => line.startsWith(`<outbox-${row.id}.`))).length
+    console.log(`[cluster] crash between SMTP acceptance and the record: app process 1 had ${sentByAppOne} message(s) accepted when killed; ${submittedAgain} submitted again after the lease with the same Message-ID; ${[...kept.values()].reduce((sum, count) => sum + count - 1, 0)} kept twice at the catcher`)
+    expect(rows.map((row) => kept.get(Number(row.id)) ?? 0)).toEqual(rows.map(() => 1))
+    if (sentByAppOne > 0) expect(submittedAgain).toBeGreaterThan(0)
+  })
+})
