@@ -1,7 +1,7 @@
 // CSV imports of patients: the uploaded file, its report, and each site's remembered column mapping.
 import type { Db } from '../utils/db'
 import type { ColumnMapping } from '#shared/domain/patient-import'
-import type { DateOrder } from '#shared/utils/import-dates'
+import type { DateOrder } from '#shared/types/display'
 import type { ImportReportDto } from '#shared/types/patient-imports'
 import { parseJson } from './json'
 

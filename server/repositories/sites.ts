@@ -29,8 +29,7 @@ interface SiteRow {
 
 const NO_HOURS: OpeningHours = { '1': [], '2': [], '3': [], '4': [], '5': [], '6': [], '7': [] }
 
-type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation' | 'late_after_minutes'>
-type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation' | 'clock' | 'date_order'>
+type SummaryRow = Pick<SiteRow, 'id' | 'name' | 'slug' | 'time_zone' | 'colour' | 'booking_unit_minutes' | 'tooth_notation' | 'late_after_minutes' | 'clock' | 'date_order'>
 
 function toSummary(row: SummaryRow): SiteSummary {
   return {
@@ -67,8 +66,7 @@ export function toCalendar(site: SiteDetail): SiteCalendar {
 export async function listSites(db: Db, scope: { allSites: boolean; siteIds: number[] }): Promise<SiteSummary[]> {
   const query = db<SiteRow>('sites').where('active', true).orderBy('name')
   if (!scope.allSites) query.whereIn('id', scope.siteIds)
-  return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation', 'late_after_minutes')).map(toSummary)
-  return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation', 'clock', 'date_order')).map(toSummary)
+  return (await query.select('id', 'name', 'slug', 'time_zone', 'colour', 'booking_unit_minutes', 'tooth_notation', 'late_after_minutes', 'clock', 'date_order')).map(toSummary)
 }
 
 /** The same scope, with contact and calendar, including inactive sites (for the admin's table). */

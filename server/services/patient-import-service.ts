@@ -52,7 +52,7 @@ export async function uploadImport(user: SessionUser, input: ImportUploadInput):
     const stored = await findMapping(trx, input.siteId)
     return {
       id, fileName: input.fileName, headers: parsed.headers, rowCount: parsed.rows.length, sample: parsed.rows.slice(0, 5),
-      mapping: guessMapping(parsed.headers, stored?.mapping), dateOrder: stored?.dateOrder ?? 'mdy',
+      mapping: guessMapping(parsed.headers, stored?.mapping), dateOrder: stored?.dateOrder ?? 'month-day-year',
       alreadyImported: earlier ? { importId: earlier.id, importedAt: earlier.imported_at.toISOString() } : null,
     }
   })

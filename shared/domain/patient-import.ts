@@ -3,7 +3,8 @@
 // column holds which field, and turning one row into a record's fields or errors in words.
 import Papa from 'papaparse'
 import { PatientFieldsSchema, type PatientFieldsInput } from '../schemas/patients'
-import { parseImportDate, type DateOrder } from '../utils/import-dates'
+import type { DateOrder } from '../types/display'
+import { formatLocalDate, parseDateInput } from '../utils/display-time'
 
 export const MAX_IMPORT_BYTES = 10 * 1024 * 1024
 export const MAX_IMPORT_ROWS = 20_000
@@ -98,8 +99,8 @@ export function rowToFields(headers: readonly string[], row: readonly string[], 
   }
   const errors: string[] = []
   const rawDate = cell('dateOfBirth')
-  const dateOfBirth = rawDate === '' ? '' : parseImportDate(rawDate, dateOrder)
-  if (dateOfBirth === null) errors.push(`${IMPORT_FIELD_LABELS.dateOfBirth}: "${rawDate}" is not a date in the form 1984-07-09 or ${dateOrder === 'dmy' ? '09/07/1984' : dateOrder === 'mdy' ? '07/09/1984' : '1984/07/09'}`)
+  const dateOfBirth = rawDate === '' ? '' : parseDateInput(rawDate, dateOrder)
+  if (dateOfBirth === null) errors.push(`${IMPORT_FIELD_LABELS.dateOfBirth}: "${rawDate}" is not a date in the form 1984-07-09 or ${formatLocalDate('1984-07-09', { dateOrder }, 'numeric')}`)
   const yesNo = (field: 'emailConsent' | 'smsConsent') => {
     const value = cell(field).toLowerCase()
     if (YES.has(value)) return true

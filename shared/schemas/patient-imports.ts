@@ -1,7 +1,7 @@
 // The CSV import's requests (issue 16 §3). The file travels as JSON text (the API takes JSON only).
 import { z } from 'zod'
 import { IMPORT_FIELDS } from '../domain/patient-import'
-import { DATE_ORDERS } from '../utils/import-dates'
+import { DATE_ORDERS } from '../types/display'
 import { plainText } from './common'
 
 const header = z.string({ error: 'must be a column name' }).max(200, 'is too long')
@@ -16,7 +16,7 @@ export type ImportUploadInput = z.infer<typeof ImportUploadSchema>
 
 export const ImportMappingSchema = z.object({
   mapping: z.partialRecord(z.enum(IMPORT_FIELDS, { error: 'is not a field the import fills' }), header),
-  dateOrder: z.enum(DATE_ORDERS, { error: 'must be mdy, dmy or ymd' }),
+  dateOrder: z.enum(DATE_ORDERS, { error: `must be one of ${DATE_ORDERS.join(', ')}` }),
 })
 export type ImportMappingInput = z.infer<typeof ImportMappingSchema>
 

@@ -1,6 +1,6 @@
 // The CSV import's answers (issue 16 §3).
 import type { ColumnMapping } from '../domain/patient-import'
-import type { DateOrder } from '../utils/import-dates'
+import type { DateOrder } from './display'
 import type { DuplicateCandidateDto } from './patients'
 
 export interface ImportUploadDto {

@@ -87,6 +87,13 @@ export function formatRange(start: Instant, end: Instant, style: DisplayStyle, l
 }
 
 /** How a date field asks for its value: 'MM/DD/YYYY', 'DD/MM/YYYY' or 'YYYY-MM-DD'. */
+/** The date orders as a choice list names them, with an example date. */
+export const DATE_ORDER_LABELS: Record<DateOrder, string> = {
+  'month-day-year': 'month/day/year (07/09/1984)',
+  'day-month-year': 'day/month/year (09/07/1984)',
+  'year-month-day': 'year-month-day (1984-07-09)',
+}
+
 export function dateInputHint(order: DateOrder): string {
   return { 'month-day-year': 'MM/DD/YYYY', 'day-month-year': 'DD/MM/YYYY', 'year-month-day': 'YYYY-MM-DD' }[order]
 }

@@ -8,7 +8,7 @@ import { closeTestDb, testDb } from '../helpers/db'
 import { signedInAs } from '../helpers/api-client'
 import { utcAt, FILLING } from '../helpers/booking-fixtures'
 import { createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
-import { mailsContaining, outboxIdOf } from '../helpers/mail'
+import { waitForOutboxMail } from '../helpers/mail'
 import { daysFromToday } from '../helpers/dates'
 
 let browser: BrowserSession
@@ -117,6 +117,6 @@ describe('Rebook list in the browser', () => {
     // The update e-mail reaches the patient through the real SMTP catcher.
     const update = await testDb()('outbox').where({ visit_id: visitIds[0], kind: 'update' }).first('id')
     expect(update).toBeDefined()
-    await expect.poll(async () => (await mailsContaining(annex.emails[0]!)).some((mail) => outboxIdOf(mail) === update.id), { timeout: 30_000, interval: 250 }).toBe(true)
+    await waitForOutboxMail(annex.emails[0]!, update.id, 30_000)
   })
 })

@@ -23,8 +23,8 @@ async function upload(csv: string, fileName = `patients-${randomUUID().slice(0, 
   expect(answer.status, JSON.stringify(answer.body)).toBe(201)
   return answer.body as { id: number; headers: string[]; rowCount: number; mapping: Record<string, string>; alreadyImported: unknown }
 }
-const preview = (id: number, dateOrder = 'mdy') => admin.post(`/api/patient-imports/${id}/preview`, { mapping: MAPPING, dateOrder })
-const run = (id: number, choices: Record<string, string> = {}, dateOrder = 'mdy') => admin.post(`/api/patient-imports/${id}/run`, { mapping: MAPPING, dateOrder, choices })
+const preview = (id: number, dateOrder = 'month-day-year') => admin.post(`/api/patient-imports/${id}/preview`, { mapping: MAPPING, dateOrder })
+const run = (id: number, choices: Record<string, string> = {}, dateOrder = 'month-day-year') => admin.post(`/api/patient-imports/${id}/run`, { mapping: MAPPING, dateOrder, choices })
 const familyCount = async (family: string) => Number((await testDb()('patients').where({ last_name: family }).count({ n: '*' }))[0]!.n)
 
 describe('patient import', () => {
@@ -108,7 +108,7 @@ describe('patient import', () => {
     const tooBig = await admin.post('/api/patient-imports', { siteId: annex.siteId, fileName: 'big.csv', csv: big })
     expect(tooBig.status).toBe(413)
     const uploaded = await upload(`Given,Family,Born\nAna,Lee,1980-01-01\n`)
-    const noBirth = await admin.post(`/api/patient-imports/${uploaded.id}/preview`, { mapping: { firstName: 'Given', lastName: 'Family' }, dateOrder: 'mdy' })
+    const noBirth = await admin.post(`/api/patient-imports/${uploaded.id}/preview`, { mapping: { firstName: 'Given', lastName: 'Family' }, dateOrder: 'month-day-year' })
     expect(noBirth.status).toBe(400)
     expect(noBirth.body.data.field).toBe('mapping.dateOfBirth')
     const desk = await signedInAs('desk.quarry@fernhollow.test')

@@ -20,9 +20,9 @@ describe('reading patient CSV files', () => {
   it('turns a row into fields or problems in words', () => {
     const headers = ['Given', 'Family', 'Born', 'Phone', 'Street', 'Mail OK', 'Email']
     const mapping = { firstName: 'Given', lastName: 'Family', dateOfBirth: 'Born', phone: 'Phone', addressStreet: 'Street', emailConsent: 'Mail OK', email: 'Email' } as const
-    const good = rowToFields(headers, ['Ana', 'Lee', '09/07/1984', '(209) 555-0177', '1 Way\nFlat 2', 'yes', 'ana@fernhollow.test'], mapping, 'dmy')
+    const good = rowToFields(headers, ['Ana', 'Lee', '09/07/1984', '(209) 555-0177', '1 Way\nFlat 2', 'yes', 'ana@fernhollow.test'], mapping, 'day-month-year')
     expect(good).toMatchObject({ ok: true, fields: { dateOfBirth: '1984-07-09', phone: '+12095550177', addressStreet: '1 Way, Flat 2', emailConsent: true, emailConsentSource: 'import' } })
-    const bad = rowToFields(headers, ['', 'Lee', '31/02/1984', '555-01', '', 'maybe', ''], mapping, 'dmy')
+    const bad = rowToFields(headers, ['', 'Lee', '31/02/1984', '555-01', '', 'maybe', ''], mapping, 'day-month-year')
     expect(bad.ok).toBe(false)
     const errors = bad.ok ? [] : bad.errors
     expect(errors.some((error) => error.startsWith('Given name: is required'))).toBe(true)
@@ -34,7 +34,7 @@ describe('reading patient CSV files', () => {
   it('reads the demo sample file with its deliberately bad rows', () => {
     const parsed = parseCsv(readFileSync('seeds/sample-patients.csv', 'utf8'))
     const mapping = guessMapping(parsed.headers)
-    const results = parsed.rows.map((row) => rowToFields(parsed.headers, row, mapping, 'mdy'))
+    const results = parsed.rows.map((row) => rowToFields(parsed.headers, row, mapping, 'month-day-year'))
     expect(results.filter((result) => !result.ok)).toHaveLength(4)
   })
 })

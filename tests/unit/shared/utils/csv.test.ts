@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { csvCell, toCsv } from '../../../../shared/utils/csv'
-import { parseImportDate } from '../../../../shared/utils/import-dates'
+import { parseDateInput } from '../../../../shared/utils/display-time'
 
 describe('CSV cells', () => {
   // OWASP, "CSV Injection": cells beginning with =, +, -, @, tab (0x09) or carriage return (0x0D) get a
@@ -28,14 +28,14 @@ describe('CSV cells', () => {
 
 describe('import dates', () => {
   it('reads ISO dates and the site order, refusing impossible and two-digit-year dates', () => {
-    expect(parseImportDate('1984-07-09', 'dmy')).toBe('1984-07-09')
-    expect(parseImportDate('07/09/1984', 'mdy')).toBe('1984-07-09')
-    expect(parseImportDate('09.07.1984', 'dmy')).toBe('1984-07-09')
-    expect(parseImportDate('1984/07/09', 'ymd')).toBe('1984-07-09')
-    expect(parseImportDate('02/31/1990', 'mdy')).toBeNull()
-    expect(parseImportDate('2000-02-29', 'mdy')).toBe('2000-02-29')
-    expect(parseImportDate('1900-02-29', 'mdy')).toBeNull()
-    expect(parseImportDate('07/09/84', 'mdy')).toBeNull()
-    expect(parseImportDate('yesterday', 'mdy')).toBeNull()
+    expect(parseDateInput('1984-07-09', 'day-month-year')).toBe('1984-07-09')
+    expect(parseDateInput('07/09/1984', 'month-day-year')).toBe('1984-07-09')
+    expect(parseDateInput('09.07.1984', 'day-month-year')).toBe('1984-07-09')
+    expect(parseDateInput('1984/07/09', 'year-month-day')).toBe('1984-07-09')
+    expect(parseDateInput('02/31/1990', 'month-day-year')).toBeNull()
+    expect(parseDateInput('2000-02-29', 'month-day-year')).toBe('2000-02-29')
+    expect(parseDateInput('1900-02-29', 'month-day-year')).toBeNull()
+    expect(parseDateInput('07/09/84', 'month-day-year')).toBeNull()
+    expect(parseDateInput('yesterday', 'month-day-year')).toBeNull()
   })
 })
