@@ -3,7 +3,7 @@
 import { z } from 'zod'
 import { IANAZone } from 'luxon'
 import { validateRule } from '../domain/recurrence/rules'
-import { minutesOfDay } from '../utils/local-date'
+import { minutesOfDayOrNull } from '../utils/local-date'
 import { dateInBounds } from './common'
 
 /** 'HH:mm', 00:00 to 23:59 (zod's ISO time without seconds). */
@@ -62,7 +62,10 @@ export interface TimeRangeFields {
 /** Shifts and blocks stay inside one day: an end at or before the start is a typing mistake here. */
 export function endAfterStart(range: TimeRangeFields, ctx: z.RefinementCtx): void {
   if (!range.localStart || !range.localEnd) return
-  if (minutesOfDay(range.localEnd) <= minutesOfDay(range.localStart)) {
+  const start = minutesOfDayOrNull(range.localStart)
+  const end = minutesOfDayOrNull(range.localEnd)
+  // A malformed time has its own 400 from its field's schema.
+  if (start !== null && end !== null && end <= start) {
     ctx.addIssue({ code: 'custom', path: ['localEnd'], message: 'must be after the start time' })
   }
 }

@@ -5,13 +5,13 @@ import { DEFAULT_LATE_AFTER_MINUTES, MAX_LATE_AFTER_MINUTES } from '../domain/la
 import { CLOCK_STYLES, DATE_ORDERS } from '../types/display'
 import { IdSchema, plainText } from './common'
 import { ColourSchema, LocalDateSchema, LocalEndTimeSchema, LocalTimeSchema, TimeZoneSchema } from './local-time'
-import { minutesOfDay } from '../utils/local-date'
+import { minutesOfDayOrNull } from '../utils/local-date'
 
 export const BOOKING_UNITS = [5, 10, 15] as const
 
 const openingRange = z
   .object({ start: LocalTimeSchema, end: LocalEndTimeSchema })
-  .refine((range) => minutesOfDay(range.end) > minutesOfDay(range.start), { path: ['end'], message: 'must be after the opening time' })
+  .refine((range) => (minutesOfDayOrNull(range.end) ?? Infinity) > (minutesOfDayOrNull(range.start) ?? -Infinity), { path: ['end'], message: 'must be after the opening time' })
 
 const dayHours = z.array(openingRange, { error: 'must be a list of opening ranges' }).max(4, 'has too many ranges')
 

@@ -89,13 +89,19 @@ export function minutesOfDay(time: LocalTime): number {
   return known !== undefined ? known : remember(minutesOfDayMemo, time, parseMinutesOfDay(time))
 }
 
-function parseMinutesOfDay(time: LocalTime): number {
+/** Minutes after local midnight for 'HH:mm' ('24:00' allowed), or null for anything else (for checks on typed input). */
+export function minutesOfDayOrNull(time: string): number | null {
   const match = LOCAL_TIME_PATTERN.exec(time)
   const hours = Number(match?.[1])
   const minutes = Number(match?.[2])
   const valid = match !== null && minutes < 60 && (hours < 24 || (hours === 24 && minutes === 0))
-  if (!valid) throw new RangeError(`Local time "${time}" is not HH:mm`)
-  return hours * 60 + minutes
+  return valid ? hours * 60 + minutes : null
+}
+
+function parseMinutesOfDay(time: LocalTime): number {
+  const minutes = minutesOfDayOrNull(time)
+  if (minutes === null) throw new RangeError(`Local time "${time}" is not HH:mm`)
+  return minutes
 }
 
 // ---------------------------------------------------------------------------
