@@ -7,6 +7,7 @@
 // send key), and the catcher, keeping one message per ID, delivers it once.
 import { existsSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
+import type { Knex } from 'knex'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ApiClient } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
@@ -100,7 +101,7 @@ describe('an app process killed mid-burst', () => {
     const appOnePid = readFileSync(join(process.env.CLUSTER_DIR ?? '.data/cluster', 'app1.pid'), 'utf8').trim()
     const sending = () => testDb()('outbox').where({ site_id: second.siteId, state: 'sending' })
     signalMailCatcher('SIGSTOP')
-    let hold: Awaited<ReturnType<ReturnType<typeof testDb>['transaction']>> | undefined
+    let hold: Knex.Transaction | undefined
     try {
       const answers = await Promise.all(Array.from({ length: 12 }, (_, index) => bookWithRetry(client, {
         ...bookingBody(index), siteId: second.siteId, operatoryId: second.operatoryIds[index % 2], providerId: second.providerIds[0], patientId: second.patientIds[index],
