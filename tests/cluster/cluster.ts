@@ -54,10 +54,6 @@ export async function clusterSizeSeenBy(n: number): Promise<number | null> {
   return value === null ? null : Number(value)
 }
 
-export async function nodeState(n: number): Promise<string | null> {
-  return statusOf(NODE_PORTS[n]!, 'wsrep_local_state_comment')
-}
-
 /** The node HAProxy's write listener sends a new connection to (n1, n2 or n3). */
 export async function writerNode(): Promise<string> {
   const rows = await queryPort(WRITE_PORT, 'SELECT @@wsrep_node_name AS name')
