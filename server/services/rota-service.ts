@@ -182,10 +182,12 @@ export function changeBlock(user: SessionUser, id: number, patch: BlockPatch, dr
 }
 
 export function deleteBlock(user: SessionUser, id: number, dryRun = false): Promise<ImpactResult<void>> {
-  return changeWithImpact({ userId: user.id, dryRun, cause: 'block removed' }, async (trx) => {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'block removed' }, async (trx, impact) => {
     const block = await findBlock(trx, id)
     if (!block) throw notFound('No such block.')
     requireSiteAccess(user, block.siteId)
+    // Nothing can be stranded by freeing time, but flagged visits it frees leave the Rebook list.
+    await impact.watch({ siteIds: [block.siteId] })
     await removeBlock(trx, id)
     await writeAudit(trx, { userId: user.id, action: 'block_deleted', entity: 'block', entityId: id, before: block })
   })
