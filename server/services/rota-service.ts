@@ -6,7 +6,6 @@ import { findFirstShiftClash } from '#shared/domain/rota'
 import { managesProvider } from '#shared/utils/access'
 import { requireSiteAccess } from '../utils/auth'
 import type { Db } from '../utils/db'
-import { inTransaction } from '../utils/db-retry'
 import { assertValid, badRequest, conflict, notFound } from '../utils/errors'
 import { findProvider, lockProvider } from '../repositories/providers'
 import { findSiteDetails } from '../repositories/sites'
@@ -55,8 +54,9 @@ async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number): 
   })
 }
 
-export function createShift(user: SessionUser, shift: ShiftBody): Promise<ShiftDto> {
-  return inTransaction(async (trx) => {
+/** A new shift only adds time: its dry run strands nothing, but is checked (and refused) like the save. */
+export function createShift(user: SessionUser, shift: ShiftBody, dryRun = false): Promise<ImpactResult<ShiftDto>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'shift added' }, async (trx) => {
     await requireWorksAt(trx, shift.providerId, shift.siteId)
     await lockProvider(trx, shift.providerId)
     await refuseCrossSiteClash(trx, shift, 0)
