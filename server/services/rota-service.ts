@@ -6,7 +6,6 @@ import { findFirstShiftClash } from '#shared/domain/rota'
 import { managesProvider } from '#shared/utils/access'
 import { requireSiteAccess } from '../utils/auth'
 import type { Db } from '../utils/db'
-import { inTransaction } from '../utils/db-retry'
 import { assertValid, badRequest, conflict, notFound } from '../utils/errors'
 import { findProvider, lockProvider } from '../repositories/providers'
 import { findSiteDetails } from '../repositories/sites'
@@ -55,8 +54,9 @@ async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number): 
   })
 }
 
-export function createShift(user: SessionUser, shift: ShiftBody): Promise<ShiftDto> {
-  return inTransaction(async (trx) => {
+/** A new shift only adds time: its dry run strands nothing, but is checked (and refused) like the save. */
+export function createShift(user: SessionUser, shift: ShiftBody, dryRun = false): Promise<ImpactResult<ShiftDto>> {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'shift added' }, async (trx) => {
     await requireWorksAt(trx, shift.providerId, shift.siteId)
     await lockProvider(trx, shift.providerId)
     await refuseCrossSiteClash(trx, shift, 0)
@@ -182,10 +182,12 @@ export function changeBlock(user: SessionUser, id: number, patch: BlockPatch, dr
 }
 
 export function deleteBlock(user: SessionUser, id: number, dryRun = false): Promise<ImpactResult<void>> {
-  return changeWithImpact({ userId: user.id, dryRun, cause: 'block removed' }, async (trx) => {
+  return changeWithImpact({ userId: user.id, dryRun, cause: 'block removed' }, async (trx, impact) => {
     const block = await findBlock(trx, id)
     if (!block) throw notFound('No such block.')
     requireSiteAccess(user, block.siteId)
+    // Nothing can be stranded by freeing time, but flagged visits it frees leave the Rebook list.
+    await impact.watch({ siteIds: [block.siteId] })
     await removeBlock(trx, id)
     await writeAudit(trx, { userId: user.id, action: 'block_deleted', entity: 'block', entityId: id, before: block })
   })

@@ -104,7 +104,7 @@ describe('Rebook list in the browser', () => {
 
     await first.getByRole('button', { name: 'Find a new time' }).click()
     const other = first.getByTestId('rebook-group-any')
-    await expect.poll(() => other.getByRole('button', { name: 'Move here' }).count(), { timeout: 20_000 }).toBeGreaterThan(0)
+    await expect.poll(() => other.getByRole('button', { name: 'Move here' }).count(), { timeout: 40_000 }).toBeGreaterThan(0)
     await screenshot(page, 'rebook-openings')
     await other.getByRole('button', { name: 'Move here' }).first().click()
     await expect.poll(() => page.getByTestId('rebook-notice').textContent()).toContain('The patient gets the update e-mail')

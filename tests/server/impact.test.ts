@@ -119,6 +119,13 @@ describe('impact before saving: dry runs answer the visits a change strands and 
     await expectDryRun(remove, booked, [booked.visitIds[2]!], /is not on shift then$/)
     expect(await testDb()('shifts').where({ id: shift.id }).first('local_end')).toEqual({ local_end: '24:00' })
 
+    // A new shift only adds time: its dry run answers nothing stranded and writes no row.
+    const before = Number((await testDb()('shifts').count({ n: '*' }).first())?.n)
+    const added = await admin.post('/api/shifts', { providerId: booked.annex.providerIds[1], siteId: booked.annex.siteId, rrule: 'FREQ=WEEKLY;BYDAY=SA', validFrom: booked.day, localStart: '08:00', localEnd: '12:00', dryRun: true })
+    expect(added.status, JSON.stringify(added.body)).toBe(200)
+    expect(added.body).toEqual({ strandedVisits: [] })
+    expect(Number((await testDb()('shifts').count({ n: '*' }).first())?.n)).toBe(before)
+
     const deleted = await admin.delete(`/api/shifts/${shift.id}`)
     expect(deleted.status).toBe(200)
     expect(deleted.body).toEqual({ ok: true, strandedVisits: [expect.objectContaining({ id: booked.visitIds[2] })] })

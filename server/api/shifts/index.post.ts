@@ -1,16 +1,20 @@
 // POST /api/shifts: a provider's recurring hours at a site (admins, managers of the site).
-// 409 when the provider would be at two sites at once.
+// 409 when the provider would be at two sites at once. `dryRun: true` checks it all and writes
+// nothing (a new shift strands no visit: `strandedVisits` is empty), like the other rota changes.
 import type { ShiftDto } from '#shared/types/rota-api'
+import type { StrandedPreview } from '#shared/types/rebook'
 import { ShiftSchema } from '#shared/schemas/rota'
 import { MANAGING_ROLES, requireRole, requireSiteAccess } from '../../utils/auth'
 import { validateWith } from '../../utils/errors'
+import { readDryRun } from '../../utils/dry-run'
 import { createShift } from '../../services/rota-service'
 
-export default defineEventHandler(async (event): Promise<ShiftDto> => {
+export default defineEventHandler(async (event): Promise<(ShiftDto & StrandedPreview) | StrandedPreview> => {
   const user = requireRole(event, MANAGING_ROLES)
   const body = await readValidatedBody(event, validateWith(ShiftSchema))
   requireSiteAccess(user, body.siteId)
-  const shift = await createShift(user, body)
+  const result = await createShift(user, body, await readDryRun(event))
+  if (result.dryRun) return { strandedVisits: result.strandedVisits }
   setResponseStatus(event, 201)
-  return shift
+  return { ...result.saved, strandedVisits: result.strandedVisits }
 })
