@@ -88,7 +88,7 @@ const ANTERIOR_COMPOSITE: ChairTimeTemplate = {
   }),
 }
 
-/** Pit-and-fissure sealant on one or more posterior teeth, no anaesthetic (common practice, no source). Placed in a hygiene room, usually by the hygienist alone: every step but the reset is hands_on (issue 13 §5). */
+/** Pit-and-fissure sealant on one or more posterior teeth, no anaesthetic (common practice, no source). Seating and dismissal stay `assist`: dentists place sealants with an assistant, and a dentist may seal during another patient's onset wait. */
 const SEALANT: ChairTimeTemplate = {
   code: 'SEAL',
   name: 'Sealant',
@@ -99,11 +99,11 @@ const SEALANT: ChairTimeTemplate = {
   region: 'posterior',
   version: 1,
   steps: [
-    step('Seat and set up', 'hands_on', 'seat', 3),
+    step('Seat and set up', 'assist', 'seat', 3),
     step('Clean, isolate and etch', 'hands_on', 'treat', 4, 0, 3),
     step('Apply and cure sealant', 'hands_on', 'treat', 3, 0, 2),
     step('Check bite', 'hands_on', 'treat', 2, 0, 1),
-    step('Dismiss patient', 'hands_on', 'dismiss', 2),
+    step('Dismiss patient', 'assist', 'dismiss', 2),
     step('Clean, disinfect, change barriers', 'reset', 'turnover', TURNOVER_MINUTES),
   ],
   anaesthesia: anaesthesia(false),

@@ -296,6 +296,8 @@ export async function undoVisitState(id: number, seenVersion: number, user: Sess
     const fromCancelled = row.state === 'cancelled'
     const changed = await updateVisitIfVersion(trx, id, row.row_version, {
       state: to, previous_state: null, state_changed_at: null, updated_by: user.id,
+      // Back to before arrival: the patient was not in the chair, so no anaesthetic was given then.
+      ...(to === 'booked' || to === 'confirmed' ? { anaesthetic_given_at: null } : {}),
       ...(fromCancelled ? { cancel_reason: null, ical_sequence: row.ical_sequence + 1 } : {}),
     })
     if (!changed) throw staleVersion()

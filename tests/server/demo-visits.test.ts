@@ -67,13 +67,14 @@ describe('demo visits', () => {
     expect(overlaps.handsOn).toBe(0)
   })
 
-  it('never put a hygienist at two chairs at once: cleanings are theirs from seating to dismissal (issue 13 §5)', async () => {
-    // Outside room reset (no provider) no two visits of one hygienist overlap in different rooms.
+  it('never put a hygienist at two cleanings at once: a cleaning is theirs from seating to dismissal (issue 13 §5)', async () => {
+    // Outside room reset (no provider) no two cleanings of one hygienist overlap in different rooms.
     const [rows] = await scratch.raw(`SELECT COUNT(*) AS n FROM visit_segments x JOIN visit_segments y
       ON x.provider_id = y.provider_id AND x.visit_id < y.visit_id AND x.operatory_id <> y.operatory_id
       AND x.kind <> 'reset' AND y.kind <> 'reset' AND x.start_utc < y.end_utc AND x.end_utc > y.start_utc
+      JOIN visits a ON a.id = x.visit_id JOIN visits b ON b.id = y.visit_id
       JOIN providers p ON p.id = x.provider_id JOIN users u ON u.id = p.user_id
-      WHERE u.role = 'hygienist'`)
+      WHERE u.role = 'hygienist' AND a.plan LIKE '%"templateCode":"CLEAN-%' AND b.plan LIKE '%"templateCode":"CLEAN-%'`)
     expect(Number(rows[0].n)).toBe(0)
   })
 

@@ -66,11 +66,14 @@ const undoAudits = async (id: number) => testDb()('audit_log').where({ entity: '
 describe('undo the last state change', () => {
   it('arrived goes back to booked (or confirmed), once, with an audit row', async () => {
     const visit = await book(startIn(30))
-    const arrived = await mark(admin, visit, 'arrived')
+    let arrived = await mark(admin, visit, 'arrived')
     expect(arrived.previousState).toBe('booked')
+    // An anaesthetic recorded for a patient marked arrived by mistake goes with the undo.
+    arrived = (await admin.post(`/api/visits/${visit.id}/anaesthetic`, { rowVersion: arrived.rowVersion })).body
+    expect(arrived).toMatchObject({ state: 'arrived', previousState: 'booked' })
     const undone = await undo(admin, arrived)
     expect(undone.status, JSON.stringify(undone.body)).toBe(200)
-    expect(undone.body).toMatchObject({ state: 'booked', previousState: null })
+    expect(undone.body).toMatchObject({ state: 'booked', previousState: null, anaestheticGivenAt: null })
     const audits = await undoAudits(visit.id)
     expect(audits).toHaveLength(1)
     expect(jsonOf(audits[0].after)).toEqual({ state: 'booked' })
