@@ -78,7 +78,7 @@ describe('Sites & rooms: clock and date order', () => {
     await expect.poll(async () => (await testDb()('sites').where({ id: annex.siteId }).first()).clock).toBe('24h')
     const stored = await testDb()('sites').where({ id: annex.siteId }).first()
     expect(stored.date_order).toBe('day-month-year')
-    expect(JSON.parse(stored.closed_dates)).toEqual([`${nextYear}-12-25`, `${nextYear + 1}-01-01`])
+    expect(typeof stored.closed_dates === 'string' ? JSON.parse(stored.closed_dates) : stored.closed_dates).toEqual([`${nextYear}-12-25`, `${nextYear + 1}-01-01`])
   })
 
   it('names a closed date it cannot read, in the site\'s order', async () => {

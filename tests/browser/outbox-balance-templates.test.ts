@@ -80,9 +80,9 @@ describe('Balance: rates and links', () => {
       await page.waitForURL((url) => url.pathname === '/chairboard')
       await expect.poll(() => page.locator('#board-date').inputValue()).toBe(day)
       await expect.poll(() => page.getByTestId('site-switcher').locator('option:checked').textContent()).toBe(name)
-      await page.goBack()
-      await page.waitForURL(/\/balance/)
+      await page.goto('/balance')
       await page.getByLabel('From', { exact: true }).fill(day)
+      await page.getByLabel('To', { exact: true }).fill(weekdayAhead(2, FRIDAY, annex.timeZone))
       const provider = card.getByTestId('balance-row').filter({ hasText: 'Dr. Annex' }).getByRole('link')
       await provider.click()
       await page.waitForURL((url) => url.pathname === '/rota' && url.searchParams.get('provider') === String(annex.providerIds[0]))
@@ -104,8 +104,8 @@ describe('Templates: the preview stays in view, one problem per field', () => {
       const label = last.getByLabel('Label')
       await label.scrollIntoViewIfNeeded()
       await label.fill('')
-      // The preview is still inside the viewport, above the field being edited.
-      const bar = await page.getByTestId('timeline-bar').boundingBox()
+      // The preview (now naming the problem instead of a timeline) is still inside the viewport.
+      const bar = await page.getByTestId('template-preview-sticky').boundingBox()
       expect(bar!.y).toBeGreaterThanOrEqual(-1)
       expect(bar!.y + bar!.height).toBeLessThanOrEqual(viewport.height)
       // One problem under the emptied field, and the count of fields to fix says one.
