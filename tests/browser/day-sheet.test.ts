@@ -76,6 +76,8 @@ describe('day sheet', () => {
     await page.goto(`/chairboard?site=${annex.siteId}&date=${day}`)
     await page.locator('.fc-col-header-cell').first().waitFor()
     mkdirSync(ARTIFACTS, { recursive: true })
+    await page.emulateMedia({ media: 'print' })
+    await expect.poll(() => page.getByTestId('day-sheet').isVisible()).toBe(true)
     for (const format of ['A4', 'Letter'] as const) {
       const pdf = await page.pdf({ format, printBackground: true })
       const path = join(ARTIFACTS, `day-sheet-${format}.pdf`)
