@@ -13,6 +13,8 @@ const VIEWPORTS = [{ width: 1440, height: 900 }, { width: 1024, height: 768 }]
 let browser: BrowserSession
 let annex: Annex
 let lastName: string
+// Closed dates must lie within the input bounds (today + 3 years): next year's, from today.
+const nextYear = new Date().getUTCFullYear() + 1
 
 beforeAll(async () => {
   annex = await createAnnex({ rooms: 1, patients: 1, timeZone: 'America/Denver' })
@@ -70,13 +72,13 @@ describe('Sites & rooms: clock and date order', () => {
     const form = page.getByTestId('site-form')
     await form.getByLabel('Clock').selectOption('24h')
     await form.getByLabel('Date order').selectOption('day-month-year')
-    await form.getByLabel(/^Closed dates/).fill('25/12/2030, 2031-01-01')
+    await form.getByLabel(/^Closed dates/).fill(`25/12/${nextYear}, ${nextYear + 1}-01-01`)
     await screenshot(page, 'sites-clock-date-order')
     await form.getByRole('button', { name: 'Save site' }).click()
     await expect.poll(async () => (await testDb()('sites').where({ id: annex.siteId }).first()).clock).toBe('24h')
     const stored = await testDb()('sites').where({ id: annex.siteId }).first()
     expect(stored.date_order).toBe('day-month-year')
-    expect(JSON.parse(stored.closed_dates)).toEqual(['2030-12-25', '2031-01-01'])
+    expect(typeof stored.closed_dates === 'string' ? JSON.parse(stored.closed_dates) : stored.closed_dates).toEqual([`${nextYear}-12-25`, `${nextYear + 1}-01-01`])
   })
 
   it('names a closed date it cannot read, in the site\'s order', async () => {
@@ -84,14 +86,14 @@ describe('Sites & rooms: clock and date order', () => {
     await page.goto('/sites')
     const name = (await testDb()('sites').where({ id: annex.siteId }).first()).name
     await page.getByTestId('site-rows').getByRole('button', { name }).click()
-    expect(await page.getByTestId('site-summary').textContent()).toContain('25/12/2030, 01/01/2031')
+    expect(await page.getByTestId('site-summary').textContent()).toContain(`25/12/${nextYear}, 01/01/${nextYear + 1}`)
     expect(await page.getByTestId('site-summary').textContent()).toContain('24-hour clock')
     await page.getByRole('button', { name: 'Change site' }).click()
     const form = page.getByTestId('site-form')
-    await expect.poll(() => form.getByLabel(/^Closed dates/).inputValue()).toBe('25/12/2030, 01/01/2031')
-    await form.getByLabel(/^Closed dates/).fill('12/25/2030')
+    await expect.poll(() => form.getByLabel(/^Closed dates/).inputValue()).toBe(`25/12/${nextYear}, 01/01/${nextYear + 1}`)
+    await form.getByLabel(/^Closed dates/).fill(`12/25/${nextYear}`)
     await form.getByRole('button', { name: 'Save site' }).click()
-    await expect.poll(() => form.locator('.field-error').first().textContent()).toBe('"12/25/2030" is not a date such as DD/MM/YYYY')
+    await expect.poll(() => form.locator('.field-error').first().textContent()).toBe(`"12/25/${nextYear}" is not a date such as DD/MM/YYYY`)
   })
 })
 

@@ -15,16 +15,17 @@ let annex: MailAnnex
 let searchName: string
 
 beforeAll(async () => {
-  // A private site whose 60 visits fill more than one Outbox page (50 a page), no mail sent (own lane).
+  // A private site whose 20 visits (60 messages) fill more than one Outbox page (50 a page); no mail
+  // is sent (a lane of its own). Four visits a day, Monday to Friday, one chair and one provider.
   annex = await createMailAnnex({ patients: 3, mailLane: 'outbox-balance-templates' })
   searchName = `Zaccheus${Date.now() % 10_000}`
   await testDb()('patients').where({ id: annex.patientIds[2] }).update({ first_name: searchName })
   const manager = await signedInAs('manager@fernhollow.test')
-  const day = weekdayAhead(2, MONDAY, annex.timeZone)
   for (let index = 0; index < 20; index += 1) {
-    const time = `${String(8 + Math.floor(index / 2)).padStart(2, '0')}:${index % 2 ? '30' : '00'}`
-    const booked = await manager.post('/api/visits', { ...bookingFor(annex, index % 3, atAhead(2, MONDAY, time, annex.timeZone)), operatoryId: annex.operatoryIds[index % 2] })
-    expect(booked.status, `${day} ${time}`).toBe(201)
+    const weekday = MONDAY + Math.floor(index / 4)
+    const time = ['08:00', '09:30', '11:00', '12:30'][index % 4]!
+    const booked = await manager.post('/api/visits', bookingFor(annex, index % 3, atAhead(2, weekday, time, annex.timeZone)))
+    expect(booked.status, `weekday ${weekday} ${time}: ${JSON.stringify(booked.body)}`).toBe(201)
   }
   browser = await openBrowser(inject('baseURL'))
   await signInThroughForm(browser.page, 'manager@fernhollow.test')
@@ -79,9 +80,9 @@ describe('Balance: rates and links', () => {
       await page.waitForURL((url) => url.pathname === '/chairboard')
       await expect.poll(() => page.locator('#board-date').inputValue()).toBe(day)
       await expect.poll(() => page.getByTestId('site-switcher').locator('option:checked').textContent()).toBe(name)
-      await page.goBack()
-      await page.waitForURL(/\/balance/)
+      await page.goto('/balance')
       await page.getByLabel('From', { exact: true }).fill(day)
+      await page.getByLabel('To', { exact: true }).fill(weekdayAhead(2, FRIDAY, annex.timeZone))
       const provider = card.getByTestId('balance-row').filter({ hasText: 'Dr. Annex' }).getByRole('link')
       await provider.click()
       await page.waitForURL((url) => url.pathname === '/rota' && url.searchParams.get('provider') === String(annex.providerIds[0]))
@@ -103,8 +104,8 @@ describe('Templates: the preview stays in view, one problem per field', () => {
       const label = last.getByLabel('Label')
       await label.scrollIntoViewIfNeeded()
       await label.fill('')
-      // The preview is still inside the viewport, above the field being edited.
-      const bar = await page.getByTestId('timeline-bar').boundingBox()
+      // The preview (now naming the problem instead of a timeline) is still inside the viewport.
+      const bar = await page.getByTestId('template-preview-sticky').boundingBox()
       expect(bar!.y).toBeGreaterThanOrEqual(-1)
       expect(bar!.y + bar!.height).toBeLessThanOrEqual(viewport.height)
       // One problem under the emptied field, and the count of fields to fix says one.

@@ -58,7 +58,7 @@ describe('balance', () => {
     expect(site.providers[0]).toMatchObject({ id: annex.providerIds[0], availableMinutes: 1440, usedMinutes: minutesOf(booked.body.segments, ['hands_on']) })
     expect(minutesOf(booked.body.segments, ['hands_on'])).toBeLessThan(minutesOf(booked.body.segments))
     expect(site.chairs).toMatchObject({ availableMinutes: 2880, usedMinutes: minutesOf(booked.body.segments) })
-    expect(site.days).toEqual([{ date: DAY, ...site.chairs }])
+    expect(site.days).toEqual([{ date: DAY, ...site.chairs, nobodyOnShift: false }])
   })
 
   it('gives every site in the manager\'s scope when no site is named, with the thresholds used', async () => {
