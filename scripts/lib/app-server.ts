@@ -6,6 +6,8 @@ import { resolve } from 'node:path'
 export interface RunningServer {
   url: string
   pid: number
+  /** What the process has printed so far (stdout and stderr). */
+  output: () => string
   stop: () => Promise<void>
 }
 
@@ -55,6 +57,7 @@ export async function startAppServer(extraEnv: Record<string, string> = {}, node
   return {
     url,
     pid: child.pid!,
+    output: () => log,
     stop: () => new Promise((done) => {
       if (child.exitCode !== null) return done()
       child.once('exit', () => done())

@@ -62,6 +62,21 @@ describe('patient e-mail HTML on a phone and a desktop', () => {
   }
 })
 
+describe('the stop-reminders link', () => {
+  it('asks first, then turns reminders off; the page says changes and cancellations still come', async () => {
+    const { page } = browser
+    await page.setViewportSize({ width: 390, height: 900 })
+    const link = /Stop reminders by e-mail [^:]*: (\S+)/.exec(mails.reminder!.parsed.text ?? '')![1]!
+    await page.goto(link)
+    await page.getByTestId('visit-stop-form').waitFor()
+    expect((await testDb()('patients').where({ id: annex.patientIds[0] }).first()).reminders_off_at).toBeNull()
+    await page.getByTestId('visit-stop-send').click()
+    await expect.poll(() => page.getByTestId('visit-reminders-off').textContent()).toMatch(/Reminders by e-mail are off/)
+    await screenshot(page, 'visit-reminders-off-390')
+    expect((await testDb()('patients').where({ id: annex.patientIds[0] }).first()).reminders_off_at).not.toBeNull()
+  })
+})
+
 describe('the cancel link', () => {
   it('asks before sending a cancel request, with an optional reason', async () => {
     const { page } = browser
