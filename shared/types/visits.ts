@@ -71,6 +71,15 @@ export interface OpeningsResponse {
   reasons: string[]
 }
 
+/** What the booking drawer hands the screen after a booking: the visit and, in words, who, when and where. */
+export interface BookedVisit {
+  visit: VisitDto
+  /** e.g. "Ada Lovelace, Tue 8 Dec 10:30, Room 2 at Fernhollow North, with Dr Ng". */
+  summary: string
+  /** The visit's local date at its site (yyyy-MM-dd), for a jump to that day. */
+  localDate: string
+}
+
 /** A visit as the Chairboard, My day and week views draw it. */
 export interface BoardVisitDto extends VisitDto {
   patientName: string
