@@ -58,10 +58,10 @@ export function plainReason(field: string, reason: string): string {
   const item = /^items\.(\d+)\.(\w+)/.exec(field)
   const prefix = item ? `Procedure ${Number(item[1]) + 1}: ` : ''
   const name = item ? item[2]! : field.split('.').at(-1) ?? field
-  if (/^[A-Z0-9]/.test(reason.trim())) return `${prefix}${sentence(reason)}`
   const words = fieldWords(name)
   if (MISSING.test(reason.trim()) && (CHOSEN.has(name) || /Id$/.test(name))) return `${prefix}${sentence(`choose a ${words}`)}`
   if (MISSING.test(reason.trim())) return `${prefix}${sentence(`${words} is required`)}`
+  if (/^[A-Z0-9]/.test(reason.trim())) return `${prefix}${sentence(reason)}`
   if (/^(is|are|must|cannot|can|does|has|should|needs|was|will)\b/.test(reason.trim())) return `${prefix}${sentence(`${words} ${reason.trim()}`)}`
   return `${prefix}${sentence(`${words}: ${reason.trim()}`)}`
 }

@@ -17,7 +17,7 @@ describe('plainReason', () => {
 
   it('puts plain field words before a fragment', () => {
     expect(plainReason('startUtc', "must be on the site's 5-minute grid")).toBe("Start time must be on the site's 5-minute grid.")
-    expect(plainReason('items.1.tooth', 'is required')).toBe('Procedure 2: tooth is required.')
+    expect(plainReason('items.1.tooth', 'is required')).toBe('Procedure 2: Tooth is required.')
     expect(plainReason('patientId', 'no such patient')).toBe('Patient: no such patient.')
   })
 
