@@ -31,15 +31,16 @@ beforeAll(async () => {
   const dentist = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('providers.id', annex.providerIds[0]).first('users.email')
   dentistEmail = dentist.email
   const [room1, room2, room3, room4] = annex.operatoryIds
-  await book('filling', { operatoryId: room1, startUtc: startIn(30), items: FILLING }, 0)
-  await book('second', { operatoryId: room2, startUtc: startIn(150), items: [{ templateCode: 'EXAM-EMER' }] }, 1)
-  await book('third', { operatoryId: room3, startUtc: startIn(210), items: [{ templateCode: 'EXAM-EMER' }] }, 2)
-  // A short visit: 20 minutes by hand (its length override), in the fourth chair.
-  const short = await book('short', { operatoryId: room4, startUtc: startIn(45), items: [{ templateCode: 'EXAM-EMER' }] }, 3)
+  // One dentist, so the times never overlap: the short visit first (it can be marked arrived now).
+  // A short visit: 30 minutes by hand (its length override), in the fourth chair.
+  const short = await book('short', { operatoryId: room4, startUtc: startIn(40), items: [{ templateCode: 'EXAM-EMER' }] }, 3)
+  await book('filling', { operatoryId: room1, startUtc: startIn(150), items: FILLING }, 0)
+  await book('second', { operatoryId: room2, startUtc: startIn(250), items: [{ templateCode: 'EXAM-EMER' }] }, 1)
+  await book('third', { operatoryId: room3, startUtc: startIn(310), items: [{ templateCode: 'EXAM-EMER' }] }, 2)
   const admin = await signedInAs('admin@fernhollow.test')
-  const shortened = await admin.patch(`/api/visits/${short.id}`, { rowVersion: short.rowVersion, lengthOverride: { chairMinutes: 20, reason: 'quick look only' } })
+  const shortened = await admin.patch(`/api/visits/${short.id}`, { rowVersion: short.rowVersion, lengthOverride: { chairMinutes: 30, reason: 'quick look only' } })
   expect(shortened.status, JSON.stringify(shortened.body)).toBe(200)
-  const cancelled = await book('cancelled', { operatoryId: room2, startUtc: startIn(60), items: [{ templateCode: 'EXAM-EMER' }] }, 4)
+  const cancelled = await book('cancelled', { operatoryId: room2, startUtc: startIn(380), items: [{ templateCode: 'EXAM-EMER' }] }, 4)
   const cancel = await admin.post(`/api/visits/${cancelled.id}/cancel`, { reason: 'Patient has the flu' })
   expect(cancel.status, JSON.stringify(cancel.body)).toBe(200)
 })

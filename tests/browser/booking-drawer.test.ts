@@ -32,15 +32,16 @@ beforeAll(async () => {
   const [userId] = await db('users').insert({ email: `test-offshift-${tag}@fernhollow.test`, name: offShiftName, role: 'dentist', password_hash: await hashPasswordOutsideServer('offshift-password') })
   await db('user_sites').insert({ user_id: userId, site_id: annex.siteId })
   await db('providers').insert({ user_id: userId, capabilities: '["restorative","exam"]' })
-  const row = await db('patients').where({ id: annex.patientIds[0] }).first('first_name', 'last_name')
-  patient = { id: annex.patientIds[0]!, first: row.first_name, last: row.last_name }
+  // A name no other test uses, so the type-ahead finds exactly this patient.
+  await db('patients').where({ id: annex.patientIds[0] }).update({ first_name: 'Wrenna', last_name: `Quillfeather${tag}` })
+  patient = { id: annex.patientIds[0]!, first: 'Wrenna', last: `Quillfeather${tag}` }
 })
 afterAll(async () => { await closeTestDb() })
 
 async function clickSlot(page: Page, column: number, date: string, time: string) {
   const lane = page.locator(`td.fc-timegrid-slot-lane[data-time="${time}:00"]`)
   await lane.scrollIntoViewIfNeeded()
-  const col = await page.locator(`td.fc-timegrid-col`).nth(column).boundingBox()
+  const col = await page.locator(`td.fc-timegrid-col[data-date]`).nth(column).boundingBox()
   const slot = await lane.boundingBox()
   expect(date).toBeTruthy()
   await page.mouse.click(col!.x + col!.width / 2, slot!.y + 3)

@@ -73,8 +73,9 @@ for (const viewport of [{ width: 1440, height: 900 }, { width: 1024, height: 768
       expect(await focusedVisit(page)).toBe(String(ids.early))
       await page.keyboard.press('ArrowRight')
       expect(await focusedVisit(page)).toBe(String(ids.beside))
+      // Back to the nearest visit in time in the first chair: the later one (4 h from now, the other 5 h).
       await page.keyboard.press('ArrowLeft')
-      expect(await focusedVisit(page)).toBe(String(ids.early))
+      expect(await focusedVisit(page)).toBe(String(ids.late))
     })
 
     it('Enter moves focus into the panel, whose targets are at least 24×24 px; Escape returns to the visit', async () => {
