@@ -63,6 +63,8 @@ export interface OpeningDto {
   endUtc: string
   startLocalIso: string
   timeZone: string
+  /** False for a site outside the caller's scope (shown with a whole-group search; booking there is refused). */
+  inScope: boolean
 }
 
 export interface OpeningsResponse {
