@@ -7,6 +7,8 @@ import type { UtcRange } from '#shared/utils/local-date'
 export interface VisitScope {
   siteId?: number
   providerId?: number
+  /** Cancelled visits too (the Chairboard's "Show cancelled"). */
+  includeCancelled?: 'true'
 }
 
 export function useVisitList(scope: Ref<VisitScope | null>, range: Ref<UtcRange>) {

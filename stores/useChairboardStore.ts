@@ -1,5 +1,6 @@
-// The Chairboard's shared state: which day is shown, which visit is selected, and the booking
-// drawer (open, and the slot it was opened from).
+// The Chairboard's shared state: which day is shown, which visit is selected (and highlighted after a
+// jump), whether cancelled visits show, the booking drawer (open, and the slot it was opened from), and
+// the last outcome shown beside the board (a notice, optionally with a "show it" jump).
 import { defineStore } from 'pinia'
 import { addDays, todayIn } from '#shared/utils/local-date'
 import type { DraftItem } from '~/composables/useVisitPlanPreview'
@@ -15,15 +16,35 @@ export interface DrawerPrefill {
   items: DraftItem[]
 }
 
+/** Where a notice can take the user: a site's day with one visit highlighted. */
+export interface NoticeJump {
+  label: string
+  siteId: number
+  date: string
+  visitId: number
+}
+
+export interface BoardNotice {
+  kind: 'error' | 'info'
+  text: string
+  jump?: NoticeJump
+  /** Counts up with every notice, so the same words said twice are announced twice. */
+  serial: number
+}
+
 export const useChairboardStore = defineStore('chairboard', () => {
   const session = useSessionStore()
   const zone = computed(() => session.selectedSite?.timeZone ?? 'UTC')
   const date = ref<string>(todayIn(zone.value))
   const selectedVisitId = ref<number | null>(null)
+  /** A visit the user jumped to from a notice: outlined on the board until another is chosen. */
+  const highlightedVisitId = ref<number | null>(null)
+  const showCancelled = ref(false)
   const drawerOpen = ref(false)
   const drawerSlot = ref<DrawerSlot>({ operatoryId: null, startUtc: null })
   const drawerPrefill = ref<DrawerPrefill | null>(null)
-  const notice = ref<{ kind: 'error' | 'info'; text: string } | null>(null)
+  const notice = ref<BoardNotice | null>(null)
+  let serial = 0
 
   function goToday() { date.value = todayIn(zone.value) }
   function step(days: number) { date.value = addDays(date.value, days) }
@@ -33,7 +54,11 @@ export const useChairboardStore = defineStore('chairboard', () => {
     drawerOpen.value = true
   }
   function closeDrawer() { drawerOpen.value = false }
-  function tell(kind: 'error' | 'info', text: string) { notice.value = { kind, text } }
+  function tell(kind: 'error' | 'info', text: string, jump?: NoticeJump) { notice.value = { kind, text, jump, serial: ++serial } }
+  function dismissNotice() { notice.value = null }
 
-  return { date, selectedVisitId, drawerOpen, drawerSlot, drawerPrefill, notice, zone, goToday, step, openDrawer, closeDrawer, tell }
+  return {
+    date, selectedVisitId, highlightedVisitId, showCancelled, drawerOpen, drawerSlot, drawerPrefill, notice, zone,
+    goToday, step, openDrawer, closeDrawer, tell, dismissNotice,
+  }
 })

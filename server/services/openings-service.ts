@@ -10,7 +10,7 @@ import { findOpenings, formatOpening } from '#shared/domain/openings'
 import { useDb, type Db } from '../utils/db'
 import { scheduleNowMs } from '../utils/clock'
 import { badRequest, rethrowDomainError } from '../utils/errors'
-import { requireSiteAccess } from '../utils/auth'
+import { canAccessSite, requireSiteAccess } from '../utils/auth'
 import { listSites } from '../repositories/sites'
 import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
 import { busySegments, providersByIds, type ProviderRow } from '../repositories/openings-inputs'
@@ -52,13 +52,13 @@ function openingsSite(search: SiteSearch): OpeningsSite {
   }
 }
 
-function toDto(opening: Opening, search: SiteSearch): OpeningDto {
+function toDto(opening: Opening, search: SiteSearch, inScope: boolean): OpeningDto {
   const times = formatOpening(opening, search.calendar.site.timeZone)
   return {
     siteId: opening.siteId, siteName: search.siteName,
     operatoryId: opening.operatoryId, operatoryName: search.calendar.operatoryDetails.find((room) => room.id === opening.operatoryId)?.name ?? '',
     providerId: opening.providerId, providerName: search.providers.find((provider) => provider.id === opening.providerId)?.name ?? '',
-    startUtc: times.startUtc, endUtc: times.endUtc, startLocalIso: times.startLocalIso, timeZone: times.timeZone,
+    startUtc: times.startUtc, endUtc: times.endUtc, startLocalIso: times.startLocalIso, timeZone: times.timeZone, inScope,
   }
 }
 
@@ -82,9 +82,11 @@ async function searchOneSite(db: Db, search: SiteSearch, request: OpeningsReques
 
 export async function searchOpenings(request: OpeningsRequest, user: SessionUser): Promise<OpeningsResponse> {
   const db = useDb()
-  const allowed = await listSites(db, user)
+  // A whole-group search (for the patient's convenience) looks at every active site; the others only
+  // at the caller's own. Booking still follows the caller's scope (POST /api/visits answers 403).
+  const allowed = await listSites(db, request.wholeGroup ? { allSites: true, siteIds: [] } : user)
   const chosen = request.siteIds ?? allowed.map((site) => site.id)
-  for (const siteId of chosen) requireSiteAccess(user, siteId)
+  if (!request.wholeGroup) for (const siteId of chosen) requireSiteAccess(user, siteId)
   const sites = allowed.filter((site) => chosen.includes(site.id))
   if (!sites.length) throw badRequest('siteIds', 'no such site')
 
@@ -94,5 +96,5 @@ export async function searchOpenings(request: OpeningsRequest, user: SessionUser
   const plan: VisitPlan = results[0]!.resolved.plan
   const reasons = found.length ? [] : [...new Set(results.flatMap((result) => result.reasons))]
   // Only the openings returned are put on the wall clock (each site finds up to `limit` of its own).
-  return { plan, openings: found.slice(0, request.limit).map(({ opening, search }) => toDto(opening, search)), reasons }
+  return { plan, openings: found.slice(0, request.limit).map(({ opening, search }) => toDto(opening, search, canAccessSite(user, opening.siteId))), reasons }
 }

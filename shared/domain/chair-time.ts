@@ -391,7 +391,7 @@ function explain(parts: ExplanationParts, plan: Omit<VisitPlan, 'explanation' | 
   if (parts.dismiss > 0) phrases.push(`dismissal ${parts.dismiss} min`)
   if (parts.turnover > 0) phrases.push(`room reset ${parts.turnover} min`)
   const spare = plan.chairMinutes - plan.rawMinutes
-  if (spare > 0) phrases.push(`${spare} min spare to fill the ${plan.unitMinutes}-min unit`)
+  if (spare > 0) phrases.push(`${spare} min added to round up to the ${plan.unitMinutes}-minute booking step`)
   const sentence = phrases.join('; ')
   const totals = `Chair ${plan.chairMinutes} min, provider ${plan.providerMinutes} min, assistant ${plan.assistantMinutes} min, numbing wait ${plan.numbingMinutes} min.`
   return `${sentence.charAt(0).toUpperCase()}${sentence.slice(1)}. ${totals}`
@@ -422,7 +422,7 @@ export function planVisit(items: PlanItemInput[], options: PlanOptions): VisitPl
 
   const rawMinutes = timeline.now
   const chairMinutes = roundUp(rawMinutes, options.unitMinutes)
-  timeline.add('reset', `Spare to fill the ${options.unitMinutes}-min unit`, chairMinutes - rawMinutes)
+  timeline.add('reset', `Rounded up to the ${options.unitMinutes}-minute booking step`, chairMinutes - rawMinutes)
 
   const totals = {
     chairMinutes,

@@ -81,6 +81,8 @@ export const OpeningsRequestSchema = z.object({
   partOfDay: z.enum(['morning', 'afternoon', 'any'], { error: 'must be morning, afternoon or any' }).default('any'),
   limit: z.number().int().min(1, 'must be at least 1').max(500, 'must be at most 500').default(10),
   fewestGaps: z.boolean().default(false),
+  /** Every active site of the group, those outside the caller's scope marked (`inScope: false`, not bookable by them). */
+  wholeGroup: z.boolean({ error: 'must be true or false' }).default(false),
 })
   .refine((request) => request.from <= request.to, { message: 'must not be before from', path: ['to'] })
   .refine((request) => !(inclusiveDays(request.from, request.to) > MAX_WINDOW_DAYS), { message: `search at most ${MAX_WINDOW_DAYS} days at once`, path: ['to'] })

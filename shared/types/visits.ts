@@ -69,12 +69,23 @@ export interface OpeningDto {
   endUtc: string
   startLocalIso: string
   timeZone: string
+  /** False for a site outside the caller's scope (shown with a whole-group search; booking there is refused). */
+  inScope: boolean
 }
 
 export interface OpeningsResponse {
   plan: VisitPlan
   openings: OpeningDto[]
   reasons: string[]
+}
+
+/** What the booking drawer hands the screen after a booking: the visit and, in words, who, when and where. */
+export interface BookedVisit {
+  visit: VisitDto
+  /** e.g. "Ada Lovelace, Tue 8 Dec 10:30, Room 2 at Fernhollow North, with Dr Ng". */
+  summary: string
+  /** The visit's local date at its site (yyyy-MM-dd), for a jump to that day. */
+  localDate: string
 }
 
 /** A visit as the Chairboard, My day and week views draw it. */

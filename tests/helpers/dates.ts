@@ -7,6 +7,7 @@ import { DEMO_CLOSED_MONTH_DAYS } from '../../seeds/01-sites'
 //   8 server/visit-list   9 browser/chairboard   10 server/balance   11–12 browser/balance   13 browser/my-day
 // Tests on a test-only site of their own (createAnnex, createMailAnnex) may use any week
 // (server/patients and server/patient-import book only at annexes of their own).
+//   (browser/board-ux and browser/keyboard book today on annexes; browser/booking-drawer 7–10 days ahead on annexes.)
 
 /** ISO weekday numbers, Monday = 1 … Sunday = 7 (luxon's and ISO 8601's numbering). */
 export const MONDAY = 1, TUESDAY = 2, WEDNESDAY = 3, THURSDAY = 4, FRIDAY = 5, SATURDAY = 6, SUNDAY = 7

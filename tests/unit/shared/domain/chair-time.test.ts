@@ -286,7 +286,7 @@ describe('planVisit: explanation', () => {
     expect(plan.explanation).toContain('anaesthetic for the lower left (block) 2 min then 10 min onset')
     expect(plan.explanation).toContain('wait 10 min for the lower left to go numb')
     expect(plan.explanation).toContain('Test composite, tooth 19 MO, 35 min')
-    expect(plan.explanation).toContain('5 min spare to fill the 10-min unit')
+    expect(plan.explanation).toContain('5 min added to round up to the 10-minute booking step')
     expect(plan.explanation).toContain('Chair 70 min, provider 37 min')
   })
 
