@@ -65,6 +65,11 @@ export default defineNuxtConfig({
       retryBaseSeconds: 30,
       retryMaxSeconds: 3600,
     },
+    // Text messages through the hosted SMS service's SDK (twilio). No account SID: texts are not sent
+    // (skipped with a reason). fakeUrl sends the SDK's requests to the local fake (scripts/sms-fake.ts);
+    // empty with real credentials talks to the real service. webhookBaseUrl: the address the service
+    // calls back and signs (default: mail.publicUrl).
+    sms: { accountSid: '', authToken: '', from: '', fakeUrl: '', webhookBaseUrl: '', defaultCountry: 'US' },
     // Demo seeding only (server/utils/clock.ts): minutes the booking clock is moved by.
     scheduleClockOffsetMinutes: 0,
   },

@@ -20,7 +20,8 @@ import { lockForBooking } from '../repositories/booking-locks'
 import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
 import { enqueueMessages } from '../repositories/outbox'
 import { dropQueuedReminders, reminderMessages } from './mail/reminders'
-import { findPatient } from '../repositories/patients'
+import { onChannels } from './sms/channels'
+import { findTextSite } from '../repositories/sms'
 import { writeAudit } from '../repositories/audit-log'
 import { findProviderIdOfUser } from '../repositories/providers'
 import { findSite } from '../repositories/sites'
@@ -50,27 +51,22 @@ interface VisitMail {
   patient: PatientDto | undefined
 }
 
-/** No consent, no e-mail (the dispatcher checks again at send time). */
-function mayMail(patient: PatientDto | undefined): boolean {
-  return Boolean(patient?.email && patient.emailConsent)
-}
-
-/** The patient's invitation or update and the visit's reminders, in one insert. */
+/** The patient's invitation or update and the visit's reminders, in one insert, on each channel the
+ * site uses for them and the patient can take (e-mail, text; the dispatcher checks again at send time). */
 async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: VisitMail): Promise<void> {
   // Reminders not yet sent belong to the old time: planned again below.
   if (kind === 'update') await dropQueuedReminders(db, visit.visitId)
-  if (!mayMail(visit.patient)) return
   const site = { id: visit.calendar.site.id, timeZone: visit.calendar.site.timeZone, settings: visit.calendar.settings }
-  await enqueueMessages(db, [
+  await enqueueMessages(db, await onChannels(db, visit.patient?.id, site.settings, [
     { kind, visitId: visit.visitId, siteId: site.id, dueAt: new Date(), payload: { visitId: visit.visitId } },
     ...reminderMessages({ visitId: visit.visitId, startMs: visit.startMs, site }),
-  ])
+  ]))
 }
 
 async function queueCancellationMail(db: Db, row: VisitRow): Promise<void> {
   await dropQueuedReminders(db, row.id)
-  if (!mayMail(await findPatient(db, row.patient_id))) return
-  await enqueueMessages(db, [{ kind: 'cancellation', visitId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { visitId: row.id } }])
+  const settings = (await findTextSite(db, row.site_id))?.settings ?? {}
+  await enqueueMessages(db, await onChannels(db, row.patient_id, settings, [{ kind: 'cancellation', visitId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { visitId: row.id } }]))
 }
 
 async function loaded(db: Db, id: number): Promise<VisitDto> {

@@ -11,7 +11,8 @@ import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { confirmVisit, loadMailContext, recordCancelRequest, type MailContext } from '../repositories/mail-context'
 import { replaceSegments, updateVisitIfVersion } from '../repositories/visits'
 import { writeAudit } from '../repositories/audit-log'
-import { enqueueMessage } from '../repositories/outbox'
+import { enqueueMessages } from '../repositories/outbox'
+import { onChannels } from './sms/channels'
 import { visitFacts } from './mail/visit-facts'
 import { methodFor, visitCalendar } from './mail/calendar'
 import { mailSettingsOf } from '#shared/domain/site-settings'
@@ -52,43 +53,52 @@ export async function publicVisit(token: string): Promise<PublicVisitDto> {
 }
 
 export async function confirmByPatient(token: string): Promise<PublicVisitDto> {
-  await inTransaction(async (trx) => {
-    const context = await visitOfToken(trx, token)
-    if (context.visit.state === 'confirmed') return
-    if (context.visit.state !== 'booked') throw conflict(`A ${context.visit.state} visit cannot be confirmed.`, { field: 'state' })
-    if (!(await confirmVisit(trx, context.visit.id, context.visit.rowVersion))) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
-    await writeAudit(trx, { userId: null, action: 'visit_confirmed', entity: 'visit', entityId: context.visit.id, before: { state: 'booked' }, after: { state: 'confirmed', by: 'patient link' } })
-  })
+  await inTransaction(async (trx) => confirmForPatient(trx, await visitOfToken(trx, token), 'patient link'))
   return publicVisit(token)
 }
 
-async function cancelAtOnce(db: Db, context: MailContext): Promise<void> {
+/** The patient confirms (by link or text reply, `by` says which): booked → confirmed, audited. */
+export async function confirmForPatient(trx: Db, context: MailContext, by: string): Promise<'confirmed' | 'already_confirmed'> {
+  if (context.visit.state === 'confirmed') return 'already_confirmed'
+  if (context.visit.state !== 'booked') throw conflict(`A ${context.visit.state} visit cannot be confirmed.`, { field: 'state' })
+  if (!(await confirmVisit(trx, context.visit.id, context.visit.rowVersion))) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
+  await writeAudit(trx, { userId: null, action: 'visit_confirmed', entity: 'visit', entityId: context.visit.id, before: { state: 'booked' }, after: { state: 'confirmed', by } })
+  return 'confirmed'
+}
+
+async function cancelAtOnce(db: Db, context: MailContext, reason: string): Promise<void> {
   const { visit } = context
   const changed = await updateVisitIfVersion(db, visit.id, visit.rowVersion, {
-    state: 'cancelled', cancel_reason: PATIENT_CANCEL_REASON, ical_sequence: visit.icalSequence + 1, cancel_requested_at: new Date(),
+    state: 'cancelled', cancel_reason: reason, ical_sequence: visit.icalSequence + 1, cancel_requested_at: new Date(),
   })
   if (!changed) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
   await replaceSegments(db, visit.id, [])
   await dropQueuedReminders(db, visit.id)
-  if (context.patient.email && context.patient.emailConsent) {
-    await enqueueMessage(db, { kind: 'cancellation', visitId: visit.id, siteId: context.site.id, dueAt: new Date(), payload: { visitId: visit.id } })
-  }
+  await enqueueMessages(db, await onChannels(db, context.patient.id, context.site.settings, [
+    { kind: 'cancellation', visitId: visit.id, siteId: context.site.id, dueAt: new Date(), payload: { visitId: visit.id } },
+  ]))
 }
 
 export async function requestCancelByPatient(token: string): Promise<PublicVisitDto> {
-  await inTransaction(async (trx) => {
-    const context = await visitOfToken(trx, token)
-    const { visit } = context
-    if (visit.state === 'cancelled' || visit.cancelRequestedAt) return
-    if (!canMoveToState(visit.state, 'cancelled') || (visit.state !== 'booked' && visit.state !== 'confirmed')) {
-      throw conflict(`A ${visit.state} visit cannot be cancelled from the link. Please call the practice.`, { field: 'state' })
-    }
-    const atOnce = mailSettingsOf(context.site.settings).patientCancel === 'cancel'
-    if (atOnce) await cancelAtOnce(trx, context)
-    else await recordCancelRequest(trx, visit.id)
-    await writeAudit(trx, { userId: null, action: atOnce ? 'visit_cancelled' : 'visit_cancel_requested', entity: 'visit', entityId: visit.id, before: { state: visit.state }, after: { by: 'patient link', reason: PATIENT_CANCEL_REASON } })
-  })
+  await inTransaction(async (trx) => requestCancelForPatient(trx, await visitOfToken(trx, token), { by: 'patient link', reason: PATIENT_CANCEL_REASON }))
   return publicVisit(token)
+}
+
+/**
+ * The patient asks to cancel (by link or text reply): the site's `patientCancel` policy records a
+ * request for the front desk or cancels at once. Audited.
+ */
+export async function requestCancelForPatient(trx: Db, context: MailContext, how: { by: string; reason: string }): Promise<'cancelled' | 'cancel_requested' | 'already'> {
+  const { visit } = context
+  if (visit.state === 'cancelled' || visit.cancelRequestedAt) return 'already'
+  if (!canMoveToState(visit.state, 'cancelled') || (visit.state !== 'booked' && visit.state !== 'confirmed')) {
+    throw conflict(`A ${visit.state} visit cannot be cancelled from the link. Please call the practice.`, { field: 'state' })
+  }
+  const atOnce = mailSettingsOf(context.site.settings).patientCancel === 'cancel'
+  if (atOnce) await cancelAtOnce(trx, context, how.reason)
+  else await recordCancelRequest(trx, visit.id)
+  await writeAudit(trx, { userId: null, action: atOnce ? 'visit_cancelled' : 'visit_cancel_requested', entity: 'visit', entityId: visit.id, before: { state: visit.state }, after: { by: how.by, reason: how.reason } })
+  return atOnce ? 'cancelled' : 'cancel_requested'
 }
 
 /** The current event for this visit: REQUEST while it stands, CANCEL once cancelled. */
