@@ -1,4 +1,10 @@
 // Nuxt configuration. Source folders live at the repository root (srcDir '.').
+import { fileURLToPath } from 'node:url'
+
+// Node 20.19+ loads these three (under twilio → axios → form-data → get-intrinsic) through their
+// "module-sync" export, require.mjs, which Nitro's file tracer does not follow; traced by hand.
+const MODULE_SYNC_FILES = ['async-function', 'generator-function', 'async-generator-function']
+  .map((name) => fileURLToPath(new URL(`./node_modules/${name}/require.mjs`, import.meta.url)))
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
@@ -75,6 +81,7 @@ export default defineNuxtConfig({
   },
   nitro: {
     experimental: { tasks: false },
+    externals: { traceInclude: MODULE_SYNC_FILES },
   },
   typescript: { strict: true },
 })

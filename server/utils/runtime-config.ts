@@ -71,8 +71,8 @@ const RuntimeConfigSchema = z.object({
     defaultCountry: z.unknown().refine((value) => typeof value === 'string' && /^[A-Z]{2}$/.test(value), 'must be a two-letter country code (ISO 3166-1 alpha-2), e.g. US'),
   }).superRefine((sms, context) => {
     // An account needs its token (every request and webhook signature uses it) and a sender.
-    if (sms.accountSid === '') return
-    if (!isText(sms.authToken) || String(sms.authToken).trim() === '') context.addIssue({ code: 'custom', path: ['authToken'], message: 'is required when NUXT_SMS_ACCOUNT_SID is set' })
+    if (typeof sms.accountSid !== 'string' || !/^AC[0-9a-fA-F]{32}$/.test(sms.accountSid)) return
+    if (typeof sms.authToken === 'string' && sms.authToken.trim() === '') context.addIssue({ code: 'custom', path: ['authToken'], message: 'is required when NUXT_SMS_ACCOUNT_SID is set' })
     if (sms.from === '') context.addIssue({ code: 'custom', path: ['from'], message: 'is required when NUXT_SMS_ACCOUNT_SID is set' })
   }),
   scheduleClockOffsetMinutes: anyNumber,
