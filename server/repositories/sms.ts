@@ -220,7 +220,8 @@ export async function textThreadOf(db: Db, visitId: number): Promise<TextThreadE
       const payload = parseJson<{ body?: string }>(row.payload, {})
       return {
         direction: 'out', id: row.id, kind: row.kind, text: rendered?.text ?? payload.body ?? null, state: row.state, status: row.provider_status,
-        at: (row.sent_at ?? row.created_at).toISOString(), note: row.state === 'sent' ? null : row.last_error,
+        // Waiting texts sit at the time they are due (a reminder days ahead comes after today's texts).
+        at: (row.sent_at ?? (row.state === 'queued' || row.state === 'sending' ? row.due_at : row.created_at)).toISOString(), note: row.state === 'sent' ? null : row.last_error,
       }
     }),
     ...replies.map((row): TextThreadEntry => ({
