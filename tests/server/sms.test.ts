@@ -191,6 +191,21 @@ describe('texts through the fake', () => {
     expect((await otherSite.get(`/api/visits/${id}/texts`)).status).toBe(403)
   })
 
+  it('sites choose the channels per kind (GET/PUT settings); a wrong channel is a 400 naming it', async () => {
+    const before = await desk.get(`/api/sites/${annex.siteId}/settings`)
+    expect(before.body.messageChannels).toEqual(ALL_TEXT)
+    const { messageChannels: _channels, ...rest } = before.body
+    const changed = await desk.put(`/api/sites/${annex.siteId}/settings`, { ...rest, messageChannels: { ...ALL_TEXT, reminder: ['sms'] } })
+    expect(changed.status).toBe(200)
+    expect(changed.body.messageChannels.reminder).toEqual(['sms'])
+    const wrong = await desk.put(`/api/sites/${annex.siteId}/settings`, { ...rest, messageChannels: { ...ALL_TEXT, reminder: ['fax'] } })
+    expect(wrong.status).toBe(400)
+    expect(JSON.stringify(wrong.body)).toContain('messageChannels.reminder.0')
+    // Left out, the stored choice stays.
+    expect((await desk.put(`/api/sites/${annex.siteId}/settings`, rest)).body.messageChannels.reminder).toEqual(['sms'])
+    await desk.put(`/api/sites/${annex.siteId}/settings`, { ...rest, messageChannels: ALL_TEXT })
+  })
+
   it('refuses forged webhook calls with 403 and changes nothing', async () => {
     const booked = await desk.post('/api/visits', bookingFor(annex, 0, atAhead(5, MONDAY, '09:00', ZONE)))
     const id = booked.body.id as number
