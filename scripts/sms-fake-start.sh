@@ -4,6 +4,10 @@
 set -euo pipefail
 source "$(dirname "$0")/lib/env.sh"
 cd "$ROOT"
+if [ -z "$NUXT_SMS_FAKE_URL" ]; then
+  log "NUXT_SMS_FAKE_URL is empty: texts go to the real SMS service; no SMS fake started"
+  exit 0
+fi
 mkdir -p "$SMS_DIR"
 port_open() { node -e "const s=require('net').connect(+process.argv[1],process.argv[2]);s.on('connect',()=>process.exit(0));s.on('error',()=>process.exit(1))" "$SMS_FAKE_PORT" "$SMS_FAKE_HOST"; }
 ours_running() {
