@@ -1,4 +1,10 @@
 // Nuxt configuration. Source folders live at the repository root (srcDir '.').
+import { fileURLToPath } from 'node:url'
+
+// Node 20.19+ loads these three (under twilio → axios → form-data → get-intrinsic) through their
+// "module-sync" export, require.mjs, which Nitro's file tracer does not follow; traced by hand.
+const MODULE_SYNC_FILES = ['async-function', 'generator-function', 'async-generator-function']
+  .map((name) => fileURLToPath(new URL(`./node_modules/${name}/require.mjs`, import.meta.url)))
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
@@ -71,11 +77,17 @@ export default defineNuxtConfig({
       retryBaseSeconds: 30,
       retryMaxSeconds: 3600,
     },
+    // Text messages through the hosted SMS service's SDK (twilio). No account SID: texts are not sent
+    // (skipped with a reason). fakeUrl sends the SDK's requests to the local fake (scripts/sms-fake.ts);
+    // empty with real credentials talks to the real service. webhookBaseUrl: the address the service
+    // calls back and signs (default: mail.publicUrl).
+    sms: { accountSid: '', authToken: '', from: '', fakeUrl: '', webhookBaseUrl: '', defaultCountry: 'US' },
     // Demo seeding only (server/utils/clock.ts): minutes the booking clock is moved by.
     scheduleClockOffsetMinutes: 0,
   },
   nitro: {
     experimental: { tasks: false },
+    externals: { traceInclude: MODULE_SYNC_FILES },
   },
   typescript: { strict: true },
 })

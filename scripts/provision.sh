@@ -6,4 +6,5 @@ here="$(dirname "$0")"
 bash "$here/ensure-node-modules.sh"
 bash "$here/db-start.sh"
 bash "$here/mail-start.sh"
+bash "$here/sms-fake-start.sh"
 bash "$here/with-env.sh" tsx scripts/db-migrate.ts latest

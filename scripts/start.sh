@@ -19,6 +19,7 @@ cat <<TXT
     dentist@fernhollow.test      dentist, Quarry Street and Saguaro Flats
     hygienist@fernhollow.test    hygienist, Aspen Gulch
   Mail catcher: smtp://$SMTP_HOST:$SMTP_PORT -> $MAIL_DIR
+  SMS fake: $NUXT_SMS_FAKE_URL -> $SMS_DIR (a reply: npm run sms:inject -- --from +1… --body C)
   MariaDB: $DB_HOST:$DB_PORT (stop it with: npm run db:stop)
 
 TXT

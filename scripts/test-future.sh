@@ -13,8 +13,9 @@ OFFSET="${FUTURE_OFFSET:-+365d}"
 export DATA_DIR="${FUTURE_DATA_DIR:-$ROOT/.data/future}"
 export DB_PORT="${FUTURE_DB_PORT:-$(( ${DB_PORT:-3307} + 100 ))}"
 export SMTP_PORT="${FUTURE_SMTP_PORT:-$(( ${SMTP_PORT:-1025} + 100 ))}"
-export FUTURE_DATA_DIR="$DATA_DIR" FUTURE_DB_PORT="$DB_PORT" FUTURE_SMTP_PORT="$SMTP_PORT" # the same in the second stage
-unset DB_SOCKET MAIL_DIR DB_PASSWORD NUXT_SESSION_PASSWORD NUXT_MAIL_LINK_SECRET
+export SMS_FAKE_PORT="${FUTURE_SMS_FAKE_PORT:-$(( ${SMS_FAKE_PORT:-4010} + 100 ))}"
+export FUTURE_DATA_DIR="$DATA_DIR" FUTURE_DB_PORT="$DB_PORT" FUTURE_SMTP_PORT="$SMTP_PORT" FUTURE_SMS_FAKE_PORT="$SMS_FAKE_PORT" # the same in the second stage
+unset DB_SOCKET MAIL_DIR SMS_DIR DB_PASSWORD NUXT_SESSION_PASSWORD NUXT_MAIL_LINK_SECRET NUXT_SMS_AUTH_TOKEN NUXT_SMS_ACCOUNT_SID NUXT_SMS_FAKE_URL
 source "$ROOT/scripts/lib/env.sh"
 
 if ! command -v faketime >/dev/null 2>&1; then
@@ -27,6 +28,10 @@ stop_future_services() {
   if [ -s "$DATA_DIR/mail-catcher.pid" ]; then
     kill "$(cat "$DATA_DIR/mail-catcher.pid")" >/dev/null 2>&1 || true
     rm -f "$DATA_DIR/mail-catcher.pid"
+  fi
+  if [ -s "$DATA_DIR/sms-fake.pid" ]; then
+    kill "$(cat "$DATA_DIR/sms-fake.pid")" >/dev/null 2>&1 || true
+    rm -f "$DATA_DIR/sms-fake.pid"
   fi
 }
 

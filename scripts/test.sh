@@ -8,6 +8,7 @@ bash scripts/ensure-node-modules.sh
 bash scripts/ensure-chromium.sh
 bash scripts/db-start.sh
 bash scripts/mail-start.sh
+bash scripts/sms-fake-start.sh
 log "resetting $DB_NAME"
 mariadb --no-defaults --protocol=socket --socket="$DB_SOCKET" -uroot \
   -e "DROP DATABASE IF EXISTS \`$DB_NAME\`; CREATE DATABASE \`$DB_NAME\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;"

@@ -11,6 +11,10 @@ export DB_SOCKET="${DB_SOCKET:-$DATA_DIR/mariadb.sock}"
 export SMTP_HOST="${SMTP_HOST:-127.0.0.1}"
 export SMTP_PORT="${SMTP_PORT:-1025}"
 export MAIL_DIR="${MAIL_DIR:-$DATA_DIR/mail}"
+# The local stand-in for the hosted SMS service (scripts/sms-fake.ts), one JSON file per message.
+export SMS_FAKE_HOST="${SMS_FAKE_HOST:-127.0.0.1}"
+export SMS_FAKE_PORT="${SMS_FAKE_PORT:-4010}"
+export SMS_DIR="${SMS_DIR:-$DATA_DIR/sms}"
 export HOST="${HOST:-127.0.0.1}"
 export PORT="${PORT:-3000}"
 export NUXT_TELEMETRY_DISABLED=1
@@ -41,6 +45,13 @@ NUXT_MAIL_INBOUND_SECRET="${NUXT_MAIL_INBOUND_SECRET:-$(secret_file mail-inbound
 export NUXT_MAIL_INBOUND_SECRET
 # Where the catcher posts the replies it receives (the app started by npm start / npm run dev).
 export INBOUND_MAIL_URL="${INBOUND_MAIL_URL:-http://$HOST:$PORT/api/inbound/mail}"
+# Text messages: the local fake's account (the app and the fake share the token, as an account and
+# the real service do). With real credentials set and NUXT_SMS_FAKE_URL empty the app talks to the real service.
+NUXT_SMS_AUTH_TOKEN="${NUXT_SMS_AUTH_TOKEN:-$(secret_file sms-auth-token | cut -c1-32)}"
+NUXT_SMS_ACCOUNT_SID="${NUXT_SMS_ACCOUNT_SID:-AC$(secret_file sms-account | cut -c1-32)}"
+export NUXT_SMS_AUTH_TOKEN NUXT_SMS_ACCOUNT_SID
+export NUXT_SMS_FROM="${NUXT_SMS_FROM:-+12095550100}"
+export NUXT_SMS_FAKE_URL="${NUXT_SMS_FAKE_URL-http://$SMS_FAKE_HOST:$SMS_FAKE_PORT}"
 
 # What the app reads (runtimeConfig is overridden by NUXT_* variables).
 export NUXT_DB_HOST="$DB_HOST" NUXT_DB_PORT="$DB_PORT" NUXT_DB_USER="$DB_USER"

@@ -3,9 +3,12 @@
 // multipart/form-data or text/plain without a CORS preflight, but never application/json
 // (Fetch standard, "CORS-safelisted request-header"), so this also backs the origin check.
 // A request with no body (a sign-out, a confirm) may pass whatever its Content-Type says.
+// The SMS service's webhooks post forms by design; they carry no cookie credential and are accepted
+// only with the service's signature (server/utils/sms-webhook.ts), so a forged form gets nothing.
 import { MESSAGES } from '../utils/errors'
 
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
+const SIGNED_FORM_ROUTES = new Set(['/api/sms/status', '/api/sms/inbound'])
 const JSON_TYPE = /^application\/(?:[\w.+-]+\+)?json\s*(?:;|$)/i
 // Two routes that outside senders post to in their own format: a mail client's one-click unsubscribe
 // (RFC 8058 §3.1: a form body, no cookies, no Origin), and the inbound-mail webhook (a raw message,
@@ -24,6 +27,7 @@ function hasBody(headers: Record<string, string | string[] | undefined>): boolea
 export default defineEventHandler((event) => {
   if (!STATE_CHANGING.has(event.method) || !event.path.startsWith('/api/')) return
   if (!hasBody(event.node.req.headers)) return
+  if (SIGNED_FORM_ROUTES.has(event.path.split('?')[0]!)) return
   const type = getRequestHeader(event, 'content-type') ?? ''
   if (JSON_TYPE.test(type)) return
   if (OWN_FORMATS.some(([path, allowed]) => path.test(event.path) && allowed.test(type))) return

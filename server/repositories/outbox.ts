@@ -5,12 +5,15 @@ import { escapeLike } from './patients'
 import type { Db } from '../utils/db'
 import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
 import { parseJson } from './json'
+import type { Channel } from '#shared/domain/sms-channels'
 
 export type { OutboxKind } from '#shared/types/outbox'
 
 export interface OutboxRow {
   id: number
   kind: OutboxKind
+  channel: Channel
+  provider_status: string | null
   visit_id: number | null
   site_id: number | null
   payload: string
@@ -32,11 +35,24 @@ export interface OutboxPayload {
   resendOf?: number
   /** Updates: what the patient sees that changed (issue 15), and the length they were told before. */
   change?: { time: boolean; length: boolean; what: boolean; minutesBefore?: number }
+  /** An e-mail sent because the text of this outbox row failed. */
+  fallbackOf?: number
+  /** Texts of the front desk and answers to replies: the words, who wrote them, the reply answered. */
+  body?: string
+  userId?: number
+  replyId?: number
+  /** Answers to replies: the number that wrote (E.164). */
+  to?: string
+  /** An answer to STOP goes out although the patient has just opted out. */
+  optOutNotice?: boolean
 }
 
 export interface NewOutboxMessage {
   kind: OutboxKind
-  visitId: number
+  /** 'email' when left out. */
+  channel?: Channel
+  /** null only for texts that answer a reply matching no visit. */
+  visitId: number | null
   siteId: number
   dueAt: Date
   payload: OutboxPayload
@@ -46,14 +62,14 @@ export interface NewOutboxMessage {
 export async function enqueueMessages(db: Db, messages: NewOutboxMessage[]): Promise<void> {
   if (!messages.length) return
   await db('outbox').insert(messages.map((message) => ({
-    kind: message.kind, visit_id: message.visitId, site_id: message.siteId,
+    kind: message.kind, channel: message.channel ?? 'email', visit_id: message.visitId, site_id: message.siteId,
     due_at: message.dueAt, payload: JSON.stringify(message.payload),
   })))
 }
 
 export async function enqueueMessage(db: Db, message: NewOutboxMessage): Promise<number> {
   const [id] = await db('outbox').insert({
-    kind: message.kind, visit_id: message.visitId, site_id: message.siteId,
+    kind: message.kind, channel: message.channel ?? 'email', visit_id: message.visitId, site_id: message.siteId,
     due_at: message.dueAt, payload: JSON.stringify(message.payload),
   })
   return id as number
@@ -139,6 +155,7 @@ interface ListedRow extends OutboxRow {
   first_name: string | null
   last_name: string | null
   email: string | null
+  phone: string | null
   start_utc: Date | null
 }
 
@@ -149,6 +166,7 @@ export interface OutboxFilter {
   state?: OutboxState
   patient?: string
   beforeId?: number
+  channel?: Channel
   limit: number
 }
 
@@ -156,13 +174,13 @@ function listQuery(db: Db) {
   return db('outbox')
     .leftJoin('visits', 'visits.id', 'outbox.visit_id')
     .leftJoin('patients', 'patients.id', 'visits.patient_id')
-    .select('outbox.*', 'patients.first_name', 'patients.last_name', 'patients.email', 'visits.start_utc')
+    .select('outbox.*', 'patients.first_name', 'patients.last_name', 'patients.email', 'patients.phone', 'visits.start_utc')
 }
 
 export function toOutboxDto(row: ListedRow): OutboxMessageDto {
   return {
-    id: row.id, kind: row.kind, state: row.state, visitId: row.visit_id, siteId: row.site_id,
-    patientName: row.first_name === null ? null : `${row.first_name} ${row.last_name}`, recipient: row.email,
+    id: row.id, kind: row.kind, channel: row.channel, providerStatus: row.provider_status, state: row.state, visitId: row.visit_id, siteId: row.site_id,
+    patientName: row.first_name === null ? null : `${row.first_name} ${row.last_name}`, recipient: row.channel === 'sms' ? row.phone : row.email,
     visitStartUtc: row.start_utc ? row.start_utc.toISOString() : null, dueAt: row.due_at.toISOString(),
     sentAt: row.sent_at ? row.sent_at.toISOString() : null, attempts: row.attempts, lastError: row.last_error, messageId: row.message_id,
   }
@@ -184,6 +202,7 @@ export async function listOutbox(db: Db, filter: OutboxFilter): Promise<OutboxMe
       }
     }
   }
+  if (filter.channel !== undefined) query.where('outbox.channel', filter.channel)
   return ((await query) as ListedRow[]).map(toOutboxDto)
 }
 

@@ -25,6 +25,8 @@ import { dropQueuedReminders, reminderMessages } from './mail/reminders'
 import { seenChange, seenVisitOf, type SeenVisit } from '#shared/domain/patient-time'
 import { mailSettingsOf } from '#shared/domain/site-settings'
 import { findPatient } from '../repositories/patients'
+import { onChannels } from './sms/channels'
+import { findTextSite } from '../repositories/sms'
 import { writeAudit } from '../repositories/audit-log'
 import { findProviderIdOfUser } from '../repositories/providers'
 import { findSite } from '../repositories/sites'
@@ -57,12 +59,8 @@ interface VisitMail {
   seen?: { before: SeenVisit; after: SeenVisit }
 }
 
-/** No consent, no e-mail (the dispatcher checks again at send time). */
-function mayMail(patient: PatientDto | undefined): boolean {
-  return Boolean(patient?.email && patient.emailConsent)
-}
-
-/** The patient's invitation or update and the visit's reminders, in one insert. */
+/** The patient's invitation or update and the visit's reminders, in one insert, on each channel the
+ * site uses for them and the patient can take (e-mail, text; the dispatcher checks again at send time). */
 async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: VisitMail): Promise<void> {
   // A change the patient cannot see (the chair, the provider, the room reset after they leave) sends
   // nothing, and the reminders planned for the same start stay.
@@ -70,19 +68,18 @@ async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: Visi
   if (kind === 'update' && change === null) return
   // Reminders not yet sent belong to the old time: planned again below.
   if (kind === 'update') await dropQueuedReminders(db, visit.visitId)
-  if (!mayMail(visit.patient)) return
   const site = { id: visit.calendar.site.id, timeZone: visit.calendar.site.timeZone, settings: visit.calendar.settings }
   const payload = change && visit.seen ? { visitId: visit.visitId, change: { ...change, minutesBefore: visit.seen.before.minutes } } : { visitId: visit.visitId }
-  await enqueueMessages(db, [
+  await enqueueMessages(db, await onChannels(db, visit.patient?.id, site.settings, [
     { kind, visitId: visit.visitId, siteId: site.id, dueAt: new Date(), payload },
     ...reminderMessages({ visitId: visit.visitId, startMs: visit.startMs, site }),
-  ])
+  ]))
 }
 
 async function queueCancellationMail(db: Db, row: VisitRow): Promise<void> {
   await dropQueuedReminders(db, row.id)
-  if (!mayMail(await findPatient(db, row.patient_id))) return
-  await enqueueMessages(db, [{ kind: 'cancellation', visitId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { visitId: row.id } }])
+  const settings = (await findTextSite(db, row.site_id))?.settings ?? {}
+  await enqueueMessages(db, await onChannels(db, row.patient_id, settings, [{ kind: 'cancellation', visitId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { visitId: row.id } }]))
 }
 
 async function loaded(db: Db, id: number): Promise<VisitDto> {

@@ -90,7 +90,7 @@ async function actOnReply(trx: Db, reply: CalendarReply, siteId: number | null):
   }
   if (reply.partstat === 'DECLINED') {
     try {
-      if (await patientAsksToCancel(trx, context, 'calendar reply')) return matched('declined: a cancel request for the front desk (or cancelled, by the site\'s policy)')
+      if (await patientAsksToCancel(trx, context, 'calendar reply') !== 'already') return matched('declined: a cancel request for the front desk (or cancelled, by the site\'s policy)')
     } catch {
       // A visit that cannot be cancelled from a link (arrived, in treatment, …): only noted.
     }

@@ -10,6 +10,7 @@ import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { enqueueMessage, findOutboxListed, listOutbox, payloadOf, renderedOf } from '../repositories/outbox'
 import { listCancelRequests, loadMailContext } from '../repositories/mail-context'
 import { renderFor } from './mail/dispatcher'
+import { textPreview } from './sms/text-dispatch'
 
 export async function listMessages(query: OutboxQuery, user: SessionUser): Promise<OutboxMessageDto[]> {
   if (query.siteId !== undefined) requireSiteAccess(user, query.siteId)
@@ -31,6 +32,7 @@ export async function messageDetail(id: number, user: SessionUser): Promise<Outb
   const { dto, row } = await visibleMessage(id, user)
   const stored = renderedOf(row)
   if (stored) return { ...dto, rendered: stored, preview: false }
+  if (row.channel === 'sms') return { ...dto, rendered: await textPreview(useDb(), row), preview: true }
   const context = row.visit_id === null ? undefined : await loadMailContext(useDb(), row.visit_id)
   if (!context || !context.patient.email) return { ...dto, rendered: null, preview: true }
   const { mail, smtp } = useRuntimeConfig()
@@ -46,7 +48,7 @@ export async function resendMessage(id: number, user: SessionUser): Promise<Outb
   const context = await loadMailContext(db, row.visit_id)
   if (!context) throw conflict('The visit of this message no longer exists.', { field: 'visitId' })
   const payload = { ...payloadOf(row), visitId: row.visit_id, resendOf: row.id, startUtc: context.visit.startUtc.toISOString() }
-  const newId = await enqueueMessage(db, { kind: row.kind, visitId: row.visit_id, siteId: row.site_id, dueAt: new Date(), payload })
+  const newId = await enqueueMessage(db, { kind: row.kind, channel: row.channel, visitId: row.visit_id, siteId: row.site_id, dueAt: new Date(), payload })
   return (await findOutboxListed(db, newId))!.dto
 }
 

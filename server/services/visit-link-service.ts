@@ -11,7 +11,8 @@ import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { confirmVisit, loadMailContext, recordCancelRequest, turnRemindersOff, type MailContext } from '../repositories/mail-context'
 import { replaceSegments, updateVisitIfVersion } from '../repositories/visits'
 import { writeAudit } from '../repositories/audit-log'
-import { enqueueMessage } from '../repositories/outbox'
+import { enqueueMessages } from '../repositories/outbox'
+import { onChannels } from './sms/channels'
 import { visitFacts } from './mail/visit-facts'
 import { methodFor, patientSpan, visitCalendar } from './mail/calendar'
 import { organizerOf } from './mail/dispatcher'
@@ -55,14 +56,17 @@ export async function publicVisit(token: string): Promise<PublicVisitDto> {
 }
 
 export async function confirmByPatient(token: string): Promise<PublicVisitDto> {
-  await inTransaction(async (trx) => {
-    const context = await visitOfToken(trx, token)
-    if (context.visit.state === 'confirmed') return
-    if (context.visit.state !== 'booked') throw conflict(`A ${context.visit.state} visit cannot be confirmed.`, { field: 'state' })
-    if (!(await confirmVisit(trx, context.visit.id, context.visit.rowVersion))) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
-    await writeAudit(trx, { userId: null, action: 'visit_confirmed', entity: 'visit', entityId: context.visit.id, before: { state: 'booked' }, after: { state: 'confirmed', by: 'patient link' } })
-  })
+  await inTransaction(async (trx) => confirmForPatient(trx, await visitOfToken(trx, token), 'patient link'))
   return publicVisit(token)
+}
+
+/** The patient confirms (by link or text reply, `by` says which): booked → confirmed, audited. */
+export async function confirmForPatient(trx: Db, context: MailContext, by: string): Promise<'confirmed' | 'already_confirmed'> {
+  if (context.visit.state === 'confirmed') return 'already_confirmed'
+  if (context.visit.state !== 'booked') throw conflict(`A ${context.visit.state} visit cannot be confirmed.`, { field: 'state' })
+  if (!(await confirmVisit(trx, context.visit.id, context.visit.rowVersion))) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
+  await writeAudit(trx, { userId: null, action: 'visit_confirmed', entity: 'visit', entityId: context.visit.id, before: { state: 'booked' }, after: { state: 'confirmed', by } })
+  return 'confirmed'
 }
 
 async function cancelAtOnce(db: Db, context: MailContext, reason: string): Promise<void> {
@@ -75,19 +79,19 @@ async function cancelAtOnce(db: Db, context: MailContext, reason: string): Promi
   if (!changed) throw conflict('The visit changed just now. Reload the page.', { field: 'rowVersion' })
   await replaceSegments(db, visit.id, [])
   await dropQueuedReminders(db, visit.id)
-  if (context.patient.email && context.patient.emailConsent) {
-    await enqueueMessage(db, { kind: 'cancellation', visitId: visit.id, siteId: context.site.id, dueAt: new Date(), payload: { visitId: visit.id } })
-  }
+  await enqueueMessages(db, await onChannels(db, context.patient.id, context.site.settings, [
+    { kind: 'cancellation', visitId: visit.id, siteId: context.site.id, dueAt: new Date(), payload: { visitId: visit.id } },
+  ]))
 }
 
 /**
- * The patient asks to cancel, through the link or by declining in their calendar (inbound-service):
- * a request for the front desk, or a cancellation at once where the site's `patientCancel` says so.
- * Returns false when there was nothing to do (already cancelled or asked).
+ * The patient asks to cancel, through the link, by declining in their calendar (inbound-service) or
+ * by a text reply (sms/webhook-service): a request for the front desk, or a cancellation at once where
+ * the site's `patientCancel` says so. 'already' when there was nothing to do (cancelled or asked).
  */
-export async function patientAsksToCancel(trx: Db, context: MailContext, by: string, note?: string): Promise<boolean> {
+export async function patientAsksToCancel(trx: Db, context: MailContext, by: string, note?: string): Promise<'cancelled' | 'cancel_requested' | 'already'> {
   const { visit } = context
-  if (visit.state === 'cancelled' || visit.cancelRequestedAt) return false
+  if (visit.state === 'cancelled' || visit.cancelRequestedAt) return 'already'
   if (!canMoveToState(visit.state, 'cancelled') || (visit.state !== 'booked' && visit.state !== 'confirmed')) {
     throw conflict(`A ${visit.state} visit cannot be cancelled from the link. Please call the practice.`, { field: 'state' })
   }
@@ -96,7 +100,7 @@ export async function patientAsksToCancel(trx: Db, context: MailContext, by: str
   if (atOnce) await cancelAtOnce(trx, context, reason.slice(0, 500))
   else await recordCancelRequest(trx, visit.id)
   await writeAudit(trx, { userId: null, action: atOnce ? 'visit_cancelled' : 'visit_cancel_requested', entity: 'visit', entityId: visit.id, before: { state: visit.state }, after: { by, reason: PATIENT_CANCEL_REASON, ...(note ? { note } : {}) } })
-  return true
+  return atOnce ? 'cancelled' : 'cancel_requested'
 }
 
 export async function requestCancelByPatient(token: string, note?: string): Promise<PublicVisitDto> {

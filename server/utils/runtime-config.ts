@@ -68,6 +68,19 @@ const RuntimeConfigSchema = z.object({
     retryBaseSeconds: aboveZero,
     retryMaxSeconds: aboveZero,
   }),
+  sms: z.object({
+    accountSid: z.unknown().refine((value) => value === '' || (typeof value === 'string' && /^AC[0-9a-fA-F]{32}$/.test(value)), 'must be empty (no texts) or an account SID: AC and 32 hexadecimal characters'),
+    authToken: text,
+    from: z.unknown().refine((value) => value === '' || (typeof value === 'string' && (/^\+[1-9]\d{6,14}$/.test(value) || /^MG[0-9a-fA-F]{32}$/.test(value))), 'must be an E.164 number (+ and digits) or a messaging service SID (MG…)'),
+    fakeUrl: z.unknown().refine((value) => value === '' || (typeof value === 'string' && isOrigin(value)), 'must be empty (the real service) or an http:// or https:// address'),
+    webhookBaseUrl: z.unknown().refine((value) => value === '' || (typeof value === 'string' && isOrigin(value)), 'must be empty (NUXT_MAIL_PUBLIC_URL) or an http:// or https:// address'),
+    defaultCountry: z.unknown().refine((value) => typeof value === 'string' && /^[A-Z]{2}$/.test(value), 'must be a two-letter country code (ISO 3166-1 alpha-2), e.g. US'),
+  }).superRefine((sms, context) => {
+    // An account needs its token (every request and webhook signature uses it) and a sender.
+    if (typeof sms.accountSid !== 'string' || !/^AC[0-9a-fA-F]{32}$/.test(sms.accountSid)) return
+    if (typeof sms.authToken === 'string' && sms.authToken.trim() === '') context.addIssue({ code: 'custom', path: ['authToken'], message: 'is required when NUXT_SMS_ACCOUNT_SID is set' })
+    if (sms.from === '') context.addIssue({ code: 'custom', path: ['from'], message: 'is required when NUXT_SMS_ACCOUNT_SID is set' })
+  }),
   scheduleClockOffsetMinutes: anyNumber,
 })
 
@@ -84,7 +97,7 @@ export function runtimeConfigProblems(config: unknown): string[] {
     const name = envNameOf(issue.path)
     let value: unknown = config
     for (const key of issue.path) value = (value as Record<PropertyKey, unknown> | undefined)?.[key]
-    const shown = /PASSWORD|SECRET/.test(name) || value === undefined ? '' : ` (got ${JSON.stringify(value)})`
+    const shown = /PASSWORD|SECRET|TOKEN/.test(name) || value === undefined ? '' : ` (got ${JSON.stringify(value)})`
     return `${name} ${issue.message}${shown}`
   })
 }

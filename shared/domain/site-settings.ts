@@ -2,6 +2,7 @@
 // booking notice. Pure: the server reads them, the Sites screen shows and edits them.
 import type { QuietHours } from './reminders'
 import type { PatientCancelPolicy } from '../types/outbox'
+import { messageChannelsOf, type MessageChannels } from './sms-channels'
 
 export interface MailSettings {
   reminderOffsetsHours: number[]
@@ -44,6 +45,8 @@ export function mailSettingsOf(settings: Record<string, unknown>): MailSettings 
 export interface SiteSettings extends MailSettings {
   /** How soon a visit may start, counted from now. */
   minimumNoticeMinutes: number
+  /** E-mail and / or text for each visit message (issue 18). */
+  messageChannels: MessageChannels
 }
 
 export const DEFAULT_MINIMUM_NOTICE_MINUTES = 60
@@ -53,5 +56,6 @@ export function siteSettingsOf(settings: Record<string, unknown>): SiteSettings 
   return {
     ...mailSettingsOf(settings),
     minimumNoticeMinutes: typeof notice === 'number' && Number.isInteger(notice) && notice >= 0 ? notice : DEFAULT_MINIMUM_NOTICE_MINUTES,
+    messageChannels: messageChannelsOf(settings),
   }
 }

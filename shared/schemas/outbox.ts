@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { IdSchema, plainText } from './common'
 import { OUTBOX_STATES } from '../types/outbox'
+import { CHANNELS } from '../domain/sms-channels'
 
 /** The most messages one Outbox page returns; older ones come with `beforeId`. */
 export const OUTBOX_PAGE_MAX = 500
@@ -9,6 +10,7 @@ export const OutboxQuerySchema = z.object({
   siteId: IdSchema.optional(),
   visitId: IdSchema.optional(),
   state: z.enum(OUTBOX_STATES, { error: `must be one of ${OUTBOX_STATES.join(', ')}` }).optional(),
+  channel: z.enum(CHANNELS, { error: `must be one of ${CHANNELS.join(', ')}` }).optional(),
   /** A patient's name (each word starts a first or last name) or part of their e-mail address. */
   patient: plainText(z.string({ error: 'must be text' }).trim().min(2, 'type at least 2 characters').max(100, 'is too long')).optional(),
   /** Paging cursor: only messages older than this one (its id), newest first. */

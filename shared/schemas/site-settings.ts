@@ -2,6 +2,10 @@
 import { z } from 'zod'
 import { LocalTimeSchema } from './local-time'
 import { plainText } from './common'
+import { CHANNELS } from '../domain/sms-channels'
+
+const channelList = z.array(z.enum(CHANNELS, { error: `must be ${CHANNELS.join(' or ')}` })).max(CHANNELS.length, 'lists a channel twice')
+  .refine((channels) => new Set(channels).size === channels.length, 'lists a channel twice')
 
 const wholeMinutes = (max: number, what: string) => z.number({ error: 'must be a number' }).int('must be whole minutes').min(0, 'cannot be negative').max(max, `must be at most ${max} minutes (${what})`)
 
@@ -17,5 +21,7 @@ export const SiteSettingsSchema = z.object({
   patientCancel: z.enum(['request', 'cancel'], { error: "must be 'request' or 'cancel'" }),
   whatToBring: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(300, 'must be at most 300 characters')),
   alarmMinutes: wholeMinutes(1_440, 'a day').min(5, 'must be at least 5 minutes'),
+  /** Left out: the stored choice stays. */
+  messageChannels: z.object({ invitation: channelList, update: channelList, cancellation: channelList, reminder: channelList }).optional(),
 })
 export type SiteSettingsBody = z.infer<typeof SiteSettingsSchema>

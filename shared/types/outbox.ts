@@ -1,7 +1,9 @@
 // Patient e-mails as the Outbox screen and the public visit page see them.
 import type { VisitState } from '../domain/visit-states'
+import type { Channel } from '../domain/sms-channels'
 
-export const OUTBOX_KINDS = ['invitation', 'update', 'cancellation', 'reminder'] as const
+/** The four visit messages, then two that are texts only: a front desk's own text and the answer to a patient's reply. */
+export const OUTBOX_KINDS = ['invitation', 'update', 'cancellation', 'reminder', 'free_text', 'reply_confirmation'] as const
 export type OutboxKind = (typeof OUTBOX_KINDS)[number]
 export const OUTBOX_STATES = ['queued', 'sending', 'sent', 'failed', 'skipped'] as const
 export type OutboxState = (typeof OUTBOX_STATES)[number]
@@ -9,7 +11,11 @@ export type OutboxState = (typeof OUTBOX_STATES)[number]
 export interface OutboxMessageDto {
   id: number
   kind: OutboxKind
+  /** 'email' or 'sms' (a text message). */
+  channel: Channel
   state: OutboxState
+  /** Texts: the service's last reported status (queued, sent, delivered, failed, undelivered). */
+  providerStatus: string | null
   visitId: number | null
   siteId: number | null
   patientName: string | null
@@ -22,7 +28,7 @@ export interface OutboxMessageDto {
   messageId: string | null
 }
 
-/** The message as sent (or, while queued, as it would be sent now). */
+/** The message as sent (or, while queued, as it would be sent now). A text has `to` and `text` only, the rest empty. */
 export interface RenderedMessage {
   to: string
   subject: string

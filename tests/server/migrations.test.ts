@@ -38,13 +38,13 @@ describe('migrations', () => {
     await scratch.migrate.latest(migratorConfig)
     expect(await tableNames(scratch)).toEqual([
       'audit_log', 'blocks', 'idempotency_keys', 'inbound_mail', 'operatories', 'outbox', 'patient_import_mappings', 'patient_imports', 'patient_merges', 'patients', 'procedure_templates',
-      'providers', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites', 'user_sites', 'users',
+      'providers', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites', 'sms_replies', 'user_sites', 'users',
       'visit_segments', 'visits',
     ])
     await scratch.migrate.rollback(migratorConfig, true)
     expect(await tableNames(scratch)).toEqual([])
     await scratch.migrate.latest(migratorConfig)
-    expect((await tableNames(scratch)).length).toBe(20)
+    expect((await tableNames(scratch)).length).toBe(21)
   })
 
   it('renames appointments to visits, carrying rows written before the rename', async () => {

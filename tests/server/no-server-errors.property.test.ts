@@ -75,10 +75,10 @@ const CREATE_GUARDS: Record<string, ZodType> = {
   'POST /api/users': StaffSchema,
   'POST /api/auth/login': SignInSchema,
 }
-/** Writes that change nothing stored: any body may go. */
-// The inbound-mail webhook refuses every post without the shared secret's signature (401), so the fuzz
-// never stores anything there either.
-const READ_ONLY_POSTS = new Set(['POST /api/openings', 'POST /api/chair-time', 'POST /api/inbound/mail'])
+/** Writes that change nothing stored: any body may go. The inbound-mail webhook refuses every post
+ * without the shared secret's signature (401), and the SMS service's webhooks change nothing without
+ * its signature (X-Twilio-Signature, made with the account's token); the fuzz can make neither. */
+const READ_ONLY_POSTS = new Set(['POST /api/openings', 'POST /api/chair-time', 'POST /api/inbound/mail', 'POST /api/sms/status', 'POST /api/sms/inbound'])
 
 // ─── Values ───────────────────────────────────────────────────────────────────────────────────
 

@@ -1,5 +1,6 @@
 // One round of the outbox dispatcher: claim due rows (FOR UPDATE SKIP LOCKED, leased), check each
 // again (consent, visit state, a reminder still for this start), send over SMTP, record the result.
+// Rows of channel 'sms' go to the text sender (../sms/text-dispatch.ts) after the same claim.
 // Failures wait with exponential backoff and jitter; after maxAttempts a row is 'failed'.
 import type { Db } from '../../utils/db'
 import { inTransaction } from '../../utils/db-retry'
@@ -13,6 +14,7 @@ import { loadMailContext, type MailContext } from '../../repositories/mail-conte
 import { composeMessage, type ComposedMessage } from './compose'
 import { patientLinks, visitToken } from './links'
 import { useLogger } from '../../utils/logger'
+import { sendTextRow } from '../sms/text-dispatch'
 
 export interface DispatchSettings {
   batchSize: number
@@ -39,6 +41,11 @@ export function reasonToSkip(row: OutboxRow, context: MailContext | undefined, n
   if (!context) return 'the visit no longer exists'
   if (!context.patient.email) return 'the patient has no e-mail address'
   if (!context.patient.emailConsent) return 'the patient has not agreed to e-mail'
+  return reasonToSkipForVisit(row, context, nowMs)
+}
+
+/** The visit's side of it, the same for e-mail and texts: its state, a stale reminder, a start gone by. */
+export function reasonToSkipForVisit(row: OutboxRow, context: MailContext, nowMs: number): string | null {
   const live = !isClosed(context.visit.state)
   if (row.kind === 'cancellation') {
     if (context.visit.state !== 'cancelled') return 'the visit is no longer cancelled'
@@ -86,7 +93,7 @@ function describe(error: unknown): string {
   return String(error)
 }
 
-async function retryOrGiveUp(db: Db, row: OutboxRow, error: unknown, settings: DispatchSettings, round: DispatchRound): Promise<void> {
+export async function retryOrGiveUp(db: Db, row: OutboxRow, error: unknown, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   const message = describe(error)
   if (givesUp(row.attempts, settings.retry)) {
     await markFailed(db, row, message)
@@ -130,6 +137,9 @@ export async function dispatchOnce(db: Db, transporter: Transporter, settings: D
   const rows = await inTransaction((trx) => claimDueMessages(trx, { limit: settings.batchSize, leaseSeconds: settings.leaseSeconds, lane: settings.lane }))
   const round: DispatchRound = { claimed: rows.length, sent: 0, skipped: 0, retried: 0, failed: 0 }
   // One at a time over the pooled connection; a round ends well inside the lease.
-  for (const row of rows) await sendOne(db, transporter, row, settings, round)
+  for (const row of rows) {
+    if (row.channel === 'sms') await sendTextRow(db, row, settings, round)
+    else await sendOne(db, transporter, row, settings, round)
+  }
   return round
 }

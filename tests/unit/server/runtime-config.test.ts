@@ -17,6 +17,7 @@ function config() {
     smtp: { host: '127.0.0.1', port: 1025, secure: false, user: '', password: '', from: '' },
     mail: { linkSecret: SECRET, publicUrl: 'http://127.0.0.1:3000', replyAddress: 'replies+{site}@cuspline.test', inboundSecret: '' },
     outbox: { dispatcher: true, lane: '', pollMs: 2000, batchSize: 20, leaseSeconds: 120, maxAttempts: 8, retryBaseSeconds: 30, retryMaxSeconds: 3600 },
+    sms: { accountSid: '', authToken: '', from: '', fakeUrl: '', webhookBaseUrl: '', defaultCountry: 'US' },
     scheduleClockOffsetMinutes: 0,
     public: {},
   }
@@ -64,6 +65,26 @@ describe('runtime config checks', () => {
     expect(runtimeConfigProblems(wrong)).toEqual([
       'NUXT_DB_PASSWORD is required',
       'NUXT_MAIL_LINK_SECRET must be at least 32 characters',
+    ])
+  })
+
+  it('text messages: off without an account; an account needs its token and sender', () => {
+    const local = config()
+    local.sms = { accountSid: `AC${'0a'.repeat(16)}`, authToken: 'f'.repeat(32), from: '+12095550100', fakeUrl: 'http://127.0.0.1:4010', webhookBaseUrl: '', defaultCountry: 'US' }
+    expect(runtimeConfigProblems(local)).toEqual([])
+    const half = config()
+    half.sms = { ...half.sms, accountSid: `AC${'0a'.repeat(16)}` }
+    expect(runtimeConfigProblems(half)).toEqual([
+      'NUXT_SMS_AUTH_TOKEN is required when NUXT_SMS_ACCOUNT_SID is set',
+      'NUXT_SMS_FROM is required when NUXT_SMS_ACCOUNT_SID is set (got "")',
+    ])
+    const wrong = config()
+    wrong.sms = { ...wrong.sms, accountSid: 'AC123', from: '2095550100', fakeUrl: 'localhost:4010', defaultCountry: 'usa' }
+    expect(runtimeConfigProblems(wrong)).toEqual([
+      'NUXT_SMS_ACCOUNT_SID must be empty (no texts) or an account SID: AC and 32 hexadecimal characters (got "AC123")',
+      'NUXT_SMS_FROM must be an E.164 number (+ and digits) or a messaging service SID (MG…) (got "2095550100")',
+      'NUXT_SMS_FAKE_URL must be empty (the real service) or an http:// or https:// address (got "localhost:4010")',
+      'NUXT_SMS_DEFAULT_COUNTRY must be a two-letter country code (ISO 3166-1 alpha-2), e.g. US (got "usa")',
     ])
   })
 

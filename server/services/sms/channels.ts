@@ -1,0 +1,27 @@
+// The channels a patient message goes out on: the site's choice per kind (messageChannels in
+// sites.settings, shared/domain/sms-channels.ts), narrowed to what the patient can take (e-mail with
+// consent; a text with consent, a number that reads as E.164 and no STOP). Called inside the
+// booking and cancel transactions; the dispatcher checks again at send time.
+import type { Db } from '../../utils/db'
+import type { NewOutboxMessage } from '../../repositories/outbox'
+import { findTextPatient } from '../../repositories/sms'
+import { channelsFor, type ChannelKind } from '#shared/domain/sms-channels'
+import { toE164 } from '#shared/domain/sms-phone'
+import type { CountryCode } from 'libphonenumber-js'
+import { smsConfig } from '../../utils/sms-client'
+
+export async function textReachOf(db: Db, patientId: number): Promise<{ email: boolean; sms: boolean }> {
+  const patient = await findTextPatient(db, patientId)
+  if (!patient) return { email: false, sms: false }
+  return {
+    email: Boolean(patient.email && patient.emailConsent),
+    sms: patient.smsConsent && !patient.smsOptedOutAt && toE164(patient.phone, smsConfig().defaultCountry as CountryCode) !== null,
+  }
+}
+
+/** Each message once per channel the site uses for its kind and the patient can take. */
+export async function onChannels(db: Db, patientId: number | undefined, siteSettings: Record<string, unknown>, messages: NewOutboxMessage[]): Promise<NewOutboxMessage[]> {
+  if (patientId === undefined || !messages.length) return []
+  const reach = await textReachOf(db, patientId)
+  return messages.flatMap((message) => channelsFor(message.kind as ChannelKind, siteSettings, reach).map((channel) => ({ ...message, channel })))
+}

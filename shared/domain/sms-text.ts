@@ -1,0 +1,51 @@
+// The text-message form of each patient message: short, the site's name, the local date and time,
+// and the signed link to the visit page. Never a procedure, tooth or surface (HHS OCR guidance on
+// appointment reminders: minimum necessary, 45 CFR 164.502(b)).
+
+export type TextKind = 'invitation' | 'update' | 'cancellation' | 'reminder'
+
+export interface TextFacts {
+  siteName: string
+  sitePhone: string
+  /** "Mon 11 Jan, 9:00 AM", in the site's zone */
+  when: string
+  link: string
+}
+
+export function visitText(kind: TextKind, facts: TextFacts): string {
+  switch (kind) {
+    case 'invitation':
+      return `${facts.siteName}: your visit is booked for ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
+    case 'update':
+      return `${facts.siteName}: your visit has moved to ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
+    case 'cancellation':
+      return `${facts.siteName}: your visit on ${facts.when} is cancelled. Call ${facts.sitePhone} to book again.`
+    case 'reminder':
+      return `${facts.siteName}: reminder of your visit on ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
+  }
+}
+
+export type ReplyOutcome = 'confirmed' | 'already_confirmed' | 'cancel_requested' | 'cancelled' | 'opted_out' | 'opted_in' | 'unanswered' | 'no_visit'
+
+/** The short answer to a patient's reply. */
+export function replyConfirmationText(outcome: ReplyOutcome, facts: { siteName: string; sitePhone: string; when: string | null }): string {
+  const on = facts.when ? ` on ${facts.when}` : ''
+  switch (outcome) {
+    case 'confirmed':
+    case 'already_confirmed':
+      return `${facts.siteName}: thank you, your visit${on} is confirmed.`
+    case 'cancel_requested':
+      return `${facts.siteName}: thank you, we have your request to cancel your visit${on}. We will be in touch.`
+    case 'cancelled':
+      return `${facts.siteName}: your visit${on} is cancelled. Call ${facts.sitePhone} to book again.`
+    case 'opted_out':
+      return `${facts.siteName}: you will get no more texts from us. Reply START to get them again.`
+    case 'opted_in':
+      return `${facts.siteName}: texts are on again. Reply STOP to stop them.`
+    case 'no_visit':
+      return `${facts.siteName}: we found no visit waiting for your answer. Please call ${facts.sitePhone}.`
+    case 'unanswered':
+      return `${facts.siteName}: thank you, the front desk has your message.`
+  }
+}
+
