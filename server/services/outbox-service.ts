@@ -1,5 +1,6 @@
 // The Outbox screen: patient e-mails of the caller's sites, each as sent (or as it would be sent
 // now), and "resend", which queues a fresh copy so the history of the first one stays.
+import { VISIT_STATE_LABELS } from '#shared/domain/visit-states'
 import type { SessionUser } from '#shared/types/auth'
 import type { CancelRequestDto, OutboxDetailDto, OutboxMessageDto } from '#shared/types/outbox'
 import type { OutboxQuery } from '#shared/schemas/outbox'
@@ -47,6 +48,10 @@ export async function resendMessage(id: number, user: SessionUser): Promise<Outb
   const db = useDb()
   const context = await loadMailContext(db, row.visit_id)
   if (!context) throw conflict('The visit of this message no longer exists.', { field: 'visitId' })
+  // Only a cancellation goes out again for a visit that is over or cancelled: there is nothing to invite to or remind of.
+  if (row.kind !== 'cancellation' && context.visit.state !== 'booked' && context.visit.state !== 'confirmed') {
+    throw conflict(`The visit is ${VISIT_STATE_LABELS[context.visit.state].toLowerCase()}: this message is not sent again.`, { field: 'state', state: context.visit.state })
+  }
   const payload = { ...payloadOf(row), visitId: row.visit_id, resendOf: row.id, startUtc: context.visit.startUtc.toISOString() }
   const newId = await enqueueMessage(db, { kind: row.kind, channel: row.channel, visitId: row.visit_id, siteId: row.site_id, dueAt: new Date(), payload })
   return (await findOutboxListed(db, newId))!.dto
