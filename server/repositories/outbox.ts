@@ -30,13 +30,16 @@ export interface OutboxPayload {
   startUtc?: string
   offsetHours?: number
   resendOf?: number
+  /** Offers (issue 17): the offer the e-mail is about. */
+  offerId?: number
   /** Updates: what the patient sees that changed (issue 15), and the length they were told before. */
   change?: { time: boolean; length: boolean; what: boolean; minutesBefore?: number }
 }
 
 export interface NewOutboxMessage {
   kind: OutboxKind
-  visitId: number
+  /** Null for a waitlist offer (payload.offerId), which has no visit yet. */
+  visitId: number | null
   siteId: number
   dueAt: Date
   payload: OutboxPayload

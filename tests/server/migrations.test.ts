@@ -38,8 +38,8 @@ describe('migrations', () => {
     await scratch.migrate.latest(migratorConfig)
     expect(await tableNames(scratch)).toEqual([
       'audit_log', 'blocks', 'idempotency_keys', 'inbound_mail', 'operatories', 'outbox', 'patient_import_mappings', 'patient_imports', 'patient_merges', 'patients', 'procedure_templates',
-      'providers', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites', 'user_sites', 'users',
-      'visit_segments', 'visits',
+      'offers', 'providers', 'recalls', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites', 'user_sites', 'users',
+      'visit_segments', 'visits', 'waitlist_entries',
     ])
     await scratch.migrate.rollback(migratorConfig, true)
     expect(await tableNames(scratch)).toEqual([])

@@ -13,6 +13,8 @@ import { loadMailContext, type MailContext } from '../../repositories/mail-conte
 import { composeMessage, type ComposedMessage } from './compose'
 import { patientLinks, visitToken } from './links'
 import { useLogger } from '../../utils/logger'
+import { offerMailFacts } from '../offer-service'
+import { composeOfferMail } from './offer-mail'
 
 export interface DispatchSettings {
   batchSize: number
@@ -101,6 +103,20 @@ async function retryOrGiveUp(db: Db, row: OutboxRow, error: unknown, settings: D
 async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   let sent: { messageId: string; rendered: ComposedMessage['rendered'] }
   try {
+    if (row.kind === 'offer') {
+      // A waitlist offer (issue 17) has no visit: its own facts and composer.
+      const offer = await offerMailFacts(db, payloadOf(row).offerId ?? 0, settings.publicUrl, settings.linkSecret)
+      if ('skip' in offer) {
+        await markSkipped(db, row, offer.skip!)
+        round.skipped += 1
+        return
+      }
+      const messageId = row.message_id ?? newMessageId(row, settings.from || offer.facts.site.email)
+      if (!row.message_id && !(await fixMessageId(db, row, messageId))) return
+      const composed = composeOfferMail(offer.facts, { from: settings.from, messageId })
+      const info = await transporter.sendMail(composed.mail)
+      sent = { messageId: String(info.messageId ?? ''), rendered: composed.rendered }
+    } else {
     const context = row.visit_id === null ? undefined : await loadMailContext(db, row.visit_id)
     const skip = reasonToSkip(row, context, Date.now())
     if (skip) {
@@ -113,6 +129,7 @@ async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, setting
     const composed = renderFor(row, context!, settings, messageId)
     const info = await transporter.sendMail(composed.mail)
     sent = { messageId: String(info.messageId ?? ''), rendered: composed.rendered }
+    }
   } catch (error) {
     await retryOrGiveUp(db, row, error, settings, round)
     return
