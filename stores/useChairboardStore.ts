@@ -24,6 +24,8 @@ export const useChairboardStore = defineStore('chairboard', () => {
   const drawerSlot = ref<DrawerSlot>({ operatoryId: null, startUtc: null })
   const drawerPrefill = ref<DrawerPrefill | null>(null)
   const notice = ref<{ kind: 'error' | 'info'; text: string } | null>(null)
+  /** A visit just cancelled here: its freed time is shown with the waitlist entries that fit (issue 17). */
+  const freedVisitId = ref<number | null>(null)
 
   function goToday() { date.value = todayIn(zone.value) }
   function step(days: number) { date.value = addDays(date.value, days) }
@@ -35,5 +37,5 @@ export const useChairboardStore = defineStore('chairboard', () => {
   function closeDrawer() { drawerOpen.value = false }
   function tell(kind: 'error' | 'info', text: string) { notice.value = { kind, text } }
 
-  return { date, selectedVisitId, drawerOpen, drawerSlot, drawerPrefill, notice, zone, goToday, step, openDrawer, closeDrawer, tell }
+  return { date, selectedVisitId, freedVisitId, drawerOpen, drawerSlot, drawerPrefill, notice, zone, goToday, step, openDrawer, closeDrawer, tell }
 })
