@@ -32,6 +32,8 @@ export interface OutboxPayload {
   resendOf?: number
   /** Offers (issue 17): the offer the e-mail is about. */
   offerId?: number
+  /** Recalls (issue 17): the recall the e-mail is about. */
+  recallId?: number
   /** Updates: what the patient sees that changed (issue 15), and the length they were told before. */
   change?: { time: boolean; length: boolean; what: boolean; minutesBefore?: number }
 }

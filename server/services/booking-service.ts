@@ -35,6 +35,7 @@ import { planItems } from './plan-service'
 import { assertBookable, assertStartAllowed, placeSegments, visitEnd } from './booking-rules'
 import { dropStranded, settleStranded } from './impact-service'
 import { closeWaitlistOnBooking } from './waitlist-service'
+import { markRecallsOnBooking, setRecallOnFinish } from './recall-service'
 
 // Every transaction here runs at READ COMMITTED: db/connection.ts makes that each connection's default.
 
@@ -141,6 +142,7 @@ export async function bookInTransaction(trx: Db, input: BookVisitInput, userId: 
   await writeAudit(trx, { userId, action: 'visit_booked', entity: 'visit', entityId: id, after: input })
   await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient })
   await closeWaitlistOnBooking(trx, input.patientId, id, templates, userId)
+  await markRecallsOnBooking(trx, input.patientId, id, templates)
   return newVisitDto(id, newVisit, segments)
 }
 
@@ -259,6 +261,11 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
     if (releases && row.stranded_reason) await dropStranded(trx, id, user.id, to)
     await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'visit', entityId: id, before: { state: row.state }, after: { state: to, reason } })
     if (to === 'cancelled') await queueCancellationMail(trx, row)
+    // A finished cleaning or exam sets the patient's next recall due date (issue 17 §1).
+    if (to === 'finished') {
+      const { templates } = await storedPlan(trx, row)
+      await setRecallOnFinish(trx, { id, patientId: row.patient_id, siteId: row.site_id, startMs: row.start_utc.getTime(), timeZone: site?.timeZone ?? 'UTC' }, templates, user.id)
+    }
     return loaded(trx, id)
   })
 }

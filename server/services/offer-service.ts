@@ -16,8 +16,7 @@ import { conflict, notFound } from '../utils/errors'
 import { inTransaction } from '../utils/db-retry'
 import { scheduleNowMs } from '../utils/clock'
 import { useVisitLinkSecret } from '../utils/visit-link-secret'
-import { offerSignatureValid, readOfferToken, signOfferToken } from '../utils/offer-token'
-import { findPatient } from '../repositories/patients'
+import { offerSignatureValid, readOfferToken } from '../utils/offer-token'
 import { findSiteDetail } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
 import { enqueueMessage } from '../repositories/outbox'
@@ -182,20 +181,4 @@ export async function refuseOffer(token: string): Promise<PublicOfferDto> {
     })
   }
   return toPublicOffer(db, (await findOffer(db, offer.id))!)
-}
-
-/** For the dispatcher: what an offer e-mail needs, or why it is not sent any more. */
-export async function offerMailFacts(db: Db, offerId: number, publicUrl: string, secret: string) {
-  const offer = await findOffer(db, offerId)
-  if (!offer) return { skip: 'the offer no longer exists' } as const
-  if (offer.state !== 'sent') return { skip: `the offer is ${offer.state}` } as const
-  if (offer.expires_at.getTime() <= Date.now()) return { skip: 'the offer expired before it was sent' } as const
-  const entry = await findEntry(db, offer.entry_id)
-  const site = await findSiteDetail(db, offer.site_id)
-  if (!entry || !site) return { skip: 'the waitlist entry no longer exists' } as const
-  if (!entry.patientEmail) return { skip: 'the patient has no e-mail address' } as const
-  if (!entry.emailConsent) return { skip: 'the patient has not agreed to e-mail' } as const
-  const patient = await findPatient(db, entry.patientId)
-  const link = `${publicUrl.replace(/\/+$/, '')}/offer/${encodeURIComponent(signOfferToken(secret, offer))}`
-  return { facts: { site, patient: { firstName: patient?.firstName ?? '', lastName: patient?.lastName ?? '', email: entry.patientEmail }, startMs: offer.start_utc.getTime(), expiresAtMs: offer.expires_at.getTime(), link } } as const
 }

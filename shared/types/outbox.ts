@@ -1,7 +1,7 @@
 // Patient e-mails as the Outbox screen and the public visit page see them.
 import type { VisitState } from '../domain/visit-states'
 
-export const OUTBOX_KINDS = ['invitation', 'update', 'cancellation', 'reminder', 'offer'] as const
+export const OUTBOX_KINDS = ['invitation', 'update', 'cancellation', 'reminder', 'offer', 'recall'] as const
 export type OutboxKind = (typeof OUTBOX_KINDS)[number]
 export const OUTBOX_STATES = ['queued', 'sending', 'sent', 'failed', 'skipped'] as const
 export type OutboxState = (typeof OUTBOX_STATES)[number]

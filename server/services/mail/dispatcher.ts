@@ -13,8 +13,7 @@ import { loadMailContext, type MailContext } from '../../repositories/mail-conte
 import { composeMessage, type ComposedMessage } from './compose'
 import { patientLinks, visitToken } from './links'
 import { useLogger } from '../../utils/logger'
-import { offerMailFacts } from '../offer-service'
-import { composeOfferMail } from './offer-mail'
+import { noticeMail } from './notice-facts'
 
 export interface DispatchSettings {
   batchSize: number
@@ -103,17 +102,17 @@ async function retryOrGiveUp(db: Db, row: OutboxRow, error: unknown, settings: D
 async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   let sent: { messageId: string; rendered: ComposedMessage['rendered'] }
   try {
-    if (row.kind === 'offer') {
-      // A waitlist offer (issue 17) has no visit: its own facts and composer.
-      const offer = await offerMailFacts(db, payloadOf(row).offerId ?? 0, settings.publicUrl, settings.linkSecret)
-      if ('skip' in offer) {
-        await markSkipped(db, row, offer.skip!)
+    if (row.kind === 'offer' || row.kind === 'recall') {
+      // Waitlist offers and recalls (issue 17) have no visit: their own facts and composer.
+      const notice = await noticeMail(db, row, settings)
+      if ('skip' in notice) {
+        await markSkipped(db, row, notice.skip)
         round.skipped += 1
         return
       }
-      const messageId = row.message_id ?? newMessageId(row, settings.from || offer.facts.site.email)
+      const messageId = row.message_id ?? newMessageId(row, settings.from || notice.siteEmail)
       if (!row.message_id && !(await fixMessageId(db, row, messageId))) return
-      const composed = composeOfferMail(offer.facts, { from: settings.from, messageId })
+      const composed = notice.compose(messageId)
       const info = await transporter.sendMail(composed.mail)
       sent = { messageId: String(info.messageId ?? ''), rendered: composed.rendered }
     } else {
