@@ -68,7 +68,7 @@ const planSpecs: Array<{ key: string; code: string; tooth?: string; surfaces?: s
 ]
 const plans = planSpecs.map((spec) => {
   const t = template(spec.code)
-  return { key: spec.key, plan: planVisit([{ template: { ...t, id: 1, version: 1, current: true, active: true, createdAt: '' }, tooth: spec.tooth, surfaces: spec.surfaces }], { unitMinutes: 10 }), capability: t.capability, category: t.category }
+  return { key: spec.key, plan: planVisit([{ template: t, tooth: spec.tooth, surfaces: spec.surfaces }], { unitMinutes: 10 }), capability: t.capability, category: t.category }
 })
 const entries: WaitlistCandidate[] = Array.from({ length: ENTRIES }, (_, i) => ({
   id: i + 1, siteIds: random() < 0.8 ? [1] : [2, 3], fromDate: random() < 0.9 ? '2027-01-04' : '2027-01-13', toDate: '2027-02-20',

@@ -148,7 +148,7 @@ export async function acceptOffer(token: string): Promise<PublicOfferDto> {
       // get those books; the others then find the chair taken (409) and mark their own offer below.
       const visit = await bookInTransaction(trx, {
         patientId: entry.patientId, siteId: offer.site_id, operatoryId: offer.operatory_id, providerId: offer.provider_id,
-        startUtc: offer.start_utc.toISOString(), items: entry.items as never, note: 'Booked by the patient from a waitlist offer',
+        startUtc: offer.start_utc.toISOString(), items: entry.items, note: 'Booked by the patient from a waitlist offer',
       }, null)
       if (!(await setOfferState(trx, offer.id, 'sent', 'accepted', visit.id))) throw conflict(TAKEN_MESSAGE, { field: 'offer' })
       const others = await markOthersTaken(trx, offer)

@@ -4,10 +4,8 @@ import type { ChairTimeRequest } from '../schemas/templates'
 type ChairTimeItem = ChairTimeRequest['items'][number]
 import type { PartOfDay } from './openings'
 
-export const WAITLIST_STATES = ['open', 'booked', 'closed'] as const
-export type WaitlistState = (typeof WAITLIST_STATES)[number]
-export const OFFER_STATES = ['sent', 'accepted', 'taken', 'expired', 'refused'] as const
-export type OfferState = (typeof OFFER_STATES)[number]
+export type WaitlistState = 'open' | 'booked' | 'closed'
+export type OfferState = 'sent' | 'accepted' | 'taken' | 'expired' | 'refused'
 
 export interface WaitlistEntryDto {
   id: number
@@ -41,7 +39,7 @@ export interface WaitlistMatchDto {
   startUtc: string
   endUtc: string
   startLocalIso: string
-  /** Null when the patient cannot be e-mailed (no address or no consent). */
+  /** False when the patient cannot be e-mailed (no address or no consent). */
   canOffer: boolean
   /** Offers already open for this entry at this time. */
   offered: boolean
