@@ -15,6 +15,9 @@ export interface DrawerPrefill {
   items: DraftItem[]
 }
 
+/** A cancelled visit's time, or a slot a visit moved out of. */
+export type FreedTime = { visitId: number } | { siteId: number; operatoryId: number; startUtc: string; endUtc: string }
+
 export const useChairboardStore = defineStore('chairboard', () => {
   const session = useSessionStore()
   const zone = computed(() => session.selectedSite?.timeZone ?? 'UTC')
@@ -24,8 +27,11 @@ export const useChairboardStore = defineStore('chairboard', () => {
   const drawerSlot = ref<DrawerSlot>({ operatoryId: null, startUtc: null })
   const drawerPrefill = ref<DrawerPrefill | null>(null)
   const notice = ref<{ kind: 'error' | 'info'; text: string } | null>(null)
-  /** A visit just cancelled here: its freed time is shown with the waitlist entries that fit (issue 17). */
-  const freedVisitId = ref<number | null>(null)
+  /**
+   * Chair time just freed here (a visit cancelled, or moved out of its slot): shown with the waitlist
+   * entries that fit it (issue 17).
+   */
+  const freed = ref<FreedTime | null>(null)
 
   function goToday() { date.value = todayIn(zone.value) }
   function step(days: number) { date.value = addDays(date.value, days) }
@@ -37,5 +43,5 @@ export const useChairboardStore = defineStore('chairboard', () => {
   function closeDrawer() { drawerOpen.value = false }
   function tell(kind: 'error' | 'info', text: string) { notice.value = { kind, text } }
 
-  return { date, selectedVisitId, freedVisitId, drawerOpen, drawerSlot, drawerPrefill, notice, zone, goToday, step, openDrawer, closeDrawer, tell }
+  return { date, selectedVisitId, freed, drawerOpen, drawerSlot, drawerPrefill, notice, zone, goToday, step, openDrawer, closeDrawer, tell }
 })
