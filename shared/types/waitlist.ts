@@ -1,8 +1,8 @@
 // The waitlist and offers (issue 17 §2) as the API gives them.
 import type { ChairTimeRequest } from '../schemas/templates'
+import type { PartOfDay } from './openings'
 
 type ChairTimeItem = ChairTimeRequest['items'][number]
-import type { PartOfDay } from './openings'
 
 export type WaitlistState = 'open' | 'booked' | 'closed'
 export type OfferState = 'sent' | 'accepted' | 'taken' | 'expired' | 'refused'
