@@ -152,6 +152,9 @@ export async function acceptOffer(token: string): Promise<PublicOfferDto> {
       }, null)
       if (!(await setOfferState(trx, offer.id, 'sent', 'accepted', visit.id))) throw conflict(TAKEN_MESSAGE, { field: 'offer' })
       const others = await markOthersTaken(trx, offer)
+      for (const otherId of others) {
+        await writeAudit(trx, { userId: null, action: 'offer_taken', entity: 'offer', entityId: otherId, before: { state: 'sent' }, after: { state: 'taken', takenBy: offer.id } })
+      }
       await writeAudit(trx, { userId: null, action: 'offer_accepted', entity: 'offer', entityId: offer.id, before: { state: 'sent' }, after: { state: 'accepted', visitId: visit.id, entryId: entry.id, othersTaken: others } })
     })
   } catch (error) {

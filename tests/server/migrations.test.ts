@@ -37,8 +37,8 @@ describe('migrations', () => {
   it('creates every table, rolls all of them back, and applies again', async () => {
     await scratch.migrate.latest(migratorConfig)
     expect(await tableNames(scratch)).toEqual([
-      'audit_log', 'blocks', 'idempotency_keys', 'inbound_mail', 'operatories', 'outbox', 'patient_import_mappings', 'patient_imports', 'patient_merges', 'patients', 'procedure_templates',
-      'offers', 'providers', 'recalls', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites', 'user_sites', 'users',
+      'audit_log', 'blocks', 'idempotency_keys', 'inbound_mail', 'offers', 'operatories', 'outbox', 'patient_import_mappings', 'patient_imports', 'patient_merges', 'patients', 'procedure_templates',
+      'providers', 'recalls', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites', 'user_sites', 'users',
       'visit_segments', 'visits', 'waitlist_entries',
     ])
     await scratch.migrate.rollback(migratorConfig, true)
