@@ -117,6 +117,7 @@ async function toPublicOffer(db: Db, offer: OfferRow): Promise<PublicOfferDto> {
   const chairMinutes = Math.round((offer.end_utc.getTime() - offer.start_utc.getTime()) / MINUTE_MS)
   return {
     siteName: site?.name ?? '', sitePhone: site?.phone ?? null, siteAddress: site?.address ?? null, timeZone: site?.timeZone ?? 'UTC',
+    clock: site?.clock ?? '12h', dateOrder: site?.dateOrder ?? 'month-day-year',
     startUtc: offer.start_utc.toISOString(), startLocalIso: localIsoAt(offer.start_utc.getTime(), site?.timeZone ?? 'UTC'),
     minutes: visit ? patientMinutesOf(visit.plan, chairMinutes) : chairMinutes,
     expiresAtUtc: offer.expires_at.toISOString(), state: offer.state, message: messageFor(offer.state),

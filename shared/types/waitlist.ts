@@ -1,6 +1,7 @@
 // The waitlist and offers (issue 17 §2) as the API gives them.
 import type { ChairTimeRequest } from '../schemas/templates'
 import type { PartOfDay } from './openings'
+import type { ClockStyle, DateOrder } from './display'
 
 type ChairTimeItem = ChairTimeRequest['items'][number]
 
@@ -62,6 +63,9 @@ export interface PublicOfferDto {
   sitePhone: string | null
   siteAddress: string | null
   timeZone: string
+  /** How the site shows times and dates (issue 14). */
+  clock: ClockStyle
+  dateOrder: DateOrder
   startUtc: string
   startLocalIso: string
   minutes: number
