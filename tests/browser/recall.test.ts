@@ -47,7 +47,7 @@ describe('Recall screen', () => {
     await page.waitForURL(/\/chairboard/)
     const drawer = page.getByTestId('booking-drawer')
     await drawer.waitFor()
-    await expect.poll(() => drawer.textContent()).toContain(annex.patientIds.length ? patientName.split(' ')[0]! : '')
+    await expect.poll(() => drawer.textContent()).toContain(patientName)
     await screenshot(page, 'recall-book-drawer')
   })
 })
