@@ -44,7 +44,7 @@ describe('migrations', () => {
     await scratch.migrate.rollback(migratorConfig, true)
     expect(await tableNames(scratch)).toEqual([])
     await scratch.migrate.latest(migratorConfig)
-    expect((await tableNames(scratch)).length).toBe(20)
+    expect((await tableNames(scratch)).length).toBe(23)
   })
 
   it('renames appointments to visits, carrying rows written before the rename', async () => {
