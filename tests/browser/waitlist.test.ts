@@ -92,4 +92,19 @@ describe('a cancelled visit refills from the waitlist', () => {
     expect(live).toEqual([{ patient_id: annex.patientIds[1] }])
     expect(visitId).toBeGreaterThan(0)
   })
+
+  it('the Waitlist page keeps the patient who did not get the time, and the drawer link opens its form', async () => {
+    const { page } = desk
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Waitlist' }).click()
+    await expect.poll(() => page.getByTestId('waitlist-row').count()).toBe(1)
+    const second = await testDb()('patients').where({ id: annex.patientIds[2] }).first('first_name', 'last_name')
+    expect(await page.getByTestId('waitlist-row').textContent()).toContain(`${second.first_name} ${second.last_name}`)
+    await screenshot(page, 'waitlist-page')
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Chairboard' }).click()
+    await page.getByRole('button', { name: 'Book a visit' }).click()
+    await page.getByTestId('drawer-add-waitlist').click()
+    await page.waitForURL(/\/waitlist\?add=1/)
+    await page.getByTestId('waitlist-form').waitFor()
+    await screenshot(page, 'waitlist-add-form')
+  })
 })
