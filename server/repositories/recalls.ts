@@ -31,7 +31,7 @@ interface RecallRow {
 
 function toDto(row: RecallRow): RecallDto {
   return {
-    id: row.id, patientId: row.patient_id, patientName: `${row.first_name} ${row.last_name}`, email: row.email, emailConsent: Boolean(row.email_consent),
+    id: row.id, patientId: row.patient_id, patientName: `${row.first_name} ${row.last_name}`, firstName: row.first_name, lastName: row.last_name, email: row.email, emailConsent: Boolean(row.email_consent),
     phone: row.phone, kind: row.kind, dueDate: row.due_date, lastContactUtc: row.last_contact_at ? row.last_contact_at.toISOString() : null,
     lastVisitUtc: row.last_visit_utc ? new Date(row.last_visit_utc).toISOString() : null, preferredSiteId: row.preferred_site_id,
   }

@@ -70,8 +70,7 @@ export async function mailRecalls(input: RecallMailInput, user: SessionUser): Pr
         continue
       }
       if (!result.preview) {
-        const [firstName = '', ...rest] = recall.patientName.split(' ')
-        const { rendered } = composeRecallMail({ site, patient: { firstName, lastName: rest.join(' '), email: recall.email }, kind: recall.kind, dueDate: recall.dueDate }, { from: '' })
+        const { rendered } = composeRecallMail({ site, patient: { firstName: recall.firstName, lastName: recall.lastName, email: recall.email }, kind: recall.kind, dueDate: recall.dueDate }, { from: '' })
         result.preview = { to: rendered.to, subject: rendered.subject, text: rendered.text }
       }
       if (input.preview) continue

@@ -5,6 +5,8 @@ export interface RecallDto {
   id: number
   patientId: number
   patientName: string
+  firstName: string
+  lastName: string
   email: string | null
   emailConsent: boolean
   phone: string | null
