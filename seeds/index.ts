@@ -6,6 +6,7 @@ import { seedStaff } from './02-staff'
 import { seedRota } from './03-rota'
 import { seedTemplates } from './04-templates'
 import { seedPatients } from './05-patients'
+import { seedWaitlistAndRecall } from './06-waitlist-and-recall'
 
 export async function isDatabaseEmpty(db: Knex): Promise<boolean> {
   const row = await db('users').count({ count: '*' }).first()
@@ -20,5 +21,6 @@ export async function seedDemo(db: Knex): Promise<void> {
     await seedRota(ctx)
     await seedTemplates(ctx)
     await seedPatients(ctx)
+    await seedWaitlistAndRecall(ctx)
   })
 }

@@ -32,6 +32,9 @@ export interface BoardNotice {
   serial: number
 }
 
+/** A cancelled visit's time, or a slot a visit moved out of. */
+export type FreedTime = { visitId: number } | { siteId: number; operatoryId: number; startUtc: string; endUtc: string }
+
 export const useChairboardStore = defineStore('chairboard', () => {
   const session = useSessionStore()
   const zone = computed(() => session.selectedSite?.timeZone ?? 'UTC')
@@ -45,6 +48,11 @@ export const useChairboardStore = defineStore('chairboard', () => {
   const drawerPrefill = ref<DrawerPrefill | null>(null)
   const notice = ref<BoardNotice | null>(null)
   let serial = 0
+  /**
+   * Chair time just freed here (a visit cancelled, or moved out of its slot): shown with the waitlist
+   * entries that fit it (issue 17).
+   */
+  const freed = ref<FreedTime | null>(null)
 
   function goToday() { date.value = todayIn(zone.value) }
   function step(days: number) { date.value = addDays(date.value, days) }
@@ -58,7 +66,7 @@ export const useChairboardStore = defineStore('chairboard', () => {
   function dismissNotice() { notice.value = null }
 
   return {
-    date, selectedVisitId, highlightedVisitId, showCancelled, drawerOpen, drawerSlot, drawerPrefill, notice, zone,
+    date, selectedVisitId, highlightedVisitId, freed, showCancelled, drawerOpen, drawerSlot, drawerPrefill, notice, zone,
     goToday, step, openDrawer, closeDrawer, tell, dismissNotice,
   }
 })

@@ -33,6 +33,10 @@ export interface OutboxPayload {
   startUtc?: string
   offsetHours?: number
   resendOf?: number
+  /** Offers (issue 17): the offer the e-mail is about. */
+  offerId?: number
+  /** Recalls (issue 17): the recall the e-mail is about. */
+  recallId?: number
   /** Updates: what the patient sees that changed (issue 15), and the length they were told before. */
   change?: { time: boolean; length: boolean; what: boolean; minutesBefore?: number }
   /** An e-mail sent because the text of this outbox row failed. */
@@ -51,7 +55,7 @@ export interface NewOutboxMessage {
   kind: OutboxKind
   /** 'email' when left out. */
   channel?: Channel
-  /** null only for texts that answer a reply matching no visit. */
+  /** Null for texts that answer a reply matching no visit, and for a waitlist offer (payload.offerId), which has no visit yet. */
   visitId: number | null
   siteId: number
   dueAt: Date

@@ -59,7 +59,7 @@ export interface NewVisit {
   plan: VisitPlan
   note: string
   icalUid: string
-  userId: number
+  userId: number | null
 }
 
 export async function insertVisit(db: Db, visit: NewVisit): Promise<number> {

@@ -36,6 +36,8 @@ import { parseJson } from '../repositories/json'
 import { planItems } from './plan-service'
 import { assertBookable, assertStartAllowed, placeSegments, visitEnd } from './booking-rules'
 import { dropStranded, settleStranded } from './impact-service'
+import { closeWaitlistOnBooking } from './waitlist-service'
+import { markRecallsOnBooking, setRecallOnFinish } from './recall-service'
 
 // Every transaction here runs at READ COMMITTED: db/connection.ts makes that each connection's default.
 
@@ -96,28 +98,12 @@ export async function bookVisit(input: BookVisitInput, user: SessionUser, idempo
     const prior = await findAnswer<VisitDto>(db, user.id, idempotencyKey)
     if (prior?.response) return replayed(prior.requestHash, requestHash, prior.response)
   }
-  const startMs = startOf(input.startUtc)
-
   try {
     return await inTransaction(async (trx) => {
       // Claimed first: a concurrent request with the same key waits here, then replays our answer.
       if (idempotencyKey) await claimKey(trx, user.id, idempotencyKey, requestHash)
-      await lockForBooking(trx, [input.operatoryId], [input.providerId], input.patientId)
-      const calendar = await bookingCalendar(trx, input.siteId)
-      const { plan, templates } = await planItems(trx, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
-      assertStartAllowed(startMs, calendar)
-      const { patient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null })
-      const newVisit = {
-        siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
-        startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId: user.id,
-      }
-      const id = await insertVisit(trx, newVisit)
-      const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
-      await replaceSegments(trx, id, segments, { isNew: true })
-      await writeAudit(trx, { userId: user.id, action: 'visit_booked', entity: 'visit', entityId: id, after: input })
-      await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient })
-      const visit = newVisitDto(id, newVisit, segments)
-      if (idempotencyKey) await storeAnswer(trx, user.id, idempotencyKey, 201, visit, id)
+      const visit = await bookInTransaction(trx, input, user.id)
+      if (idempotencyKey) await storeAnswer(trx, user.id, idempotencyKey, 201, visit, visit.id)
       return visit
     })
   } catch (error) {
@@ -128,6 +114,33 @@ export async function bookVisit(input: BookVisitInput, user: SessionUser, idempo
     }
     throw error
   }
+}
+
+/**
+ * The booking itself, inside the caller's transaction: locks, checks, the visit, its segments, the
+ * audit row and the patient's mail. Staff bookings (`bookVisit`) and an accepted waitlist offer
+ * (offer-service.ts, `userId` null: the patient) both come through here, so two at the same moment
+ * give one visit and one 409.
+ */
+export async function bookInTransaction(trx: Db, input: BookVisitInput, userId: number | null): Promise<VisitDto> {
+  const startMs = startOf(input.startUtc)
+  await lockForBooking(trx, [input.operatoryId], [input.providerId], input.patientId)
+  const calendar = await bookingCalendar(trx, input.siteId)
+  const { plan, templates } = await planItems(trx, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
+  assertStartAllowed(startMs, calendar)
+  const { patient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null })
+  const newVisit = {
+    siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
+    startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId,
+  }
+  const id = await insertVisit(trx, newVisit)
+  const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
+  await replaceSegments(trx, id, segments, { isNew: true })
+  await writeAudit(trx, { userId, action: 'visit_booked', entity: 'visit', entityId: id, after: input })
+  await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient })
+  await closeWaitlistOnBooking(trx, input.patientId, id, templates, userId)
+  await markRecallsOnBooking(trx, input.patientId, id, templates)
+  return newVisitDto(id, newVisit, segments)
 }
 
 function replayed(storedHash: string, requestHash: string, response: VisitDto): VisitDto {
@@ -245,6 +258,11 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
     if (releases && row.stranded_reason) await dropStranded(trx, id, user.id, to)
     await writeAudit(trx, { userId: user.id, action: `visit_${to}`, entity: 'visit', entityId: id, before: { state: row.state }, after: { state: to, reason } })
     if (to === 'cancelled') await queueCancellationMail(trx, row)
+    // A finished cleaning or exam sets the patient's next recall due date (issue 17 §1).
+    if (to === 'finished') {
+      const { templates } = await storedPlan(trx, row)
+      await setRecallOnFinish(trx, { id, patientId: row.patient_id, siteId: row.site_id, startMs: row.start_utc.getTime(), timeZone: site?.timeZone ?? 'UTC' }, templates, user.id)
+    }
     return loaded(trx, id)
   })
 }

@@ -51,6 +51,8 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/sites', label: 'Sites & rooms', roles: MANAGING_ROLES },
   { path: '/outbox', label: 'Outbox', roles: BOOKING_ROLES },
   { path: '/rebook', label: 'Rebook list', roles: BOOKING_ROLES },
+  { path: '/waitlist', label: 'Waitlist', roles: BOOKING_ROLES },
+  { path: '/recall', label: 'Recall', roles: BOOKING_ROLES },
   { path: '/audit', label: 'Audit', roles: MANAGING_ROLES },
 ]
 

@@ -68,6 +68,16 @@ export function addDays(date: LocalDate, days: number): LocalDate {
   return wallDateOf(wallMidnightMs(date) + days * DAY_MS)
 }
 
+/** The same day `months` later (or earlier), kept inside shorter months: Aug 31 + 6 months is Feb 28 (or 29). */
+export function addMonths(date: LocalDate, months: number): LocalDate {
+  const [year, month, day] = date.split('-').map(Number) as [number, number, number]
+  const index = year * 12 + (month - 1) + months
+  const targetYear = Math.floor(index / 12)
+  const targetMonth = index - targetYear * 12
+  const lastDay = new Date(Date.UTC(targetYear, targetMonth + 1, 0)).getUTCDate()
+  return `${String(targetYear).padStart(4, '0')}-${pad2(targetMonth + 1)}-${pad2(Math.min(day, lastDay))}`
+}
+
 /** ISO weekday (1 = Monday … 7 = Sunday) of a local date. */
 export function isoWeekdayOf(date: LocalDate): IsoWeekday {
   return (((new Date(wallMidnightMs(date)).getUTCDay() + 6) % 7) + 1) as IsoWeekday

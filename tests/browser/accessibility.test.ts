@@ -25,6 +25,8 @@ const SCREENS: Array<{ path: string; as: string; ready: string }> = [
   { path: '/balance', as: 'manager@fernhollow.test', ready: '[data-testid="balance-site"]' },
   { path: '/patients', as: 'desk.quarry@fernhollow.test', ready: 'h1' },
   { path: '/outbox', as: 'desk.quarry@fernhollow.test', ready: '[data-testid="outbox-table"]' },
+  { path: '/waitlist', as: 'desk.quarry@fernhollow.test', ready: '[data-testid="waitlist-rows"], [data-testid="waitlist-empty"]' },
+  { path: '/recall', as: 'desk.quarry@fernhollow.test', ready: '[data-testid="recall-rows"], [data-testid="recall-empty"]' },
   { path: '/sites', as: 'admin@fernhollow.test', ready: 'h1' },
   { path: '/people', as: 'admin@fernhollow.test', ready: 'h1' },
   { path: '/my-day', as: 'dentist@fernhollow.test', ready: '[data-testid="myday-site"]' },

@@ -56,7 +56,7 @@ describe('booking a visit', () => {
     // A sealant's hands-on minutes fit inside the 10-minute onset wait of the first patient's block.
     const sealant = [{ templateCode: 'SEAL', tooth: '3' }]
     const during = await manager.post('/api/visits', booking({ startUtc: atAhead(3, MONDAY, '09:05', QUARRY_ZONE), operatoryId: quarry.hygieneA, patientId: quarry.patients[2], items: sealant }))
-    expect(during.status).toBe(201)
+    expect(during.status, JSON.stringify(during.body)).toBe(201)
     const overlapping = await manager.post('/api/visits', booking({ startUtc: atAhead(3, MONDAY, '09:10', QUARRY_ZONE), operatoryId: quarry.hygieneB, patientId: quarry.patients[3], items: sealant }))
     expect(overlapping.status).toBe(409)
     expect(overlapping.body.data.conflict).toMatchObject({ resource: 'provider', id: quarry.dentist })

@@ -26,6 +26,8 @@ import { OperatorySchema, SiteSchema } from '../../shared/schemas/sites'
 import { ProviderSchema, StaffSchema } from '../../shared/schemas/people'
 import { BlockSchema, ShiftExceptionSchema, ShiftSchema } from '../../shared/schemas/rota'
 import { TemplateSchema } from '../../shared/schemas/templates'
+import { NewWaitlistEntrySchema, SendOffersSchema } from '../../shared/schemas/waitlist'
+import { RecallMailSchema } from '../../shared/schemas/recall'
 
 const SEED = process.env.FUZZ_SEED ? Number(process.env.FUZZ_SEED) : Math.floor(Math.random() * 2 ** 31)
 const MIN_REQUESTS = 10_000
@@ -74,6 +76,9 @@ const CREATE_GUARDS: Record<string, ZodType> = {
   'POST /api/templates': TemplateSchema,
   'POST /api/users': StaffSchema,
   'POST /api/auth/login': SignInSchema,
+  'POST /api/waitlist': NewWaitlistEntrySchema,
+  'POST /api/waitlist/offers': SendOffersSchema,
+  'POST /api/recalls/mail': RecallMailSchema,
 }
 /** Writes that change nothing stored: any body may go. The inbound-mail webhook refuses every post
  * without the shared secret's signature (401), and the SMS service's webhooks change nothing without

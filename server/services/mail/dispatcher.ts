@@ -15,6 +15,7 @@ import { composeMessage, type ComposedMessage } from './compose'
 import { patientLinks, visitToken } from './links'
 import { useLogger } from '../../utils/logger'
 import { sendTextRow } from '../sms/text-dispatch'
+import { noticeMail } from './notice-facts'
 
 export interface DispatchSettings {
   batchSize: number
@@ -108,6 +109,20 @@ export async function retryOrGiveUp(db: Db, row: OutboxRow, error: unknown, sett
 async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   let sent: { messageId: string; rendered: ComposedMessage['rendered'] }
   try {
+    if (row.kind === 'offer' || row.kind === 'recall') {
+      // Waitlist offers and recalls (issue 17) have no visit: their own facts and composer.
+      const notice = await noticeMail(db, row, settings)
+      if ('skip' in notice) {
+        await markSkipped(db, row, notice.skip)
+        round.skipped += 1
+        return
+      }
+      const messageId = row.message_id ?? newMessageId(row, settings.from || notice.siteEmail)
+      if (!row.message_id && !(await fixMessageId(db, row, messageId))) return
+      const composed = notice.compose(messageId)
+      const info = await transporter.sendMail(composed.mail)
+      sent = { messageId: String(info.messageId ?? ''), rendered: composed.rendered }
+    } else {
     const context = row.visit_id === null ? undefined : await loadMailContext(db, row.visit_id)
     const skip = reasonToSkip(row, context, Date.now())
     if (skip) {
@@ -120,6 +135,7 @@ async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, setting
     const composed = renderFor(row, context!, settings, messageId)
     const info = await transporter.sendMail(composed.mail)
     sent = { messageId: String(info.messageId ?? ''), rendered: composed.rendered }
+    }
   } catch (error) {
     await retryOrGiveUp(db, row, error, settings, round)
     return

@@ -1,0 +1,49 @@
+// What the dispatcher needs to send a waitlist offer or a recall e-mail (issue 17), read when the row
+// is sent, or why it is not sent any more (the offer was answered or expired, consent withdrawn).
+import type { Db } from '../../utils/db'
+import type { OutboxRow } from '../../repositories/outbox'
+import { payloadOf } from '../../repositories/outbox'
+import { findEntry, findOffer } from '../../repositories/waitlist'
+import { findRecall } from '../../repositories/recalls'
+import { findPatient } from '../../repositories/patients'
+import { findSiteDetail } from '../../repositories/sites'
+import { signOfferToken } from '../../utils/offer-token'
+import { composeOfferMail, composeRecallMail } from './notice-mail'
+
+type Composed = ReturnType<typeof composeOfferMail>
+export type NoticeMail = { skip: string } | { siteEmail: string; compose: (messageId?: string) => Composed }
+
+interface NoticeSettings { from: string; publicUrl: string; linkSecret: string }
+
+async function offerMail(db: Db, offerId: number, settings: NoticeSettings): Promise<NoticeMail> {
+  const offer = await findOffer(db, offerId)
+  if (!offer) return { skip: 'the offer no longer exists' }
+  if (offer.state !== 'sent') return { skip: `the offer is ${offer.state}` }
+  if (offer.expires_at.getTime() <= Date.now()) return { skip: 'the offer expired before it was sent' }
+  const entry = await findEntry(db, offer.entry_id)
+  const site = await findSiteDetail(db, offer.site_id)
+  const patient = entry ? await findPatient(db, entry.patientId) : undefined
+  if (!entry || !site || !patient) return { skip: 'the waitlist entry no longer exists' }
+  if (!patient.email) return { skip: 'the patient has no e-mail address' }
+  if (!patient.emailConsent) return { skip: 'the patient has not agreed to e-mail' }
+  const link = `${settings.publicUrl.replace(/\/+$/, '')}/offer/${encodeURIComponent(signOfferToken(settings.linkSecret, offer))}`
+  const facts = { site, patient: { firstName: patient.firstName, lastName: patient.lastName, email: patient.email }, startMs: offer.start_utc.getTime(), expiresAtMs: offer.expires_at.getTime(), link }
+  return { siteEmail: site.email, compose: (messageId) => composeOfferMail(facts, { from: settings.from, messageId }) }
+}
+
+async function recallMail(db: Db, recallId: number, siteId: number | null, settings: NoticeSettings): Promise<NoticeMail> {
+  const recall = await findRecall(db, recallId)
+  const site = siteId === null ? undefined : await findSiteDetail(db, siteId)
+  const patient = recall ? await findPatient(db, recall.patientId) : undefined
+  if (!recall || !site || !patient) return { skip: 'the recall no longer exists' }
+  if (!patient.email) return { skip: 'the patient has no e-mail address' }
+  if (!patient.emailConsent) return { skip: 'the patient has not agreed to e-mail' }
+  const facts = { site, patient: { firstName: patient.firstName, lastName: patient.lastName, email: patient.email }, kind: recall.kind, dueDate: recall.dueDate }
+  return { siteEmail: site.email, compose: (messageId) => composeRecallMail(facts, { from: settings.from, messageId }) }
+}
+
+export async function noticeMail(db: Db, row: OutboxRow, settings: NoticeSettings): Promise<NoticeMail> {
+  const payload = payloadOf(row)
+  if (row.kind === 'offer') return offerMail(db, payload.offerId ?? 0, settings)
+  return recallMail(db, payload.recallId ?? 0, row.site_id, settings)
+}

@@ -1,0 +1,60 @@
+// Recall (issue 17 §1): when a patient is next due for their regular cleaning or exam. Pure.
+//
+// A visit's recall kind comes from its templates' categories: a hygiene template makes it a cleaning,
+// an exam template an exam (a visit may be both). Finishing the visit sets the next due date from the
+// visit's local date plus the site's interval for that kind; booking a later visit with that kind marks
+// the recall as booked. Intervals are site settings (`recallMonths`, default 6 months for a cleaning,
+// 12 for an exam); a patient is not e-mailed about a recall again within `recallMailMinDays` (default 14).
+import type { LocalDate } from '../types/rota'
+import { addDays, addMonths } from '../utils/local-date'
+
+export const RECALL_KINDS = ['cleaning', 'exam'] as const
+export type RecallKind = (typeof RECALL_KINDS)[number]
+
+export const RECALL_KIND_LABELS: Record<RecallKind, string> = { cleaning: 'Cleaning', exam: 'Exam' }
+
+export interface RecallSettings {
+  recallMonths: Record<RecallKind, number>
+  recallMailMinDays: number
+}
+
+export const DEFAULT_RECALL_MONTHS: Record<RecallKind, number> = { cleaning: 6, exam: 12 }
+export const DEFAULT_RECALL_MAIL_MIN_DAYS = 14
+
+function wholeBetween(value: unknown, min: number, max: number): number | null {
+  return typeof value === 'number' && Number.isInteger(value) && value >= min && value <= max ? value : null
+}
+
+export function recallSettingsOf(settings: Record<string, unknown>): RecallSettings {
+  const months = (settings.recallMonths ?? {}) as Record<string, unknown>
+  return {
+    recallMonths: {
+      cleaning: wholeBetween(months.cleaning, 1, 36) ?? DEFAULT_RECALL_MONTHS.cleaning,
+      exam: wholeBetween(months.exam, 1, 36) ?? DEFAULT_RECALL_MONTHS.exam,
+    },
+    recallMailMinDays: wholeBetween(settings.recallMailMinDays, 0, 365) ?? DEFAULT_RECALL_MAIL_MIN_DAYS,
+  }
+}
+
+/** The recall kinds a visit with these template categories counts as. */
+export function recallKindsOf(categories: readonly string[]): RecallKind[] {
+  const kinds: RecallKind[] = []
+  if (categories.includes('hygiene')) kinds.push('cleaning')
+  if (categories.includes('exam')) kinds.push('exam')
+  return kinds
+}
+
+export function nextDueDate(visitDate: LocalDate, kind: RecallKind, settings: RecallSettings): LocalDate {
+  return addMonths(visitDate, settings.recallMonths[kind])
+}
+
+/** May the patient be e-mailed about a recall now? Not again within the site's minimum interval. */
+export function mayMailRecall(lastContactMs: number | null, nowMs: number, settings: RecallSettings): boolean {
+  return lastContactMs === null || nowMs - lastContactMs >= settings.recallMailMinDays * 86_400_000
+}
+
+/** 'overdue' before today, 'due' up to `soonDays` ahead, else 'later'. */
+export function recallStatus(dueDate: LocalDate, today: LocalDate, soonDays = 30): 'overdue' | 'due' | 'later' {
+  if (dueDate < today) return 'overdue'
+  return dueDate <= addDays(today, soonDays) ? 'due' : 'later'
+}

@@ -1,0 +1,76 @@
+// The waitlist and offers (issue 17 §2) as the API gives them.
+import type { ChairTimeRequest } from '../schemas/templates'
+import type { PartOfDay } from './openings'
+import type { ClockStyle, DateOrder } from './display'
+
+type ChairTimeItem = ChairTimeRequest['items'][number]
+
+export type WaitlistState = 'open' | 'booked' | 'closed'
+export type OfferState = 'sent' | 'accepted' | 'taken' | 'expired' | 'refused'
+
+export interface WaitlistEntryDto {
+  id: number
+  patientId: number
+  patientName: string
+  patientEmail: string | null
+  emailConsent: boolean
+  siteId: number
+  siteIds: number[]
+  items: ChairTimeItem[]
+  /** Procedure codes of the plan, for lists ("FILL2, EXAM"). */
+  planLabel: string
+  from: string
+  to: string
+  partOfDay: PartOfDay
+  noticeMinutes: number
+  priority: number
+  note: string
+  state: WaitlistState
+  bookedVisitId: number | null
+  createdAtUtc: string
+}
+
+/** One entry that fits a freed gap, with the earliest start it can take there. */
+export interface WaitlistMatchDto {
+  entry: WaitlistEntryDto
+  siteId: number
+  operatoryId: number
+  providerId: number
+  providerName: string
+  startUtc: string
+  endUtc: string
+  startLocalIso: string
+  /** False when the patient cannot be e-mailed (no address or no consent). */
+  canOffer: boolean
+  /** Offers already open for this entry at this time. */
+  offered: boolean
+}
+
+export interface WaitlistMatchesDto {
+  gap: { siteId: number; operatoryId: number; startUtc: string; endUtc: string }
+  matches: WaitlistMatchDto[]
+}
+
+export interface SentOffersDto {
+  sent: Array<{ offerId: number; entryId: number; expiresAtUtc: string }>
+  /** Entries not offered, with the reason in words. */
+  skipped: Array<{ entryId: number; reason: string }>
+}
+
+/** What the patient's offer page shows (no sign-in). */
+export interface PublicOfferDto {
+  siteName: string
+  sitePhone: string | null
+  siteAddress: string | null
+  timeZone: string
+  /** How the site shows times and dates (issue 14). */
+  clock: ClockStyle
+  dateOrder: DateOrder
+  startUtc: string
+  startLocalIso: string
+  minutes: number
+  expiresAtUtc: string
+  state: OfferState
+  /** Words for the page when the offer is no longer open. */
+  message: string
+}

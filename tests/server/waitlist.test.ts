@@ -1,0 +1,200 @@
+// Issue 17 §2: the waitlist refills freed time. A cancelled visit or one marked did not come frees its
+// chair time; the waiting patients whose plan fits it (the openings engine restricted to that time) are
+// ranked by priority, then by how long they have waited. Offers go by e-mail; the first patient to accept
+// gets the time through the booking transaction, everyone else hears "this time has just been taken".
+// Private annexes only (createMailAnnex): no demo weeks used.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DateTime } from 'luxon'
+import { ApiClient, signedInAs } from '../helpers/api-client'
+import { closeTestDb, testDb } from '../helpers/db'
+import { createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
+import { FILLING } from '../helpers/booking-fixtures'
+import { startIn } from '../helpers/midday'
+import { signOfferToken } from '../../server/utils/offer-token'
+
+let annex: MailAnnex
+let admin: ApiClient
+
+beforeAll(async () => {
+  annex = await createMailAnnex({ patients: 30 })
+  admin = await signedInAs('admin@fernhollow.test')
+})
+afterAll(async () => { await closeTestDb() })
+
+const today = () => DateTime.now().setZone(annex.timeZone).toISODate()!
+const daysAhead = (days: number) => DateTime.now().setZone(annex.timeZone).plus({ days }).toISODate()!
+
+async function book(patientIndex: number, startUtc: string, operatoryIndex = 0) {
+  const response = await admin.post('/api/visits', {
+    siteId: annex.siteId, operatoryId: annex.operatoryIds[operatoryIndex], providerId: annex.providerIds[0], patientId: annex.patientIds[patientIndex], items: FILLING, startUtc,
+  })
+  expect(response.status, JSON.stringify(response.body)).toBe(201)
+  return response.body as { id: number; startUtc: string; rowVersion: number }
+}
+
+async function wait(patientIndex: number, options: { priority?: number; noticeMinutes?: number; partOfDay?: string } = {}) {
+  const response = await admin.post('/api/waitlist', {
+    patientId: annex.patientIds[patientIndex], siteId: annex.siteId, items: FILLING, from: today(), to: daysAhead(5),
+    priority: options.priority ?? 3, noticeMinutes: options.noticeMinutes ?? 0, partOfDay: options.partOfDay ?? 'any',
+  })
+  expect(response.status, JSON.stringify(response.body)).toBe(201)
+  return response.body as { id: number; state: string }
+}
+
+async function closeAll() {
+  await testDb()('waitlist_entries').where({ site_id: annex.siteId, state: 'open' }).update({ state: 'closed' })
+}
+
+async function tokenOf(offerId: number): Promise<string> {
+  const row = await testDb()('offers').where({ id: offerId }).first('id', 'nonce')
+  return signOfferToken(process.env.NUXT_MAIL_LINK_SECRET!, row)
+}
+
+async function setBack(id: number, minutes: number) {
+  for (const table of ['visits', 'visit_segments']) {
+    await testDb()(table).where(table === 'visits' ? { id } : { visit_id: id }).update({
+      start_utc: testDb().raw('start_utc - INTERVAL ? MINUTE', [minutes]), end_utc: testDb().raw('end_utc - INTERVAL ? MINUTE', [minutes]),
+    })
+  }
+}
+
+describe('waitlist entries', () => {
+  it('needs a booking role, checks its fields and the site', async () => {
+    expect((await new ApiClient().get(`/api/waitlist?siteId=${annex.siteId}`)).status).toBe(401)
+    const bad = await admin.post('/api/waitlist', { patientId: annex.patientIds[0], siteId: annex.siteId, items: FILLING, from: daysAhead(3), to: today() })
+    expect(bad.status).toBe(400)
+    expect(JSON.stringify(bad.body)).toContain('to')
+    const unknownTemplate = await admin.post('/api/waitlist', { patientId: annex.patientIds[0], siteId: annex.siteId, items: [{ templateCode: 'NOPE' }], from: today(), to: today() })
+    expect(unknownTemplate.status).toBe(400)
+    const provider = await testDb()('providers').join('users', 'users.id', 'providers.user_id').where('providers.id', annex.providerIds[0]).first('users.email')
+    const dentist = new ApiClient()
+    await dentist.signIn(provider.email, 'annex-provider-password')
+    expect((await dentist.get(`/api/waitlist?siteId=${annex.siteId}`)).status).toBe(403)
+  })
+
+  it('lists open entries first by priority and closes one', async () => {
+    const low = await wait(0, { priority: 4 })
+    const high = await wait(1, { priority: 1 })
+    const list = await admin.get(`/api/waitlist?siteId=${annex.siteId}`)
+    expect(list.status).toBe(200)
+    const ids = (list.body as Array<{ id: number }>).map((entry) => entry.id)
+    expect(ids.indexOf(high.id)).toBeLessThan(ids.indexOf(low.id))
+    const closed = await admin.post(`/api/waitlist/${low.id}/close`, { reason: 'Found a time elsewhere' })
+    expect(closed.status).toBe(200)
+    expect(closed.body.state).toBe('closed')
+    expect((await admin.post(`/api/waitlist/${low.id}/close`, {})).status).toBe(409)
+    await closeAll()
+  })
+})
+
+describe('matching freed time', () => {
+  it('a cancellation: entries that fit, by priority then longest waiting', async () => {
+    const visit = await book(0, startIn(26 * 60))
+    const older = await wait(1, { priority: 3 })
+    const newer = await wait(2, { priority: 3 })
+    const urgent = await wait(3, { priority: 1 })
+    expect((await admin.get(`/api/waitlist/matches?visitId=${visit.id}`)).status).toBe(409) // still holds its time
+    const cancelled = await admin.post(`/api/visits/${visit.id}/cancel`, { reason: 'Patient is travelling' })
+    expect(cancelled.status).toBe(200)
+    const found = await admin.get(`/api/waitlist/matches?visitId=${visit.id}`)
+    expect(found.status, JSON.stringify(found.body)).toBe(200)
+    expect(found.body.matches.map((match: { entry: { id: number } }) => match.entry.id)).toEqual([urgent.id, older.id, newer.id])
+    expect(found.body.matches[0].startUtc).toBe(new Date(visit.startUtc).toISOString())
+    await closeAll()
+  })
+
+  it('did not come: only patients who can come at such short notice', async () => {
+    const visit = await book(4, startIn(10), 1)
+    await setBack(visit.id, 30) // started 20 minutes ago
+    const missed = await admin.post(`/api/visits/${visit.id}/state`, { state: 'missed' })
+    expect(missed.status, JSON.stringify(missed.body)).toBe(200)
+    const nearby = await wait(5, { noticeMinutes: 0 })
+    const needsNotice = await wait(6, { noticeMinutes: 240 })
+    const found = await admin.get(`/api/waitlist/matches?visitId=${visit.id}`)
+    expect(found.status, JSON.stringify(found.body)).toBe(200)
+    const ids = found.body.matches.map((match: { entry: { id: number } }) => match.entry.id)
+    expect(ids).toContain(nearby.id)
+    expect(ids).not.toContain(needsNotice.id)
+    // Starts only from now on, inside the freed time.
+    expect(Date.parse(found.body.matches[0].startUtc)).toBeGreaterThanOrEqual(Date.now() - 60_000)
+    await closeAll()
+  })
+
+  it('no offer for a patient whose notice the slot cannot meet', async () => {
+    const visit = await book(7, startIn(60), 1)
+    await admin.post(`/api/visits/${visit.id}/cancel`, { reason: 'Ill' })
+    const needsNotice = await wait(8, { noticeMinutes: 180 })
+    const sent = await admin.post('/api/waitlist/offers', { visitId: visit.id, entryIds: [needsNotice.id] })
+    expect(sent.status, JSON.stringify(sent.body)).toBe(200)
+    expect(sent.body.sent).toEqual([])
+    expect(sent.body.skipped).toEqual([{ entryId: needsNotice.id, reason: 'the time is too soon for the notice this patient needs' }])
+    expect(await testDb()('offers').where({ entry_id: needsNotice.id }).count({ n: '*' }).first()).toMatchObject({ n: 0 })
+    await closeAll()
+  })
+})
+
+describe('offers', () => {
+  it('20 patients accept one offered time at once: exactly one booking, 19 "taken"', async () => {
+    const visit = await book(9, startIn(50 * 60))
+    await admin.post(`/api/visits/${visit.id}/cancel`, { reason: 'Moved away' })
+    const entries = []
+    for (let index = 10; index < 30 && index < annex.patientIds.length; index += 1) entries.push(await wait(index))
+    const sent = await admin.post('/api/waitlist/offers', { visitId: visit.id, entryIds: entries.map((entry) => entry.id) })
+    expect(sent.status, JSON.stringify(sent.body)).toBe(200)
+    expect(sent.body.sent).toHaveLength(entries.length)
+    // Expiry: the site default of 2 hours.
+    expect(Date.parse(sent.body.sent[0].expiresAtUtc) - Date.now()).toBeGreaterThan(110 * 60_000)
+    expect(Date.parse(sent.body.sent[0].expiresAtUtc) - Date.now()).toBeLessThanOrEqual(120 * 60_000)
+    const tokens = await Promise.all(sent.body.sent.map((offer: { offerId: number }) => tokenOf(offer.offerId)))
+    const shown = await new ApiClient().get(`/api/offer/${encodeURIComponent(tokens[0])}`)
+    expect(shown.status).toBe(200)
+    expect(shown.body).toMatchObject({ state: 'sent', startUtc: new Date(visit.startUtc).toISOString() })
+
+    const answers = await Promise.all(tokens.map((token) => new ApiClient().post(`/api/offer/${encodeURIComponent(token)}/accept`)))
+    const statuses = answers.map((answer) => answer.status)
+    expect(statuses.filter((status) => status === 201), JSON.stringify(answers.map((a) => a.body))).toHaveLength(1)
+    expect(statuses.filter((status) => status === 409)).toHaveLength(entries.length - 1)
+    for (const answer of answers.filter((a) => a.status === 409)) expect(answer.body.message).toContain('this time has just been taken')
+
+    const winner = answers.findIndex((answer) => answer.status === 201)
+    const winningEntry = entries[winner]!
+    const booked = await testDb()('visits').where({ site_id: annex.siteId, start_utc: new Date(visit.startUtc) }).whereNot('state', 'cancelled').select('id', 'patient_id')
+    expect(booked).toHaveLength(1)
+    // The accepted offer's patient leaves the waitlist; the others stay on it.
+    const states = await testDb()('waitlist_entries').whereIn('id', entries.map((entry) => entry.id)).select('id', 'state', 'booked_visit_id')
+    expect(states.filter((row) => row.state === 'booked')).toEqual([{ id: winningEntry.id, state: 'booked', booked_visit_id: booked[0].id }])
+    expect(states.filter((row) => row.state === 'open')).toHaveLength(entries.length - 1)
+    // A late opener sees that it has gone.
+    const late = await new ApiClient().get(`/api/offer/${encodeURIComponent(tokens[(winner + 1) % tokens.length])}`)
+    expect(late.body.state).toBe('taken')
+    expect(late.body.message).toContain('this time has just been taken')
+    // Audit: one row per offer, per acceptance and per "taken".
+    const actions = await testDb()('audit_log').where({ entity: 'offer' }).whereIn('entity_id', sent.body.sent.map((offer: { offerId: number }) => String(offer.offerId))).select('action')
+    const count = (action: string) => actions.filter((row) => row.action === action).length
+    expect([count('offer_sent'), count('offer_accepted'), count('offer_taken')]).toEqual([entries.length, 1, entries.length - 1])
+    await closeAll()
+  })
+
+  it('an expired offer is refused in words, and a refusal keeps the patient waiting', async () => {
+    const visit = await book(0, startIn(74 * 60), 1)
+    await admin.post(`/api/visits/${visit.id}/cancel`, { reason: 'Moved away' })
+    const first = await wait(1)
+    const second = await wait(2)
+    const sent = await admin.post('/api/waitlist/offers', { visitId: visit.id, entryIds: [first.id, second.id] })
+    expect(sent.body.sent).toHaveLength(2)
+    const [expiring, refusing] = sent.body.sent as Array<{ offerId: number }>
+    await testDb()('offers').where({ id: expiring!.offerId }).update({ expires_at: new Date(Date.now() - 60_000) })
+    const late = await new ApiClient().post(`/api/offer/${encodeURIComponent(await tokenOf(expiring!.offerId))}/accept`)
+    expect(late.status).toBe(410)
+    expect(late.body.message).toContain('This offer has expired')
+    expect(await testDb()('audit_log').where({ entity: 'offer', entity_id: String(expiring!.offerId), action: 'offer_expired' }).count({ n: '*' }).first()).toMatchObject({ n: 1 })
+    const no = await new ApiClient().post(`/api/offer/${encodeURIComponent(await tokenOf(refusing!.offerId))}/refuse`)
+    expect(no.status).toBe(200)
+    expect(no.body.state).toBe('refused')
+    expect((await testDb()('waitlist_entries').where({ id: second.id }).first('state')).state).toBe('open')
+    // A tampered link is simply not valid.
+    const tampered = (await tokenOf(refusing!.offerId)).slice(0, -2) + 'AA'
+    expect((await new ApiClient().get(`/api/offer/${encodeURIComponent(tampered)}`)).status).toBe(404)
+    await closeAll()
+  })
+})

@@ -1,0 +1,33 @@
+// Recall due dates (issue 17 §1). Intervals are the site's; 6 months for a cleaning and 12 for an exam
+// are common practice defaults, no source (the treating clinician sets each patient's interval).
+import { describe, expect, it } from 'vitest'
+import { mayMailRecall, nextDueDate, recallKindsOf, recallSettingsOf, recallStatus } from '../../../../shared/domain/recall'
+import { addMonths } from '../../../../shared/utils/local-date'
+
+describe('recall', () => {
+  it('kinds come from template categories', () => {
+    expect(recallKindsOf(['hygiene'])).toEqual(['cleaning'])
+    expect(recallKindsOf(['exam', 'hygiene'])).toEqual(['cleaning', 'exam'])
+    expect(recallKindsOf(['restorative'])).toEqual([])
+  })
+  it('next due date: the site interval after the visit, kept inside short months', () => {
+    const settings = recallSettingsOf({})
+    expect(nextDueDate('2027-01-11', 'cleaning', settings)).toBe('2027-07-11')
+    expect(nextDueDate('2027-01-11', 'exam', settings)).toBe('2028-01-11')
+    expect(nextDueDate('2027-08-31', 'cleaning', recallSettingsOf({ recallMonths: { cleaning: 6 } }))).toBe('2028-02-29')
+    expect(nextDueDate('2027-01-11', 'cleaning', recallSettingsOf({ recallMonths: { cleaning: 4 } }))).toBe('2027-05-11')
+    expect(addMonths('2027-11-30', 3)).toBe('2028-02-29')
+    expect(addMonths('2027-03-31', -1)).toBe('2027-02-28')
+  })
+  it('a patient is not mailed again within the minimum interval', () => {
+    const settings = recallSettingsOf({ recallMailMinDays: 14 })
+    expect(mayMailRecall(null, 0, settings)).toBe(true)
+    expect(mayMailRecall(0, 13 * 86_400_000, settings)).toBe(false)
+    expect(mayMailRecall(0, 14 * 86_400_000, settings)).toBe(true)
+  })
+  it('overdue, due soon or later', () => {
+    expect(recallStatus('2027-01-10', '2027-01-11')).toBe('overdue')
+    expect(recallStatus('2027-02-10', '2027-01-11')).toBe('due')
+    expect(recallStatus('2027-03-11', '2027-01-11')).toBe('later')
+  })
+})
