@@ -226,7 +226,9 @@ export async function moveVisit(id: number, input: MoveVisitInput, user: Session
       before: seenVisitOf(parseJson<VisitPlan>(row.plan, {} as VisitPlan), row.start_utc.getTime(), row.end_utc.getTime(), namesShown),
       after: seenVisitOf(plan, startMs, visitEnd(plan, startMs), namesShown),
     }
-    await queueVisitMail(trx, 'update', { visitId: id, startMs, calendar, patient, seen })
+    // A visit taken off the Rebook list is always announced (issue 13 §2), even when only its provider
+    // changed: the patient hears that it holds again. Otherwise only what the patient sees (issue 15).
+    await queueVisitMail(trx, 'update', { visitId: id, startMs, calendar, patient, ...(row.stranded_reason ? {} : { seen }) })
     return loaded(trx, id)
   })
 }

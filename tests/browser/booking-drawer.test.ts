@@ -103,7 +103,7 @@ for (const { viewport, day } of cases) {
       await drawer.getByRole('option').filter({ hasText: patient.first }).first().getByRole('button').click()
       await drawer.getByLabel('Procedure', { exact: true }).selectOption('CLEAN-CHILD')
       const warnings = drawer.getByTestId('booking-warnings')
-      await expect.poll(() => warnings.textContent()).toMatch(/ending 09:25, less than an hour before/)
+      await expect.poll(() => warnings.textContent()).toMatch(/ending 9:25 AM, less than an hour before/)
       expect(await warnings.textContent()).toMatch(/Child cleaning is a procedure for children, and the patient will be \d\d/)
       // A warning, not a refusal: the button stays usable.
       expect(await drawer.getByTestId('book-slot').isEnabled()).toBe(true)
