@@ -315,8 +315,3 @@ export function weekLabelOf(monday: LocalDate): string {
 export function localIsoAt(utcMs: number, zone: string): string {
   return DateTime.fromMillis(utcMs, { zone }).toISO({ suppressMilliseconds: true }) ?? ''
 }
-
-/** 'Mon 9 Mar 08:00' on the wall clock of the zone an ISO value with offset carries (a `…LocalIso`). */
-export function localIsoLabel(localIso: string): string {
-  return DateTime.fromISO(localIso, { setZone: true }).toFormat('ccc d LLL HH:mm')
-}

@@ -65,7 +65,7 @@ describe('Rebook list in the browser', () => {
     const lines = await impact.getByTestId('impact-visits').locator('li').allTextContents()
     expect(lines).toHaveLength(2)
     expect(lines[0]).toContain('Annex0 Patient')
-    expect(lines[0]).toContain('09:00')
+    expect(lines[0]).toContain('9:00 AM') // the annex keeps the 12-hour clock (site setting)
     expect(lines[0]).toContain(`${dentist} is away`)
     // Focus moved into the dialog, on the safe choice.
     expect(await page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('Cancel the change')

@@ -2,8 +2,8 @@
 // the visit history and the audit log.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { randomUUID } from 'node:crypto'
-import { signedInAs, type ApiClient } from '../helpers/api-client'
-import { closeTestDb, testDb } from '../helpers/db'
+import { ApiClient, signedInAs } from '../helpers/api-client'
+import { closeTestDb, createTestUser, testDb } from '../helpers/db'
 import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
 import { atAhead, TUESDAY, WEDNESDAY } from '../helpers/dates'
 
@@ -153,5 +153,23 @@ describe('audit', () => {
     expect((await admin.get('/api/audit?from=2026-13-01')).body.data.field).toBe('from')
     const manager = await signedInAs('manager@fernhollow.test')
     expect((await manager.get(`/api/audit?siteId=${annex.siteId}&page=1`)).status).toBe(200)
+  })
+
+  it('shows a manager of one site only that site\'s entries', async () => {
+    const scoped = await createTestUser({ role: 'manager', siteSlugs: ['quarry-street'] })
+    const client = new ApiClient()
+    await client.signIn(scoped.email, scoped.password)
+    // Another site's entries: 403; no site named: their only site, never the whole group's log.
+    expect((await client.get(`/api/audit?siteId=${annex.siteId}`)).status).toBe(403)
+    const own = await client.get('/api/audit')
+    expect(own.status).toBe(200)
+    const quarry = (await testDb()('sites').where({ slug: 'quarry-street' }).first('id')).id
+    expect((await client.get(`/api/audit?siteId=${quarry}`)).body.total).toBe(own.body.total)
+    const twoSites = await createTestUser({ role: 'manager', siteSlugs: ['quarry-street', 'aspen-gulch'] })
+    const other = new ApiClient()
+    await other.signIn(twoSites.email, twoSites.password)
+    const unnamed = await other.get('/api/audit')
+    expect(unnamed.status).toBe(400)
+    expect(unnamed.body.data.field).toBe('siteId')
   })
 })
