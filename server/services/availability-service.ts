@@ -1,11 +1,10 @@
 // Availability of one site over a window: loads the rota, expands it (shared/domain/rota.ts) and
-// adds each instant on the site's wall clock. luxon is used here, at the edge, for the offsets.
-import { DateTime } from 'luxon'
+// adds each instant on the site's wall clock. the offsets come from the shared local-date helpers.
 import type { SiteDetail } from '#shared/types/sites'
 import type { AvailabilityResponse, DualInterval } from '#shared/types/rota-api'
 import type { LocalDate, UtcInterval } from '#shared/types/rota'
 import { expandAvailability } from '#shared/domain/rota'
-import { addDays, localDayRange, type UtcRange } from '#shared/utils/local-date'
+import { addDays, localDayRange, localIsoAt, type UtcRange } from '#shared/utils/local-date'
 import type { AvailabilityQuery } from '#shared/schemas/rota'
 import { useDb, type Db } from '../utils/db'
 import { notFound } from '../utils/errors'
@@ -24,7 +23,7 @@ export function windowOf(site: SiteDetail, from: LocalDate, to: LocalDate): UtcR
 }
 
 function onWallClock(instantUtc: string, zone: string): string {
-  return DateTime.fromISO(instantUtc, { zone }).toISO({ suppressMilliseconds: true }) ?? instantUtc
+  return localIsoAt(Date.parse(instantUtc), zone) || instantUtc
 }
 
 /**

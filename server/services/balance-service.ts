@@ -1,6 +1,6 @@
 // Balance across the caller's sites: each site's calendar expanded over the range (its own local
 // dates), the live segments in its chairs, and the pure figures from shared/domain/balance.ts.
-import { DateTime } from 'luxon'
+import { eachLocalDate, localDayRange } from '#shared/utils/local-date'
 import type { SessionUser } from '#shared/types/auth'
 import type { BalanceResponse, SiteBalanceDto } from '#shared/types/balance'
 import type { BalanceQuery } from '#shared/schemas/balance'
@@ -18,18 +18,17 @@ import { scheduleNowMs } from '../utils/clock'
 
 /** Each local date from..to with its own start and end instants (23 or 25 hours across a DST change). */
 function localDays(from: string, to: string, zone: string) {
-  const days = []
-  for (let day = DateTime.fromISO(from, { zone }).startOf('day'); day.toISODate()! <= to; day = day.plus({ days: 1 })) {
-    days.push({ date: day.toISODate()!, startMs: day.toMillis(), endMs: day.plus({ days: 1 }).toMillis() })
-  }
-  return days
+  return eachLocalDate(from, to).map((date) => {
+    const day = localDayRange(date, zone)
+    return { date, startMs: Date.parse(day.fromUtc), endMs: Date.parse(day.toUtc) }
+  })
 }
 
 async function oneSite(db: Db, site: { id: number; name: string }, query: BalanceQuery, thresholds: BalanceThresholds): Promise<SiteBalanceDto> {
   const calendar = (await loadSiteCalendar(db, site.id))!
   const zone = calendar.site.timeZone
-  const fromMs = DateTime.fromISO(query.from, { zone }).startOf('day').toMillis()
-  const toMs = DateTime.fromISO(query.to, { zone }).plus({ days: 1 }).startOf('day').toMillis()
+  const fromMs = Date.parse(localDayRange(query.from, zone).fromUtc)
+  const toMs = Date.parse(localDayRange(query.to, zone).toUtc)
   const availability = expandAvailabilityMs({ ...calendar, fromUtc: new Date(fromMs).toISOString(), toUtc: new Date(toMs).toISOString() })
   const rooms = calendar.operatoryDetails.filter((room) => room.active)
   const segments = await busySegments(db, rooms.map((room) => room.id), [], fromMs, toMs)

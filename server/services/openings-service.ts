@@ -1,5 +1,5 @@
 // Openings: where and when a visit plan fits, across the sites a user may book for.
-import { DateTime } from 'luxon'
+import { localDayRange } from '#shared/utils/local-date'
 import type { SessionUser } from '#shared/types/auth'
 import type { OpeningDto, OpeningsResponse } from '#shared/types/visits'
 import type { BookingUnitMinutes, VisitPlan } from '#shared/types/chair-time'
@@ -28,8 +28,8 @@ interface SiteSearch {
 /** from/to are dates read in each site's own zone: 'to' includes its whole day. */
 function rangeInZone(from: string, to: string, zone: string) {
   return {
-    fromMs: DateTime.fromISO(from, { zone }).startOf('day').toMillis(),
-    toMs: DateTime.fromISO(to, { zone }).plus({ days: 1 }).startOf('day').toMillis(),
+    fromMs: Date.parse(localDayRange(from, zone).fromUtc),
+    toMs: Date.parse(localDayRange(to, zone).toUtc),
   }
 }
 
