@@ -18,9 +18,21 @@ ensure_cluster_packages() {
   fi
 }
 
+# The nodes run as the database's OS user, who must be able to pass through every directory above
+# their data. A fresh clone under a private temporary directory (mode 700, as CI's may be) does not
+# let it: give those directories the search bit (o+x) only, never read.
+let_db_user_through() {
+  local d; d="$(dirname "$1")"
+  while [ "$d" != "/" ] && [ -n "$d" ]; do
+    chmod o+x "$d" 2>/dev/null || true
+    d="$(dirname "$d")"
+  done
+}
+
 write_node_config() {
   local n="$1" dir; dir="$(node_dir "$n")"
   mkdir -p "$dir/data"
+  let_db_user_through "$dir"
   chown -R "$CLUSTER_DB_OS_USER:" "$dir" 2>/dev/null || true
   cat > "$dir/my.cnf" <<CNF
 # Node $n of the local Galera cluster (written by scripts/cluster/lib.sh; edits are overwritten).
