@@ -19,9 +19,19 @@ const NODE_PORTS: Record<number, number> = {
 const WRITE_PORT = Number(env.CLUSTER_WRITE_PORT ?? 4440)
 
 export async function clientThroughProxy(email = 'manager@fernhollow.test'): Promise<ApiClient> {
-  const client = new ApiClient(HTTP_URL)
-  await client.signIn(email)
-  return client
+  // Right after cluster:start HAProxy may not have seen an app process pass its health check yet
+  // (503 "no server is available"): poll for that, for up to a minute.
+  const deadline = Date.now() + 60_000
+  for (;;) {
+    const client = new ApiClient(HTTP_URL)
+    try {
+      await client.signIn(email)
+      return client
+    } catch (error) {
+      if (Date.now() > deadline || !String(error).includes('503')) throw error
+      await new Promise((resolve) => setTimeout(resolve, 500))
+    }
+  }
 }
 
 /** node.sh start|stop|kill|app-start|app-kill N */
