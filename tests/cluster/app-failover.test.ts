@@ -112,16 +112,23 @@ describe('an app process killed mid-burst', () => {
         startUtc: utcAt(`${weekdayAhead(5, TUESDAY + Math.floor(index / 10), second.timeZone)}T${String(1 + 2 * (index % 10)).padStart(2, '0')}:00`, second.timeZone),
       }, `dup-window-${second.siteId}-${index}`)))
       expect(statuses(answers)).toEqual({ 201: 12 })
-      await waitFor(async () => (await sending()).length > 0, 'claimed invitations', 30_000)
+      // Each dispatcher sends its claims one at a time and keeps a row's Message-ID just before trying
+      // it: two claimed rows with a Message-ID are the two dispatchers' first messages, each waiting on
+      // the stopped catcher. (Holding the rows any earlier would stop the Message-ID record instead.)
+      await waitFor(async () => (await sending().whereNotNull('message_id')).length >= 2, 'a message in flight from each dispatcher', 60_000)
       // Hold the claimed rows, so a dispatcher's 'sent' record waits after its first message went out.
       hold = await testDb().transaction()
       await hold('outbox').where({ site_id: second.siteId, state: 'sending' }).forUpdate().select('id')
     } finally {
       signalMailCatcher('SIGCONT')
     }
-    // Both dispatchers hold claims, so each has had its first message taken by the catcher and now waits
-    // to record it (patients' e-mails carry no header naming the process, so wait for two): kill app 1.
-    await waitFor(async () => (await Promise.all(second.emails.map((email) => mailsContaining(email)))).flat().length >= 2, 'a message from each dispatcher at the catcher', 30_000)
+    // Both dispatchers' first messages are now taken by the catcher, and each dispatcher waits to record
+    // its own (the held rows' Message-IDs find them at the catcher): kill app 1.
+    const inFlight = (await sending().whereNotNull('message_id').select('id')).map((row) => Number(row.id))
+    await waitFor(async () => {
+      const arrived = await deliveriesPerRow((await Promise.all(second.emails.map((email) => mailsContaining(email)))).flat())
+      return inFlight.filter((id) => arrived.has(id)).length >= 2
+    }, 'a message from each dispatcher at the catcher', 60_000)
     killedApp = 1
     await clusterPart('app-kill', killedApp)
     // The dead process's 'sent' record already reached MariaDB and waits for the held row; a process
