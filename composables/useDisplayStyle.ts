@@ -2,7 +2,7 @@
 // clock and date order, from the signed-in user's sites. Screens format every time and date through
 // `styleOf(site)`; a site outside the list (or none yet) reads with the defaults in the given zone.
 import type { DisplayStyle } from '#shared/types/display'
-import { DEFAULT_DISPLAY } from '#shared/utils/display-time'
+import { displayStyleOf } from '#shared/utils/display-time'
 
 export function useDisplayStyle() {
   const session = useSessionStore()
@@ -18,8 +18,7 @@ export function useDisplayStyle() {
       : typeof site === 'number'
         ? session.sites.find((candidate) => candidate.id === site)
         : session.sites.find((candidate) => candidate.timeZone === site)
-    if (found) return { timeZone: found.timeZone, clock: found.clock, dateOrder: found.dateOrder }
-    return { timeZone: zone ?? (typeof site === 'string' ? site : session.selectedSite?.timeZone ?? 'UTC'), ...DEFAULT_DISPLAY }
+    return displayStyleOf(found, zone ?? (typeof site === 'string' ? site : session.selectedSite?.timeZone ?? 'UTC'))
   }
 
   /** The selected site's style. */

@@ -1,6 +1,7 @@
 // Everything the pure availability expansion needs for one site, read in one go.
 import type { Db } from '../utils/db'
 import type { ExpandAvailabilityInput, OpeningHours } from '#shared/types/rota'
+import type { ClockStyle, DateOrder, DisplayStyle } from '#shared/types/display'
 import { siteSettingsOf } from '#shared/domain/site-settings'
 import { parseJson } from './json'
 
@@ -10,9 +11,11 @@ export type SiteCalendarInputs = Omit<ExpandAvailabilityInput, 'fromUtc' | 'toUt
   /** sites.settings as stored (mail settings and the like; see shared/domain/site-settings.ts). */
   settings: Record<string, unknown>
   operatoryDetails: Array<{ id: number; name: string; capabilities: string[]; active: boolean }>
+  /** How the site shows times and dates: refusals name times on its clock and in its date order. */
+  display: DisplayStyle
 }
 
-type SiteRow = Record<string, unknown> & { id: number; time_zone: string; opening_hours: unknown; closed_dates: unknown; settings: unknown; booking_unit_minutes: number; calendar_version: number }
+type SiteRow = Record<string, unknown> & { id: number; time_zone: string; clock: ClockStyle; date_order: DateOrder; opening_hours: unknown; closed_dates: unknown; settings: unknown; booking_unit_minutes: number; calendar_version: number }
 type CalendarTables = Pick<SiteCalendarInputs, 'operatories' | 'operatoryDetails' | 'shifts' | 'exceptions' | 'blocks'>
 
 /**
@@ -90,6 +93,7 @@ export async function loadSiteCalendar(db: Db, siteId: number, options: Calendar
     bookingUnitMinutes: site.booking_unit_minutes,
     minimumNoticeMinutes: siteSettingsOf(settings).minimumNoticeMinutes,
     settings,
+    display: { timeZone: site.time_zone, clock: site.clock, dateOrder: site.date_order },
     ...tables,
   }
 }

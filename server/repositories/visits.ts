@@ -4,6 +4,7 @@ import type { Db } from '../utils/db'
 import type { VisitDto, SegmentDto } from '#shared/types/visits'
 import type { VisitPlan, StepKind } from '#shared/types/chair-time'
 import type { VisitState } from '#shared/domain/visit-states'
+import type { ClockStyle, DateOrder } from '#shared/types/display'
 import { parseJson } from './json'
 
 export interface VisitRow {
@@ -245,7 +246,7 @@ export function groupSegments(segments: SegmentRow[]): Map<number, SegmentRow[]>
   return byVisit
 }
 
-export interface OpenVisitRow { id: number; start_utc: Date; site_name: string; time_zone: string }
+export interface OpenVisitRow { id: number; start_utc: Date; site_name: string; time_zone: string; clock: ClockStyle; date_order: DateOrder }
 
 /** A provider's open visits (not finished, missed or cancelled) that end after `fromMs`, earliest first. */
 export async function openVisitsOfProvider(db: Db, providerId: number, fromMs: number): Promise<OpenVisitRow[]> {
@@ -255,5 +256,5 @@ export async function openVisitsOfProvider(db: Db, providerId: number, fromMs: n
     .where('visits.end_utc', '>', new Date(fromMs))
     .whereNotIn('visits.state', ['finished', 'missed', 'cancelled'])
     .orderBy(['visits.start_utc', 'visits.id'])
-    .select('visits.id', 'visits.start_utc', 'sites.name as site_name', 'sites.time_zone')
+    .select('visits.id', 'visits.start_utc', 'sites.name as site_name', 'sites.time_zone', 'sites.clock', 'sites.date_order')
 }

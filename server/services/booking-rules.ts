@@ -1,9 +1,11 @@
 // The checks every booking, move and re-plan passes inside its transaction, after the locks.
-import { DateTime } from 'luxon'
 import type { VisitPlan } from '#shared/types/chair-time'
 import type { BookingConflict, PatientDto } from '#shared/types/visits'
 import type { EpochInterval } from '#shared/types/rota'
 import type { StoredTemplate } from '#shared/types/templates'
+import type { DisplayStyle } from '#shared/types/display'
+import { formatDateTime, formatTime } from '#shared/utils/display-time'
+import { localMinutesAt, localTime } from '#shared/utils/local-date'
 import { expandAvailabilityMs } from '#shared/domain/rota'
 import type { Db } from '../utils/db'
 import { badRequest, conflict } from '../utils/errors'
@@ -39,15 +41,16 @@ export function placeSegments(plan: VisitPlan, startMs: number, operatoryId: num
   }))
 }
 
-function localTime(ms: number, zone: string): string {
-  return DateTime.fromMillis(ms, { zone }).toFormat('ccc d LLL HH:mm')
+/** A span as refusals name it, on the site's clock and in its date order: 'Mon, Dec 7, 9:30 AM to 10:15 AM'. */
+function spanText(startMs: number, endMs: number, style: DisplayStyle, joiner: string): string {
+  return `${formatDateTime(startMs, style)}${joiner}${formatTime(endMs, style)}`
 }
 
 /** On the site's booking grid in local time, and not sooner than the minimum notice. */
 export function assertStartAllowed(startMs: number, calendar: SiteCalendarInputs, nowMs = scheduleNowMs()): void {
-  const local = DateTime.fromMillis(startMs, { zone: calendar.site.timeZone })
-  if ((local.hour * 60 + local.minute) % calendar.bookingUnitMinutes !== 0 || local.second !== 0 || local.millisecond !== 0) {
-    throw badRequest('startUtc', `must be on the site's ${calendar.bookingUnitMinutes}-minute grid (local time ${local.toFormat('HH:mm:ss')})`)
+  const zone = calendar.site.timeZone
+  if (localMinutesAt(startMs, zone) % calendar.bookingUnitMinutes !== 0 || startMs % 60_000 !== 0) {
+    throw badRequest('startUtc', `must be on the site's ${calendar.bookingUnitMinutes}-minute grid (local time ${localTime(new Date(startMs).toISOString(), zone)}${startMs % 60_000 === 0 ? '' : ' and some seconds'})`)
   }
   if (startMs < nowMs + calendar.minimumNoticeMinutes * MINUTE) {
     throw badRequest('startUtc', `must be at least ${calendar.minimumNoticeMinutes} minutes from now`)
@@ -58,13 +61,13 @@ function covered(intervals: readonly EpochInterval[], startMs: number, endMs: nu
   return intervals.some((interval) => interval.startMs <= startMs && interval.endMs >= endMs)
 }
 
-function clashError(resource: BookingConflict['resource'], id: number, name: string, clash: SegmentClash, zone: string, what: string) {
+function clashError(resource: BookingConflict['resource'], id: number, name: string, clash: SegmentClash, style: DisplayStyle, what: string) {
   const startMs = new Date(clash.startUtc).getTime()
   const endMs = new Date(clash.endUtc).getTime()
   const detail: BookingConflict = {
     resource, id, name, startUtc: new Date(startMs).toISOString(), endUtc: new Date(endMs).toISOString(), visitId: clash.visitId,
   }
-  return conflict(`${name} ${what} from ${localTime(startMs, zone)} to ${DateTime.fromMillis(endMs, { zone }).toFormat('HH:mm')}.`, { conflict: detail })
+  return conflict(`${name} ${what} from ${spanText(startMs, endMs, style, ' to ')}.`, { conflict: detail })
 }
 
 function unavailableError(resource: BookingConflict['resource'], id: number, name: string, startMs: number, endMs: number, message: string) {
@@ -91,7 +94,7 @@ export async function assertBookable(db: Db, request: BookingRequest): Promise<{
   const { room, provider, patient } = await assertPeopleAndRoom(db, request)
   const { plan, startMs, calendar } = request
   const endMs = visitEnd(plan, startMs)
-  const zone = calendar.site.timeZone
+  const style = calendar.display
   const handsOn = placeSegments(plan, startMs, request.operatoryId, request.providerId).filter((segment) => segment.kind === 'hands_on')
 
   // Only this room's and this provider's rows: the rest of the site cannot change the answer.
@@ -105,19 +108,19 @@ export async function assertBookable(db: Db, request: BookingRequest): Promise<{
   })
   const roomTime = availability.operatories.find((entry) => entry.operatoryId === room.id)?.intervals ?? []
   if (!covered(roomTime, startMs, endMs)) {
-    throw unavailableError('operatory', room.id, room.name, startMs, endMs, `${room.name} is closed or blocked during ${localTime(startMs, zone)}–${DateTime.fromMillis(endMs, { zone }).toFormat('HH:mm')}.`)
+    throw unavailableError('operatory', room.id, room.name, startMs, endMs, `${room.name} is closed or blocked during ${spanText(startMs, endMs, style, '–')}.`)
   }
   const providerTime = availability.providers.find((entry) => entry.providerId === provider.id)?.intervals ?? []
   const offShift = handsOn.find((segment) => !covered(providerTime, segment.startMs, segment.endMs))
   if (offShift) {
-    throw unavailableError('provider', provider.id, provider.name, offShift.startMs, offShift.endMs, `${provider.name} is not on shift here (or is blocked) at ${localTime(offShift.startMs, zone)}.`)
+    throw unavailableError('provider', provider.id, provider.name, offShift.startMs, offShift.endMs, `${provider.name} is not on shift here (or is blocked) at ${formatDateTime(offShift.startMs, style)}.`)
   }
 
   const clashes = await findClashes(db, {
     operatoryId: room.id, startMs, endMs, providerId: provider.id, handsOn, patientId: request.patientId, exceptVisitId: request.exceptVisitId,
   })
-  if (clashes.operatory) throw clashError('operatory', room.id, room.name, clashes.operatory, zone, 'is already taken')
-  if (clashes.provider) throw clashError('provider', provider.id, provider.name, clashes.provider, zone, 'is already working with another patient')
-  if (clashes.patient) throw clashError('patient', request.patientId, 'This patient', clashes.patient, zone, 'already has a visit')
+  if (clashes.operatory) throw clashError('operatory', room.id, room.name, clashes.operatory, style, 'is already taken')
+  if (clashes.provider) throw clashError('provider', provider.id, provider.name, clashes.provider, style, 'is already working with another patient')
+  if (clashes.patient) throw clashError('patient', request.patientId, 'This patient', clashes.patient, style, 'already has a visit')
   return { patient }
 }

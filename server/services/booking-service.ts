@@ -12,6 +12,7 @@ import { mayUndo, undoRetakesTime, undoTarget } from '#shared/domain/visit-undo'
 import { mayGiveAnaesthetic } from '#shared/domain/numbing-clock'
 import { withChairMinutes } from '#shared/domain/length-override'
 import { isProviderRole } from '#shared/utils/access'
+import { displayStyleOf } from '#shared/utils/display-time'
 import { useDb, type Db } from '../utils/db'
 import { badRequest, conflict, isDuplicateKey, notFound, rethrowDomainError } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
@@ -245,7 +246,7 @@ export async function changeVisitState(id: number, to: VisitState, user: Session
   return inTransaction(async (trx) => {
     const row = await liveVisit(trx, id, user)
     const site = await findSite(trx, row.site_id)
-    const visit = { siteId: row.site_id, providerId: row.provider_id, state: row.state, startUtc: row.start_utc.toISOString(), timeZone: site?.timeZone ?? 'UTC' }
+    const visit = { siteId: row.site_id, providerId: row.provider_id, state: row.state, startUtc: row.start_utc.toISOString(), ...displayStyleOf(site) }
     enforce(mayChangeState(await actorOf(trx, user), visit, to, scheduleNowMs()), { field: 'state', from: row.state, to })
     if (seenVersion !== undefined && seenVersion !== row.row_version) throw staleVersion()
     const releases = !holdsTime(to)

@@ -3,7 +3,7 @@
 // A provider's kind is the account's role (no copy on the provider row). When the role stops being a
 // provider role, the provider row is deactivated, or the change is refused (409) while the provider
 // still has open visits ahead; when it becomes a provider role again, the row is reactivated.
-import { DateTime } from 'luxon'
+import { formatDateTime } from '#shared/utils/display-time'
 import type { SessionUser } from '#shared/types/auth'
 import type { ProviderSummary, StaffAccount } from '#shared/types/people'
 import type { ProviderBody, ProviderPatch, StaffBody, StaffPatch } from '#shared/schemas/people'
@@ -99,7 +99,7 @@ const NAMED_VISITS = 5
 
 function describeVisits(visits: OpenVisitRow[]): string {
   const named = visits.slice(0, NAMED_VISITS).map((visit) =>
-    `${DateTime.fromJSDate(visit.start_utc, { zone: visit.time_zone }).toFormat('ccc d LLL yyyy HH:mm')} at ${visit.site_name} (visit ${visit.id})`)
+    `${formatDateTime(visit.start_utc, { timeZone: visit.time_zone, clock: visit.clock, dateOrder: visit.date_order }, 'medium')} at ${visit.site_name} (visit ${visit.id})`)
   const more = visits.length > NAMED_VISITS ? ` and ${visits.length - NAMED_VISITS} more` : ''
   return `${named.join(', ')}${more}`
 }

@@ -4,6 +4,7 @@ import { BlockSchema, ShiftSchema, type BlockBody, type BlockPatch, type ShiftBo
 import type { BlockDto, ShiftDto, ShiftExceptionDto } from '#shared/types/rota-api'
 import { findFirstShiftClash } from '#shared/domain/rota'
 import { managesProvider } from '#shared/utils/access'
+import { displayStyleOf, formatLocalDate } from '#shared/utils/display-time'
 import { requireSiteAccess } from '../utils/auth'
 import type { Db } from '../utils/db'
 import { assertValid, badRequest, conflict, notFound } from '../utils/errors'
@@ -49,7 +50,9 @@ async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number): 
   const clash = findFirstShiftClash(candidate, others.map(shiftToInput), zoneOf)
   if (!clash) return
   const siteName = sites.find((site) => site.id === clash.otherSiteId)?.name ?? `site ${clash.otherSiteId}`
-  throw conflict(`${provider.name} already works at ${siteName} on ${clash.date} at that time.`, {
+  // The date in the order of the site whose shift is being saved (the screen that asked).
+  const dateText = formatLocalDate(clash.date, displayStyleOf(sites.find((site) => site.id === shift.siteId)), 'medium')
+  throw conflict(`${provider.name} already works at ${siteName} on ${dateText} at that time.`, {
     field: 'rrule', date: clash.date, otherShiftId: clash.otherShiftId, otherSiteId: clash.otherSiteId,
   })
 }

@@ -25,7 +25,6 @@
 // in the same chair ends and one for ending exactly where the next one starts (0, 1 or 2). Higher
 // scores first; within a score the default order. Only visits count, not opening hours or blocks.
 // Scoring needs every opening in the range, so this mode does not stop early.
-import { DateTime } from 'luxon'
 import type { FormattedOpeningTimes, Opening, OpeningsQuery, OpeningsResult } from '../types/openings'
 import type { EpochInterval } from '../types/rota'
 import { DomainValidationError } from './errors'
@@ -33,6 +32,7 @@ import { buildSearchContext, earliestStartMs, type ChairCandidate, type Provider
 import { walkStartsInOrder, type Pairing, type TimedStart } from './openings-cursor'
 import { explainNoOpenings } from './openings-reasons'
 import { chairStartWindows, intersectWindows, providerStartWindows, type StartWindow } from './openings-windows'
+import { localIsoAt } from '../utils/local-date'
 
 export const DEFAULT_OPENINGS_LIMIT = 10
 const FIRST_HORIZON_MS = 86_400_000
@@ -192,12 +192,11 @@ export function findOpenings(query: OpeningsQuery): OpeningsResult {
 
 /** An opening's times as UTC and site-local ISO strings. */
 export function formatOpening(opening: Pick<Opening, 'startMs' | 'endMs'>, zone: string): FormattedOpeningTimes {
-  const local = (ms: number) => DateTime.fromMillis(ms, { zone }).toISO({ suppressMilliseconds: true }) ?? ''
   return {
     startUtc: new Date(opening.startMs).toISOString(),
     endUtc: new Date(opening.endMs).toISOString(),
-    startLocalIso: local(opening.startMs),
-    endLocalIso: local(opening.endMs),
+    startLocalIso: localIsoAt(opening.startMs, zone),
+    endLocalIso: localIsoAt(opening.endMs, zone),
     timeZone: zone,
   }
 }

@@ -1,5 +1,7 @@
 // Visit states (glossary) and the moves between them the front desk and providers may make.
-import { DateTime } from 'luxon'
+import type { DisplayStyle } from '../types/display'
+import { formatDate, formatTime } from '../utils/display-time'
+import { localDateAt } from '../utils/local-date'
 
 export const VISIT_STATES = ['booked', 'confirmed', 'arrived', 'treating', 'finished', 'missed', 'cancelled'] as const
 export type VisitState = (typeof VISIT_STATES)[number]
@@ -56,15 +58,10 @@ export const VISIT_STATE_LABELS: Record<VisitState, string> = {
 /** Minutes before its start from which a visit may be marked arrived. */
 export const ARRIVE_EARLY_MINUTES = 60
 
-export interface VisitTiming {
+/** A visit's state and start, with its site's display style: "its day" is the visit's local date in `timeZone`, and refusals read on the site's clock and date order. */
+export interface VisitTiming extends DisplayStyle {
   state: VisitState
   startUtc: string
-  /** The site's IANA zone: "its day" is the visit's local date there. */
-  timeZone: string
-}
-
-function localDay(ms: number, zone: string): string {
-  return DateTime.fromMillis(ms, { zone }).toISODate()!
 }
 
 /**
@@ -79,18 +76,17 @@ function localDay(ms: number, zone: string): string {
  */
 export function stateTimeProblem(visit: VisitTiming, to: VisitState, nowMs: number): string | null {
   const startMs = Date.parse(visit.startUtc)
-  const start = DateTime.fromMillis(startMs, { zone: visit.timeZone })
-  const visitDay = start.toISODate()!
-  const today = localDay(nowMs, visit.timeZone)
-  const dayText = start.toFormat('ccc d LLL')
-  const startText = start.toFormat('HH:mm')
+  const visitDay = localDateAt(startMs, visit.timeZone)
+  const today = localDateAt(nowMs, visit.timeZone)
+  const dayText = formatDate(startMs, visit)
+  const startText = formatTime(startMs, visit)
   const label = VISIT_STATE_LABELS[to].toLowerCase()
   switch (to) {
     case 'arrived': {
       if (today !== visitDay) return `${dayText} is not today: a visit can be marked arrived only on its day.`
       const from = startMs - ARRIVE_EARLY_MINUTES * 60_000
       if (nowMs < from) {
-        return `The visit starts at ${startText}: it can be marked arrived from ${DateTime.fromMillis(from, { zone: visit.timeZone }).toFormat('HH:mm')}, ${ARRIVE_EARLY_MINUTES} minutes before.`
+        return `The visit starts at ${startText}: it can be marked arrived from ${formatTime(from, visit)}, ${ARRIVE_EARLY_MINUTES} minutes before.`
       }
       return null
     }

@@ -2,7 +2,7 @@
 // do it now, and its words. Pure: the caller passes the clock. Whether the chair, provider and patient
 // are still free for a visit that gave its time back (did not come, cancelled) is checked by the
 // booking transaction on the server.
-import { DateTime } from 'luxon'
+import { localDateAt } from '../utils/local-date'
 import { holdsTime, VISIT_STATE_LABELS, type VisitState } from './visit-states'
 import { isDeskOf, isOwnProvider, NOT_YOUR_VISIT, type VisitActor, type Verdict } from './visit-access'
 
@@ -49,8 +49,8 @@ export function mayUndo(actor: VisitActor, visit: UndoFacts, nowMs: number): Ver
   if (to === null || visit.stateChangedAt === null) {
     return { allowed: false, status: 409, reason: 'There is no state change to undo on this visit.' }
   }
-  const changedDay = DateTime.fromISO(visit.stateChangedAt, { zone: visit.timeZone }).toISODate()
-  const today = DateTime.fromMillis(nowMs, { zone: visit.timeZone }).toISODate()
+  const changedDay = localDateAt(Date.parse(visit.stateChangedAt), visit.timeZone)
+  const today = localDateAt(nowMs, visit.timeZone)
   if (changedDay !== today) {
     return { allowed: false, status: 409, reason: `The visit became ${VISIT_STATE_LABELS[visit.state].toLowerCase()} on an earlier day: a change can be undone only on the day it was made.` }
   }

@@ -1,9 +1,8 @@
 // Field schemas for site-local wall times and dates (the rota's own language), used by every
 // rota, site and block schema so that each 400 reads the same way.
 import { z } from 'zod'
-import { IANAZone } from 'luxon'
 import { validateRule } from '../domain/recurrence/rules'
-import { minutesOfDayOrNull } from '../utils/local-date'
+import { isKnownZone, minutesOfDayOrNull } from '../utils/local-date'
 import { dateInBounds } from './common'
 
 /** 'HH:mm', 00:00 to 23:59 (zod's ISO time without seconds). */
@@ -39,7 +38,7 @@ export const TimeZoneSchema = z
   .string({ error: 'is required' })
   .trim()
   .min(1, 'is required')
-  .refine((zone) => IANAZone.isValidZone(zone), 'is not an IANA time zone such as America/Denver')
+  .refine(isKnownZone, 'is not an IANA time zone such as America/Denver')
 
 /** An RRULE value without DTSTART/UNTIL, checked by the recurrence engine. */
 export const RruleSchema = z

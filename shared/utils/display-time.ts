@@ -11,7 +11,7 @@
 import { DateTime } from 'luxon'
 import type { LocalDate, LocalTime } from '../types/rota'
 import type { ClockStyle, DateOrder, DisplayStyle } from '../types/display'
-import { localDateAt } from './local-date'
+import { addDays, localDateAt } from './local-date'
 
 export type DateLength = 'numeric' | 'medium' | 'short' | 'long'
 type Instant = string | number | Date
@@ -20,6 +20,11 @@ type Instant = string | number | Date
 export const DEFAULT_DISPLAY: Omit<DisplayStyle, 'timeZone'> = { clock: '12h', dateOrder: 'month-day-year' }
 
 const LOCAL_DATE = /^\d{4}-\d{2}-\d{2}$/
+
+/** A site's display style from its row or summary; no site (or none found) reads with the defaults in `zone`. */
+export function displayStyleOf(site: DisplayStyle | null | undefined, zone = 'UTC'): DisplayStyle {
+  return site ? { timeZone: site.timeZone, clock: site.clock, dateOrder: site.dateOrder } : { timeZone: zone, ...DEFAULT_DISPLAY }
+}
 
 function msOf(instant: Instant): number {
   if (typeof instant === 'number') return instant
@@ -56,6 +61,21 @@ export function formatWallTime(time: LocalTime, style: Pick<DisplayStyle, 'clock
 export function formatHour(hour: number, style: Pick<DisplayStyle, 'clock'>): string {
   if (style.clock === '24h') return `${String(hour).padStart(2, '0')}:00`
   return `${hour % 12 === 0 ? 12 : hour % 12} ${hour % 24 < 12 ? 'AM' : 'PM'}`
+}
+
+const WEEK_START_PATTERNS: Record<DateOrder, string> = { 'month-day-year': 'LLL d', 'day-month-year': 'd LLL', 'year-month-day': 'yyyy-MM-dd' }
+
+/** The seven local dates of the week starting `monday`, labelled short in the site's date order ('Mon, Mar 9' / 'Mon 9 Mar'), with today marked. */
+export function weekDays(monday: LocalDate, style: Pick<DisplayStyle, 'dateOrder'>, today: LocalDate | null = null): { date: LocalDate; label: string; today: boolean }[] {
+  return Array.from({ length: 7 }, (_, index) => {
+    const date = addDays(monday, index)
+    return { date, label: formatLocalDate(date, style, 'short'), today: date === today }
+  })
+}
+
+/** The week starting `monday` as a toolbar names it: 'Mar 9 – Mar 15, 2026', '9 Mar – 15 Mar 2026' or '2026-03-09 – 2026-03-15'. */
+export function weekLabelOf(monday: LocalDate, style: Pick<DisplayStyle, 'dateOrder'>): string {
+  return `${wallDate(monday).toFormat(WEEK_START_PATTERNS[style.dateOrder])} – ${formatLocalDate(addDays(monday, 6), style, 'medium')}`
 }
 
 /** The time of an instant on the site's wall clock. */
@@ -120,7 +140,7 @@ export function parseDateInput(text: string, order: DateOrder): LocalDate | null
   return DateTime.fromISO(iso, { zone: 'UTC' }).isValid ? iso : null
 }
 
-function zoneNamePart(zone: string, atMs: number, timeZoneName: 'longGeneric' | 'shortOffset'): string {
+function zoneNamePart(zone: string, atMs: number, timeZoneName: 'long' | 'longGeneric' | 'shortOffset'): string {
   const parts = new Intl.DateTimeFormat('en-US', { timeZone: zone, timeZoneName }).formatToParts(new Date(atMs))
   return parts.find((part) => part.type === 'timeZoneName')?.value ?? zone
 }
@@ -134,4 +154,9 @@ export function zoneLabel(zone: string, atMs: number = Date.now()): string {
   const name = zoneNamePart(zone, atMs, 'longGeneric').replace(/ (Standard )?Time$/, ' time')
   const offset = zoneNamePart(zone, atMs, 'shortOffset').replace(/^GMT/, 'UTC').replace('-', '\u2212')
   return name.startsWith('GMT') ? offset : `${name}, ${offset}`
+}
+
+/** The zone's name at `atMs` as a calendar writes it beside a time: 'Pacific Standard Time', 'Pacific Daylight Time'. */
+export function zoneLongName(zone: string, atMs: number): string {
+  return zoneNamePart(zone, atMs, 'long')
 }

@@ -209,6 +209,11 @@ export function offsetMinutesAt(zone: string, utcMs: number): number {
   return offset
 }
 
+/** Whether `zone` names a zone of the IANA database, such as 'America/Denver'. */
+export function isKnownZone(zone: string): boolean {
+  return IANAZone.isValidZone(zone)
+}
+
 /** The first instant in (loMs, hiMs] at which `zone`'s offset differs from its offset at loMs. */
 export function firstOffsetChange(zone: string, loMs: number, hiMs: number): number {
   return firstOffsetChangeBy((utcMs) => offsetMinutesAt(zone, utcMs), loMs, hiMs)
@@ -249,9 +254,33 @@ export function localToUtc(date: LocalDate, time: LocalTime, zone: string): stri
   return new Date(localToUtcMs(date, time, zone)).toISOString()
 }
 
+/** Wall milliseconds (the zone's wall-clock fields read as if UTC) at a UTC instant. */
+export function wallMsAt(utcMs: number, zone: string): number {
+  return utcMs + offsetMinutesAt(zone, utcMs) * MINUTE_MS
+}
+
 /** The local date in `zone` at a UTC instant. */
 export function localDateAt(utcMs: number, zone: string): LocalDate {
-  return wallDateOf(utcMs + offsetMinutesAt(zone, utcMs) * MINUTE_MS)
+  return wallDateOf(wallMsAt(utcMs, zone))
+}
+
+/** Whole minutes after local midnight on the wall clock of `zone` at a UTC instant (0–1439). */
+export function localMinutesAt(utcMs: number, zone: string): number {
+  const wallMs = wallMsAt(utcMs, zone)
+  return Math.floor((wallMs - wallMidnightMs(wallDateOf(wallMs))) / MINUTE_MS)
+}
+
+/**
+ * The UTC ISO instant of a typed local date ('YYYY-MM-DD') and time ('HH:mm') in `zone`, or null when
+ * either is not a real date or time (a form's half-filled fields).
+ */
+export function localToUtcOrNull(date: string, time: string, zone: string): string | null {
+  if (!LOCAL_DATE_PATTERN.test(date) || minutesOfDayOrNull(time) === null || time === '24:00') return null
+  try {
+    return localToUtc(date, time, zone)
+  } catch {
+    return null
+  }
 }
 
 /** Today's date on the wall clock of `zone` (a site's, never the browser's own). */
@@ -288,27 +317,6 @@ export function minutesIntoDay(utc: string, zone: string, date: LocalDate): numb
 /** 'HH:mm' on the wall clock of `zone` at a UTC instant. */
 export function localTime(utc: string, zone: string): LocalTime {
   return DateTime.fromISO(utc, { zone: 'UTC' }).setZone(zone).toFormat('HH:mm')
-}
-
-// ---------------------------------------------------------------------------
-// Week labels (Rota, Week views): English, day first.
-// ---------------------------------------------------------------------------
-
-function formatDate(date: LocalDate, format: string): string {
-  return DateTime.fromMillis(wallMidnightMs(date), { zone: 'UTC' }).toFormat(format)
-}
-
-/** The seven local dates of the week starting `monday`, labelled ('Mon 9 Mar'), with today marked. */
-export function weekDays(monday: LocalDate, today: LocalDate | null = null): { date: LocalDate; label: string; today: boolean }[] {
-  return Array.from({ length: 7 }, (_, index) => {
-    const date = addDays(monday, index)
-    return { date, label: formatDate(date, 'ccc d LLL'), today: date === today }
-  })
-}
-
-/** '9 Mar – 15 Mar 2026' for the week starting `monday`. */
-export function weekLabelOf(monday: LocalDate): string {
-  return `${formatDate(monday, 'd LLL')} – ${formatDate(addDays(monday, 6), 'd LLL yyyy')}`
 }
 
 /** ISO 8601 with the zone's offset (`2026-03-09T08:00:00-07:00`) at a UTC instant: a `…LocalIso` value. */

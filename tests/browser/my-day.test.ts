@@ -2,12 +2,12 @@
 // its numbing band, no countdown while the patient has not arrived (issue 13 §4), and a state change the server refuses rolled back with its reason.
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
-import { DateTime } from 'luxon'
 import { ARTIFACTS, openBrowser, screenshot, signInThroughForm, type BrowserSession } from '../helpers/browser'
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { bookFirstOpening, demoDentistProviderId } from '../helpers/visits'
 import { weekdayAhead, MONDAY, WEDNESDAY } from '../helpers/dates'
+import { formatDate } from '../../shared/utils/display-time'
 
 const ZONE = 'America/Los_Angeles'
 const VISIT_DAY = weekdayAhead(13, MONDAY, 'America/Los_Angeles')
@@ -77,7 +77,9 @@ describe('My day', () => {
     const { page } = browser
     const block = page.locator(`[data-testid="myday-visit"][data-visit-id="${booking.visit.id}"]`)
     // Only this browser's clock reads the visit's day; the server's clock is today's, so it refuses.
-    const day = DateTime.fromISO(booking.visit.startUtc).setZone(ZONE).toFormat('ccc d LLL')
+    // The refusal names the day in the site's own date order (its setting on the site row).
+    const site = await testDb()('sites').where({ slug: 'quarry-street' }).first('clock', 'date_order')
+    const day = formatDate(booking.visit.startUtc, { timeZone: ZONE, clock: site.clock, dateOrder: site.date_order })
     await block.getByRole('button', { name: `Mark arrived: ${booking.patientName}` }).click()
     await expect.poll(() => page.getByTestId('state-problem').textContent())
       .toBe(`Could not mark ${booking.patientName} as arrived: ${day} is not today: a visit can be marked arrived only on its day.`)

@@ -5,6 +5,7 @@ import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from 
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { createTestProvider } from '../helpers/rota'
 import { addDays } from '../../shared/utils/local-date'
+import { formatLocalDate } from '../../shared/utils/display-time'
 
 let browser: BrowserSession
 let provider: Awaited<ReturnType<typeof createTestProvider>>
@@ -48,8 +49,8 @@ describe('Rota', () => {
     await expect.poll(() => mine.count()).toBe(2)
     const labels = await mine.evaluateAll((cards) => cards.map((card) => card.getAttribute('aria-label')))
     expect(labels).toEqual([
-      expect.stringMatching(new RegExp(`^${provider.name}, 07:30–16:00, Tue `)),
-      expect.stringMatching(new RegExp(`^${provider.name}, 07:30–16:00, Thu `)),
+      expect.stringMatching(new RegExp(`^${provider.name}, 07:30–16:00, Tue\\b`)),
+      expect.stringMatching(new RegExp(`^${provider.name}, 07:30–16:00, Thu\\b`)),
     ])
     expect(await page.getByTestId('shift-rules').textContent()).toContain('every Tuesday and Thursday, 07:30–16:00')
 
@@ -72,10 +73,12 @@ describe('Rota', () => {
     const saguaro = await siteIdBySlug('saguaro-flats')
     await testDb()('shifts').insert({ provider_id: provider.providerId, site_id: saguaro, rrule: 'FREQ=WEEKLY;BYDAY=TU', valid_from: '2026-01-06', valid_until: null, local_start: '07:00', local_end: '12:00' })
     const firstTuesday = addDays(stored.valid_from, 1)
+    // The refusal reads the date in the order of the shift's own site.
+    const ownSite = await testDb()('sites').where({ id: stored.site_id }).first('date_order')
     await form.getByLabel('Starts at').fill('08:00')
     await form.getByRole('button', { name: 'Save changes' }).click()
     await expect.poll(() => form.getByTestId('form-problem').textContent())
-      .toBe(`${provider.name} already works at Fernhollow Saguaro Flats on ${firstTuesday} at that time.`)
+      .toBe(`${provider.name} already works at Fernhollow Saguaro Flats on ${formatLocalDate(firstTuesday, { dateOrder: ownSite.date_order }, 'medium')} at that time.`)
     await screenshot(page, 'rota-shift-clash')
     await testDb()('shifts').where({ provider_id: provider.providerId, site_id: saguaro }).delete()
     await form.getByRole('button', { name: 'Cancel' }).click()

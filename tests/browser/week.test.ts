@@ -6,6 +6,7 @@ import { openBrowser, screenshot, signInThroughForm, type BrowserSession } from 
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { bookFirstOpening, demoDentistProviderId } from '../helpers/visits'
+import { formatLocalDate, weekLabelOf } from '../../shared/utils/display-time'
 
 const ZONE = 'America/Los_Angeles'
 let browser: BrowserSession
@@ -44,10 +45,12 @@ describe('Week views', () => {
     await expect.poll(() => page.getByLabel('Provider to show').locator('option:checked').textContent()).toBe(booking.opening.providerName)
     await page.getByRole('button', { name: 'Next week' }).click()
     const start = startLabel()
-    await expect.poll(() => page.getByTestId('week-label').textContent()).toBe(`${start.startOf('week').toFormat('d LLL')} – ${start.startOf('week').plus({ days: 6 }).toFormat('d LLL yyyy')}`)
+    // Labels in the date order the demo sites use (read from the site row, not assumed).
+    const { date_order: dateOrder } = await testDb()('sites').where({ slug: 'quarry-street' }).first('date_order')
+    await expect.poll(() => page.getByTestId('week-label').textContent()).toBe(weekLabelOf(start.startOf('week').toISODate()!, { dateOrder }))
     const card = page.locator(`[data-testid="week-visit"][data-visit-id="${booking.visit.id}"]`)
     await expect.poll(() => card.count()).toBe(1)
-    const day = page.getByRole('group', { name: start.toFormat('ccc d LLL') })
+    const day = page.getByRole('group', { name: formatLocalDate(start.toISODate()!, { dateOrder }, 'short') })
     expect(await day.locator(`[data-visit-id="${booking.visit.id}"]`).count()).toBe(1)
     const label = await card.getAttribute('aria-label')
     expect(label).toContain(booking.patientName)

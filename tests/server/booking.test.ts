@@ -4,7 +4,9 @@ import { ApiClient, signedInAs } from '../helpers/api-client'
 import { startAppServer, type RunningServer } from '../helpers/app-server'
 import { closeTestDb, siteIdBySlug, testDb } from '../helpers/db'
 import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
-import { atAhead, MONDAY, TUESDAY, WEDNESDAY, THURSDAY, FRIDAY } from '../helpers/dates'
+import { atAhead, weekdayAhead, MONDAY, TUESDAY, WEDNESDAY, THURSDAY, FRIDAY } from '../helpers/dates'
+import type { DisplayStyle } from '../../shared/types/display'
+import { formatDateTime, formatTime } from '../../shared/utils/display-time'
 
 const QUARRY_ZONE = 'America/Los_Angeles'
 let manager: ApiClient
@@ -327,3 +329,52 @@ describe('patients for booking', () => {
     expect(noEmail.body.data.field).toBe('emailConsent')
   })
 })
+
+describe('refusals name times on the site\'s clock and in its date order (issue 14)', () => {
+  // Two test sites: one left on the defaults (12-hour clock, month first), one set to a 24-hour clock
+  // with the day first. Each refusal is checked against the text the shared formatter makes from the
+  // site's stored settings, and against the shape a reader of that site expects.
+  const TWELVE_HOUR = / from \w{3}, \w{3} \d{1,2}, \d{1,2}:\d{2} [AP]M to \d{1,2}:\d{2} [AP]M\.$/
+  const TWENTY_FOUR_HOUR = / from \w{3} \d{1,2} \w{3}, \d{2}:\d{2} to \d{2}:\d{2}\.$/
+
+  it.each([
+    ['12-hour clock, month first', 'America/Denver', null, TWELVE_HOUR],
+    ['24-hour clock, day first', 'Europe/Berlin', { clock: '24h', date_order: 'day-month-year' }, TWENTY_FOUR_HOUR],
+  ] as const)('a site with a %s', async (_name, timeZone, settings, shape) => {
+    const admin = await signedInAs('admin@fernhollow.test')
+    const site = await createAnnex({ rooms: 2, providers: 2, patients: 3, timeZone })
+    if (settings) await testDb()('sites').where({ id: site.siteId }).update(settings)
+    const stored = (await admin.get(`/api/sites/${site.siteId}`)).body as DisplayStyle
+    const style: DisplayStyle = { timeZone: stored.timeZone, clock: stored.clock, dateOrder: stored.dateOrder }
+    const body = (operatory: number, provider: number, patient: number, startUtc: string) => ({
+      siteId: site.siteId, operatoryId: site.operatoryIds[operatory], providerId: site.providerIds[provider], patientId: site.patientIds[patient], items: FILLING, startUtc,
+    })
+    const startUtc = atAhead(3, TUESDAY, '14:30', timeZone)
+    expect((await admin.post('/api/visits', body(0, 0, 0, startUtc))).status).toBe(201)
+    const span = (response: { body: { data: { conflict: { startUtc: string; endUtc: string } } } }) =>
+      `${formatDateTime(response.body.data.conflict.startUtc, style)} to ${formatTime(response.body.data.conflict.endUtc, style)}`
+
+    const chairTaken = await admin.post('/api/visits', body(0, 1, 1, startUtc))
+    expect(chairTaken.status).toBe(409)
+    expect(chairTaken.body.message).toBe(`Room 1 is already taken from ${span(chairTaken)}.`)
+    expect(chairTaken.body.message).toMatch(shape)
+    const providerBusy = await admin.post('/api/visits', body(1, 0, 1, startUtc))
+    expect(providerBusy.status).toBe(409)
+    expect(providerBusy.body.message).toMatch(/^Dr\. Annex \S+ is already working with another patient from /)
+    expect(providerBusy.body.message.endsWith(` from ${span(providerBusy)}.`)).toBe(true)
+    expect(providerBusy.body.message).toMatch(shape)
+    const patientBooked = await admin.post('/api/visits', body(1, 1, 0, startUtc))
+    expect(patientBooked.status).toBe(409)
+    expect(patientBooked.body.message).toBe(`This patient already has a visit from ${span(patientBooked)}.`)
+
+    // A blocked chair names the asked-for time the same way ('…during Tue, Dec 15, 9:00 AM–9:50 AM.').
+    const blockedDay = weekdayAhead(3, WEDNESDAY, timeZone)
+    await testDb()('blocks').insert({ site_id: site.siteId, operatory_id: site.operatoryIds[1], start_date: blockedDay, local_start: '08:00', local_end: '12:00', reason: 'Chair service' })
+    const blocked = await admin.post('/api/visits', body(1, 1, 2, atAhead(3, WEDNESDAY, '09:00', timeZone)))
+    expect(blocked.status).toBe(409)
+    const { conflict } = blocked.body.data as { conflict: { startUtc: string; endUtc: string } }
+    expect(blocked.body.message).toBe(`Room 2 is closed or blocked during ${formatDateTime(conflict.startUtc, style)}–${formatTime(conflict.endUtc, style)}.`)
+    expect(blocked.body.message).toMatch(settings ? /, 09:00–\d{2}:\d{2}\.$/ : /, 9:00 AM–\d{1,2}:\d{2} [AP]M\.$/)
+  })
+})
+

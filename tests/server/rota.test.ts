@@ -3,6 +3,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, createTestUser, siteIdBySlug, testDb } from '../helpers/db'
 import { createTestProvider, providerIdByEmail } from '../helpers/rota'
+import type { SiteSummary } from '../../shared/types/auth'
+import { displayStyleOf, formatLocalDate } from '../../shared/utils/display-time'
 
 let quarry: number
 let aspen: number
@@ -136,7 +138,10 @@ describe('shifts: one provider, one site at a time', () => {
     // (IANA tz database), so the first Monday from Wednesday 4 March, 9 March, clashes.
     const response = await manager.post('/api/shifts', shiftBody(dentist, { rrule: 'FREQ=WEEKLY;BYDAY=MO', validFrom: '2026-03-04', localStart: '08:00', localEnd: '12:00' }))
     expect(response.status).toBe(409)
-    expect(response.body.message).toMatch(/^Dr\. .+ already works at Fernhollow Quarry Street on 2026-03-09 at that time\.$/)
+    // The date reads in the order of the site the shift is for (Aspen Gulch's setting).
+    const sites = (await manager.get('/api/sites')).body as SiteSummary[]
+    const dateText = formatLocalDate('2026-03-09', displayStyleOf(sites.find((site) => site.id === aspen)), 'medium')
+    expect(response.body.message).toMatch(new RegExp(`^Dr\\. .+ already works at Fernhollow Quarry Street on ${dateText} at that time\\.$`))
     expect(response.body.data).toMatchObject({ date: '2026-03-09', otherSiteId: quarry })
   })
 

@@ -4,7 +4,8 @@
 // passes at any hour; visits that began earlier are set back in the database (the API never books
 // a past start).
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
-import { DateTime } from 'luxon'
+import type { DisplayStyle } from '../../shared/types/display'
+import { formatDate, formatTime } from '../../shared/utils/display-time'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
 import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
@@ -43,29 +44,51 @@ async function setBack(id: number, minutes: number) {
   })
 }
 
+/** The annex's display style as stored (the refusals read on its clock and in its date order). */
+async function annexStyle(): Promise<DisplayStyle> {
+  const site = (await admin.get(`/api/sites/${annex.siteId}`)).body as DisplayStyle
+  return { timeZone: site.timeZone, clock: site.clock, dateOrder: site.dateOrder }
+}
+
 const stateOf = async (id: number) => (await testDb()('visits').where({ id }).first('state')).state as string
 const segmentCount = async (id: number) => Number((await testDb()('visit_segments').where({ visit_id: id }).count({ n: '*' }).first())!.n)
 
 describe('a visit\'s state follows its time', () => {
   it('a visit weeks ahead cannot be marked did not come or arrived, and keeps its chair', async () => {
     const visit = await book(startIn(21 * 24 * 60))
-    const day = DateTime.fromISO(visit.startUtc).setZone(annex.timeZone)
+    const style = await annexStyle()
     const missed = await admin.post(`/api/visits/${visit.id}/state`, { state: 'missed' })
     expect(missed.status).toBe(409)
-    expect(missed.body.message).toBe(`The visit starts ${day.toFormat('ccc d LLL')} at ${day.toFormat('HH:mm')}: it can be marked did not come only after its start.`)
+    expect(missed.body.message).toBe(`The visit starts ${formatDate(visit.startUtc, style)} at ${formatTime(visit.startUtc, style)}: it can be marked did not come only after its start.`)
     const arrived = await admin.post(`/api/visits/${visit.id}/state`, { state: 'arrived' })
     expect(arrived.status).toBe(409)
-    expect(arrived.body.message).toBe(`${day.toFormat('ccc d LLL')} is not today: a visit can be marked arrived only on its day.`)
+    expect(arrived.body.message).toBe(`${formatDate(visit.startUtc, style)} is not today: a visit can be marked arrived only on its day.`)
     expect(await stateOf(visit.id)).toBe('booked')
     expect(await segmentCount(visit.id)).toBeGreaterThan(0)
   })
 
-  it('a visit later today: arrived only from 60 minutes before its start, missed only after it', async () => {
+  it('a visit later today: arrived only from 60 minutes before its start, missed only after it, on the site\'s clock', async () => {
     const visit = await book(startIn(120))
-    const start = DateTime.fromISO(visit.startUtc).setZone(annex.timeZone)
+    const startMs = Date.parse(visit.startUtc)
+    const expected = (style: DisplayStyle) => `The visit starts at ${formatTime(startMs, style)}: it can be marked arrived from ${formatTime(startMs - 60 * 60_000, style)}, 60 minutes before.`
+    // A new site reads with a 12-hour clock ('1:35 PM')…
+    const twelve = await annexStyle()
+    expect(twelve.clock).toBe('12h')
     const early = await admin.post(`/api/visits/${visit.id}/state`, { state: 'arrived' })
     expect(early.status).toBe(409)
-    expect(early.body.message).toBe(`The visit starts at ${start.toFormat('HH:mm')}: it can be marked arrived from ${start.minus({ minutes: 60 }).toFormat('HH:mm')}, 60 minutes before.`)
+    expect(early.body.message).toBe(expected(twelve))
+    expect(early.body.message).toMatch(/ [AP]M: /)
+    // …and once the site chooses a 24-hour clock and the day first, the same refusal follows it ('13:35').
+    expect((await admin.patch(`/api/sites/${annex.siteId}`, { clock: '24h', dateOrder: 'day-month-year' })).status).toBe(200)
+    try {
+      const twentyFour = await annexStyle()
+      expect(twentyFour).toMatchObject({ clock: '24h', dateOrder: 'day-month-year' })
+      const again = await admin.post(`/api/visits/${visit.id}/state`, { state: 'arrived' })
+      expect(again.body.message).toBe(expected(twentyFour))
+      expect(again.body.message).not.toMatch(/[AP]M/)
+    } finally {
+      await admin.patch(`/api/sites/${annex.siteId}`, { clock: '12h', dateOrder: 'month-day-year' })
+    }
     const missed = await admin.post(`/api/visits/${visit.id}/state`, { state: 'missed' })
     expect(missed.status).toBe(409)
     expect(missed.body.message).toMatch(/it can be marked did not come only after its start\.$/)
@@ -92,7 +115,7 @@ describe('a visit\'s state follows its time', () => {
     const visit = await book(startIn(30))
     expect((await admin.post(`/api/visits/${visit.id}/state`, { state: 'arrived' })).status).toBe(200)
     await setBack(visit.id, 24 * 60)
-    const yesterday = DateTime.now().setZone(annex.timeZone).minus({ days: 1 }).toFormat('ccc d LLL')
+    const yesterday = formatDate(Date.now() - 86_400_000, await annexStyle())
     const treating = await admin.post(`/api/visits/${visit.id}/state`, { state: 'treating' })
     expect(treating.status).toBe(409)
     expect(treating.body.message).toBe(`${yesterday} is not today: a visit can be marked in treatment only on its day.`)

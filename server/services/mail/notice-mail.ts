@@ -3,7 +3,7 @@
 import type { SendMailOptions } from 'nodemailer'
 import type { RenderedMessage } from '#shared/types/outbox'
 import type { SiteDetail } from '#shared/types/sites'
-import { formatDateTime, formatLocalDate, zoneLabel } from '#shared/utils/display-time'
+import { displayStyleOf, formatDateTime, formatLocalDate, zoneLabel } from '#shared/utils/display-time'
 import { RECALL_KIND_LABELS, type RecallKind } from '#shared/domain/recall'
 
 export interface NoticePatient { firstName: string; lastName: string; email: string }
@@ -68,7 +68,7 @@ export interface OfferMailFacts {
 
 export function composeOfferMail(facts: OfferMailFacts, options: { from: string; messageId?: string }) {
   const { site } = facts
-  const style = { timeZone: site.timeZone, clock: site.clock, dateOrder: site.dateOrder }
+  const style = displayStyleOf(site)
   const when = formatDateTime(facts.startMs, style, 'long')
   return composeNotice({
     site, patient: facts.patient,
@@ -92,7 +92,7 @@ export interface RecallMailFacts {
 
 export function composeRecallMail(facts: RecallMailFacts, options: { from: string; messageId?: string }) {
   const { site } = facts
-  const style = { timeZone: site.timeZone, clock: site.clock, dateOrder: site.dateOrder }
+  const style = displayStyleOf(site)
   const what = RECALL_KIND_LABELS[facts.kind].toLowerCase()
   return composeNotice({
     site, patient: facts.patient,

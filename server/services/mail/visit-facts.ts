@@ -1,7 +1,6 @@
-// The plain facts a patient message states about a visit, in the site's zone (luxon at the edge).
-import { DateTime } from 'luxon'
+// The plain facts a patient message states about a visit, in the site's zone, through the shared formatter.
 import type { MailContext } from '../../repositories/mail-context'
-import { formatDateTime } from '#shared/utils/display-time'
+import { displayStyleOf, formatDateTime, zoneLongName } from '#shared/utils/display-time'
 import { mailSettingsOf, type MailSettings } from '#shared/domain/site-settings'
 import { patientMinutesOf } from '#shared/domain/patient-time'
 
@@ -35,15 +34,14 @@ function patientMinutes(context: MailContext): number {
 
 export function visitFacts(context: MailContext): VisitFacts {
   const settings = mailSettingsOf(context.site.settings)
-  const style = { timeZone: context.site.timeZone, clock: context.site.clock, dateOrder: context.site.dateOrder }
-  const start = DateTime.fromJSDate(context.visit.startUtc, { zone: context.site.timeZone }).setLocale('en-US')
+  const style = displayStyleOf(context.site)
   const minutes = patientMinutes(context)
   const names = [...new Set((context.visit.plan.items ?? []).map((item) => item.templateName).filter(Boolean))]
   return {
     settings,
     whenLocal: formatDateTime(context.visit.startUtc, style, 'long'),
     shortWhen: formatDateTime(context.visit.startUtc, style, 'short'),
-    zoneName: start.toFormat('ZZZZZ'),
+    zoneName: zoneLongName(context.site.timeZone, context.visit.startUtc.getTime()),
     minutes,
     howLong: durationWords(minutes),
     what: settings.includeProcedureNames && names.length ? `Dental visit: ${names.join(', ')}` : 'Dental visit',

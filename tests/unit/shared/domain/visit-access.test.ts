@@ -8,7 +8,7 @@ import {
 
 const START = Date.parse('2026-03-10T16:00:00Z') // 09:00 in Los Angeles
 const visit = (overrides: Partial<VisitFacts> = {}): VisitFacts => ({
-  state: 'booked', startUtc: new Date(START).toISOString(), timeZone: 'America/Los_Angeles', siteId: 1, providerId: 7, ...overrides,
+  state: 'booked', startUtc: new Date(START).toISOString(), timeZone: 'America/Los_Angeles', clock: '12h', dateOrder: 'month-day-year', siteId: 1, providerId: 7, ...overrides,
 })
 const actor = (overrides: Partial<VisitActor> = {}): VisitActor => ({ role: 'front_desk', allSites: false, siteIds: [1], providerId: null, ...overrides })
 const MINUTE = 60_000

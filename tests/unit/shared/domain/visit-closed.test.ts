@@ -23,7 +23,7 @@ describe('the desk\'s offers follow canMove', () => {
   const nowMs = DateTime.now().setZone(zone).startOf('day').plus({ hours: 11 }).toMillis()
   const desk: VisitActor = { role: 'front_desk', allSites: false, siteIds: [1], providerId: null }
   const visit = (state: VisitState): VisitFacts => ({
-    state, siteId: 1, providerId: 10, timeZone: zone, startUtc: new Date(nowMs + 3_600_000).toISOString(),
+    state, siteId: 1, providerId: 10, timeZone: zone, clock: '24h', dateOrder: 'day-month-year', startUtc: new Date(nowMs + 3_600_000).toISOString(),
   })
 
   it('offers move and length exactly for the states canMove allows', () => {

@@ -8,8 +8,11 @@ import { mayChangeState, mayRebook, visitOffers, NOT_YOUR_VISIT, DESK_ONLY, type
 
 const LA = 'America/Los_Angeles'
 const at = (local: string, zone = LA) => DateTime.fromISO(local, { zone }).toMillis()
+// Most refusals below are read at a site with a 24-hour clock and the day first; the last block
+// reads them at a site with a 12-hour clock and the month first.
+const DAY_FIRST_24 = { clock: '24h', dateOrder: 'day-month-year' } as const
 const visitAt = (local: string, state: VisitTiming['state'] = 'booked', zone = LA): VisitTiming => ({
-  state, startUtc: DateTime.fromISO(local, { zone }).toUTC().toISO()!, timeZone: zone,
+  state, startUtc: DateTime.fromISO(local, { zone }).toUTC().toISO()!, timeZone: zone, ...DAY_FIRST_24,
 })
 
 describe('arrived', () => {
@@ -60,6 +63,22 @@ describe('missed (did not come)', () => {
   })
 })
 
+describe('refusals on the site\'s clock and date order (issue 14)', () => {
+  const us = { ...visitAt('2026-12-07T14:00'), clock: '12h', dateOrder: 'month-day-year' } as const
+  const isoOrder = { ...visitAt('2026-12-07T14:00'), clock: '24h', dateOrder: 'year-month-day' } as const
+  it('names times on a 12-hour clock and the date month first where the site reads so', () => {
+    expect(stateTimeProblem(us, 'arrived', at('2026-12-07T12:59'))).toBe('The visit starts at 2:00 PM: it can be marked arrived from 1:00 PM, 60 minutes before.')
+    expect(stateTimeProblem(us, 'missed', at('2026-12-07T09:00'))).toBe('The visit starts Mon, Dec 7 at 2:00 PM: it can be marked did not come only after its start.')
+    expect(stateTimeProblem(us, 'arrived', at('2026-12-08T00:00'))).toBe('Mon, Dec 7 is not today: a visit can be marked arrived only on its day.')
+  })
+  it('names the date year first at a site that orders dates so, and the same instant on each site\'s own clock', () => {
+    expect(stateTimeProblem(isoOrder, 'treating', at('2026-12-06T09:00'))).toBe('Mon 2026-12-07 is not today: a visit can be marked in treatment only on its day.')
+    // 22:00 UTC: 14:00 in Los Angeles, 15:00 in Denver.
+    const denver = { ...us, timeZone: 'America/Denver' }
+    expect(stateTimeProblem(denver, 'arrived', at('2026-12-07T12:59'))).toBe('The visit starts at 3:00 PM: it can be marked arrived from 2:00 PM, 60 minutes before.')
+  })
+})
+
 describe('treating and finished', () => {
   const visit = visitAt('2026-12-07T14:00', 'arrived')
   it('treating only on the visit\'s day', () => {
@@ -79,7 +98,7 @@ describe('treating and finished', () => {
 })
 
 describe('who may change a visit', () => {
-  const visit: VisitFacts = { siteId: 1, providerId: 10, state: 'booked', startUtc: DateTime.fromISO('2026-12-07T14:00', { zone: LA }).toUTC().toISO()!, timeZone: LA }
+  const visit: VisitFacts = { siteId: 1, providerId: 10, state: 'booked', startUtc: DateTime.fromISO('2026-12-07T14:00', { zone: LA }).toUTC().toISO()!, timeZone: LA, ...DAY_FIRST_24 }
   const onTheDay = at('2026-12-07T14:05')
   const desk: VisitActor = { role: 'front_desk', allSites: false, siteIds: [1], providerId: null }
   const otherDesk: VisitActor = { role: 'front_desk', allSites: false, siteIds: [2], providerId: null }

@@ -3,7 +3,8 @@
 import { describe, expect, it } from 'vitest'
 import type { DisplayStyle } from '../../../../shared/types/display'
 import {
-  dateInputHint, formatDate, formatDateTime, formatLocalDate, formatRange, formatTime, formatTimeRange, formatWallTime, parseDateInput, zoneLabel,
+  dateInputHint, displayStyleOf, formatDate, formatDateTime, formatLocalDate, formatRange, formatTime, formatTimeRange, formatWallTime, parseDateInput,
+  weekDays, weekLabelOf, zoneLabel, zoneLongName,
 } from '../../../../shared/utils/display-time'
 
 const US: DisplayStyle = { timeZone: 'America/Los_Angeles', clock: '12h', dateOrder: 'month-day-year' }
@@ -95,3 +96,32 @@ describe('zone names', () => {
     expect(zoneLabel('America/Phoenix', Date.parse('2026-07-01T12:00:00Z'))).toBe('Mountain time, UTC\u22127')
   })
 })
+
+describe('week labels in the site\'s date order (Rota, Week views)', () => {
+  it('labels the seven days short in each order and marks today', () => {
+    const days = weekDays('2027-03-15', US, '2027-03-17')
+    expect(days.map((day) => day.date)).toEqual(['2027-03-15', '2027-03-16', '2027-03-17', '2027-03-18', '2027-03-19', '2027-03-20', '2027-03-21'])
+    expect(days.map((day) => [day.label, day.today])[2]).toEqual(['Wed, Mar 17', true])
+    expect(weekDays('2027-03-15', DAY_FIRST_24)[2]!.label).toBe('Wed 17 Mar')
+    expect(weekDays('2027-03-15', ISO_ORDER)[2]!.label).toBe('Wed 2027-03-17')
+    expect(weekDays('2027-03-15', US).some((day) => day.today)).toBe(false)
+  })
+  it('names a week across the new year with the year of its last day', () => {
+    expect(weekLabelOf('2027-12-27', US)).toBe('Dec 27 – Jan 2, 2028')
+    expect(weekLabelOf('2027-12-27', DAY_FIRST_24)).toBe('27 Dec – 2 Jan 2028')
+    expect(weekLabelOf('2027-12-27', ISO_ORDER)).toBe('2027-12-27 – 2028-01-02')
+  })
+})
+
+describe('a site\'s style and its zone\'s name', () => {
+  it('takes the style from a site row, or the defaults in a given zone', () => {
+    expect(displayStyleOf({ ...DAY_FIRST_24, name: 'a site' } as typeof DAY_FIRST_24)).toEqual(DAY_FIRST_24)
+    expect(displayStyleOf(undefined, 'Pacific/Auckland')).toEqual({ timeZone: 'Pacific/Auckland', clock: '12h', dateOrder: 'month-day-year' })
+    expect(displayStyleOf(null)).toMatchObject({ timeZone: 'UTC' })
+  })
+  it('names the zone as a calendar does, standard or daylight by the date (CLDR names through Intl)', () => {
+    expect(zoneLongName('America/Los_Angeles', Date.parse(INSTANT))).toBe('Pacific Standard Time')
+    expect(zoneLongName('America/Los_Angeles', Date.parse('2026-07-01T17:00:00Z'))).toBe('Pacific Daylight Time')
+  })
+})
+

@@ -1,23 +1,25 @@
 // The one home for local dates and times: calendar arithmetic, zone offsets, local ↔ UTC,
-// day ranges, week labels. Fixed dates on purpose: these helpers are pure and take "now" as an argument.
+// day ranges. Fixed dates on purpose: these helpers are pure and take "now" as an argument.
 import { describe, expect, it } from 'vitest'
 import {
   addDays,
   anyZoneRange,
   eachLocalDate,
   firstOffsetChange,
+  isKnownZone,
   isoWeekdayOf,
   localDateAt,
   localDayRange,
+  localMinutesAt,
   localTime,
   localToUtc,
+  localToUtcOrNull,
   minutesIntoDay,
   minutesOfDay,
   mondayOf,
   offsetMinutesAt,
   todayIn,
-  weekDays,
-  weekLabelOf,
+  wallMsAt,
 } from '../../../../shared/utils/local-date'
 
 const NEW_YORK = 'America/New_York'
@@ -118,12 +120,28 @@ describe('local days and today', () => {
   })
 })
 
-describe('week labels', () => {
-  it('labels the seven days of a week and marks today', () => {
-    const days = weekDays('2027-03-15', '2027-03-17')
-    expect(days.map((day) => day.date)).toEqual(eachLocalDate('2027-03-15', '2027-03-21'))
-    expect(days.map((day) => [day.label, day.today])[2]).toEqual(['Wed 17 Mar', true])
-    expect(weekDays('2027-03-15').some((day) => day.today)).toBe(false)
-    expect(weekLabelOf('2027-12-27')).toBe('27 Dec – 2 Jan 2028')
+describe('wall clock at an instant, and typed local times', () => {
+  it('reads the wall clock of the zone, not UTC: 17:05 UTC is 09:05 in Los Angeles and 10:05 in Phoenix', () => {
+    const instant = Date.UTC(2026, 11, 1, 17, 5, 30)
+    expect(new Date(wallMsAt(instant, LOS_ANGELES)).toISOString()).toBe('2026-12-01T09:05:30.000Z')
+    expect(localMinutesAt(instant, LOS_ANGELES)).toBe(9 * 60 + 5)
+    expect(localMinutesAt(instant, PHOENIX)).toBe(10 * 60 + 5)
+    // 07:30 UTC on 2 December is still 1 December, 23:30, in Los Angeles.
+    expect(localMinutesAt(Date.UTC(2026, 11, 2, 7, 30), LOS_ANGELES)).toBe(23 * 60 + 30)
+    expect(localDateAt(Date.UTC(2026, 11, 2, 7, 30), LOS_ANGELES)).toBe('2026-12-01')
+  })
+  it('turns a form\'s date and time into an instant, and a half-filled or impossible one into null', () => {
+    expect(localToUtcOrNull('2026-03-09', '08:00', LOS_ANGELES)).toBe(localToUtc('2026-03-09', '08:00', LOS_ANGELES))
+    // In the spring-forward gap it moves forward, as localToUtc does (RFC 5545 §3.3.5).
+    expect(localToUtcOrNull('2026-03-08', '02:30', LOS_ANGELES)).toBe('2026-03-08T10:30:00.000Z')
+    for (const [date, time] of [['', '08:00'], ['2026-03-09', ''], ['2026-02-30', '08:00'], ['2026-03-09', '25:00'], ['2026-03-09', '24:00'], ['9/3/2026', '08:00']]) {
+      expect(localToUtcOrNull(date!, time!, LOS_ANGELES)).toBeNull()
+    }
+  })
+  it('knows the zones of the IANA database and no others', () => {
+    expect(isKnownZone(DENVER)).toBe(true)
+    expect(isKnownZone('Etc/GMT+5')).toBe(true)
+    expect(isKnownZone('Mars/Olympus_Mons')).toBe(false)
+    expect(isKnownZone('')).toBe(false)
   })
 })
