@@ -87,6 +87,7 @@ function simpleOccurrences(rule: SimpleRule, dtstartMs: number, firstMs: number,
   return dates
 }
 
+/** One rule's DTSTART and UNTIL, and the wall days it may occur on within the asked dates. */
 interface OccurrenceWindow {
   dtstartMs: number
   firstMs: number
@@ -94,47 +95,17 @@ interface OccurrenceWindow {
   untilMs: number | null
 }
 
-function occurrenceWindow(startDate: LocalDate, untilDate: LocalDate | null, fromDate: LocalDate, toDate: LocalDate): OccurrenceWindow {
+/** The rule's window over fromDate..toDate, or null when the rule's dates and the asked dates do not meet. */
+function occurrenceWindow(startDate: LocalDate, untilDate: LocalDate | null, fromDate: LocalDate, toDate: LocalDate): OccurrenceWindow | null {
   const dtstartMs = wallMidnightMs(startDate)
   const untilMs = untilDate === null ? null : wallMidnightMs(untilDate)
-  return {
-    dtstartMs,
-    untilMs,
-    firstMs: Math.max(wallMidnightMs(fromDate), dtstartMs),
-    lastMs: Math.min(wallMidnightMs(toDate), untilMs ?? Infinity),
-  }
+  const firstMs = Math.max(wallMidnightMs(fromDate), dtstartMs)
+  const lastMs = Math.min(wallMidnightMs(toDate), untilMs ?? Infinity)
+  return firstMs > lastMs ? null : { dtstartMs, untilMs, firstMs, lastMs }
 }
 
-/**
- * Local dates on which a rule occurs, between `fromDate` and `toDate` (both inclusive).
- * `startDate` is DTSTART (counting for COUNT starts there) and `untilDate` the last allowed
- * date (inclusive). A start date that does not match the rule is not itself an occurrence.
- */
-export function occurrenceDates(
-  rrule: string,
-  startDate: LocalDate,
-  untilDate: LocalDate | null,
-  fromDate: LocalDate,
-  toDate: LocalDate,
-): LocalDate[] {
-  const parsed = parseValidRule(rrule)
-  if (!parsed.simple) return occurrenceDatesViaRRule(rrule, startDate, untilDate, fromDate, toDate)
-  const window = occurrenceWindow(startDate, untilDate, fromDate, toDate)
-  if (window.firstMs > window.lastMs) return []
-  return simpleOccurrences(parsed.simple, window.dtstartMs, window.firstMs, window.lastMs)
-}
-
-/** The same as `occurrenceDates`, always through rrule's general iterator (any supported rule). */
-export function occurrenceDatesViaRRule(
-  rrule: string,
-  startDate: LocalDate,
-  untilDate: LocalDate | null,
-  fromDate: LocalDate,
-  toDate: LocalDate,
-): LocalDate[] {
-  const parsed = parseValidRule(rrule)
-  const window = occurrenceWindow(startDate, untilDate, fromDate, toDate)
-  if (window.firstMs > window.lastMs) return []
+/** rrule's general iterator over a window (any supported rule). */
+function generalOccurrences(parsed: ParsedRule, window: OccurrenceWindow): LocalDate[] {
   // noCache: a rule object lives for one call; rrule's own result cache would only hold memory.
   const rule = new RRule(
     {
@@ -145,4 +116,24 @@ export function occurrenceDatesViaRRule(
     true,
   )
   return rule.between(new Date(window.firstMs), new Date(window.lastMs), true).map((d) => wallDateOf(d.getTime()))
+}
+
+/**
+ * Local dates on which a rule occurs, between `fromDate` and `toDate` (both inclusive).
+ * `startDate` is DTSTART (counting for COUNT starts there) and `untilDate` the last allowed
+ * date (inclusive). A start date that does not match the rule is not itself an occurrence.
+ * Simple weekly and daily rules are counted directly; any other rule goes through rrule.
+ */
+export function occurrenceDates(rrule: string, startDate: LocalDate, untilDate: LocalDate | null, fromDate: LocalDate, toDate: LocalDate): LocalDate[] {
+  const parsed = parseValidRule(rrule)
+  const window = occurrenceWindow(startDate, untilDate, fromDate, toDate)
+  if (window === null) return []
+  return parsed.simple ? simpleOccurrences(parsed.simple, window.dtstartMs, window.firstMs, window.lastMs) : generalOccurrences(parsed, window)
+}
+
+/** The same as `occurrenceDates`, always through rrule's general iterator (the tests compare the two). */
+export function occurrenceDatesViaRRule(rrule: string, startDate: LocalDate, untilDate: LocalDate | null, fromDate: LocalDate, toDate: LocalDate): LocalDate[] {
+  const parsed = parseValidRule(rrule)
+  const window = occurrenceWindow(startDate, untilDate, fromDate, toDate)
+  return window === null ? [] : generalOccurrences(parsed, window)
 }
