@@ -1,5 +1,6 @@
 // Shifts, exceptions, blocks and availability over HTTP against the built server and real MariaDB.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DateTime } from 'luxon'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, createTestUser, siteIdBySlug, testDb } from '../helpers/db'
 import { createTestProvider, providerIdByEmail } from '../helpers/rota'
@@ -168,17 +169,25 @@ describe('shifts: one provider, one site at a time', () => {
 
   it('accepts a shift that only touches another site\'s shift (half-open intervals)', async () => {
     const dentist = twin
-    // Dates far from today: the browser tests draw this week's rota from the same database.
+    // Dates far from today (the browser tests draw this week's rota from the same database), computed
+    // so the test holds on any date: the winter before daylight saving time starts in the year after
+    // next. U.S. DST starts on the second Sunday in March (15 U.S.C. §260a, Energy Policy Act 2005).
+    const year = DateTime.utc().year + 2
+    const marchFirst = DateTime.fromObject({ year, month: 3, day: 1 }, { zone: 'UTC' })
+    const dstSunday = marchFirst.plus({ days: ((7 - marchFirst.weekday) % 7) + 7 })
+    const lastWinterWednesday = dstSunday.minus({ days: 4 })
     // Saguaro Flats Wednesdays 07:00–15:00 Phoenix (UTC−07:00 all year). In winter Aspen Gulch is
     // MST, also UTC−07:00 (IANA tz database), so Aspen 15:00–18:00 starts exactly when Saguaro ends.
-    const touching = shiftBody(dentist, { rrule: 'FREQ=WEEKLY;BYDAY=WE', validFrom: '2027-11-10', validUntil: '2028-03-08', localStart: '15:00', localEnd: '18:00' })
+    const touching = shiftBody(dentist, {
+      rrule: 'FREQ=WEEKLY;BYDAY=WE', validFrom: lastWinterWednesday.minus({ weeks: 17 }).toISODate(), validUntil: lastWinterWednesday.toISODate(), localStart: '15:00', localEnd: '18:00',
+    })
     const response = await manager.post('/api/shifts', touching)
-    expect(response.status).toBe(201)
+    expect(response.status, JSON.stringify(response.body)).toBe(201)
     await manager.delete(`/api/shifts/${response.body.id}`)
-    // Past 12 March 2028 Denver is on MDT (UTC−06:00): 15:00 there is 14:00 in Phoenix, an overlap.
-    const intoSummer = await manager.post('/api/shifts', { ...touching, validUntil: '2028-03-31' })
+    // From the DST Sunday Denver is on MDT (UTC−06:00): 15:00 there is 14:00 in Phoenix, an overlap on the Wednesday after.
+    const intoSummer = await manager.post('/api/shifts', { ...touching, validUntil: dstSunday.plus({ days: 19 }).toISODate() })
     expect(intoSummer.status).toBe(409)
-    expect(intoSummer.body.data.date).toBe('2028-03-15')
+    expect(intoSummer.body.data.date).toBe(dstSunday.plus({ days: 3 }).toISODate())
   })
 })
 
