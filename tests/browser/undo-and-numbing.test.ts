@@ -10,6 +10,7 @@ import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
 import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
 import { createStaff, middayZone, startIn, STAFF_PASSWORD } from '../helpers/midday'
+import { formatTime } from '../../shared/utils/display-time'
 
 let browser: BrowserSession
 let annex: Annex
@@ -80,8 +81,12 @@ describe('undo and the numbing clock', () => {
     await expect.poll(() => block.getByTestId('anaesthetic-given').count()).toBe(1)
     await block.getByTestId('anaesthetic-given').click()
     await expect.poll(() => block.getByTestId('numbing-countdown').textContent()).toMatch(/Ready in \d+:\d\d/)
-    expect(await block.getByTestId('anaesthetic-outcome').textContent()).toMatch(/^Anaesthetic given at \d\d:\d\d\.$/)
-    expect((await testDb()('visits').where({ id: own.id }).first('anaesthetic_given_at')).anaesthetic_given_at).not.toBeNull()
+    // The time it was recorded, on the annex's own clock (its stored setting) through the shared formatter.
+    const given = (await testDb()('visits').where({ id: own.id }).first('anaesthetic_given_at')).anaesthetic_given_at as Date
+    expect(given).not.toBeNull()
+    const site = await testDb()('sites').where({ id: annex.siteId }).first('time_zone', 'clock', 'date_order')
+    expect(await block.getByTestId('anaesthetic-outcome').textContent())
+      .toBe(`Anaesthetic given at ${formatTime(given.getTime(), { timeZone: site.time_zone, clock: site.clock, dateOrder: site.date_order })}.`)
     expect(await block.getByTestId('numbing-planned').count()).toBe(0)
     // Arrived again, so "Undo arrived" is offered beside the state buttons.
     expect(await block.getByRole('button', { name: 'Undo arrived' }).count()).toBe(1)
