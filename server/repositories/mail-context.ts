@@ -40,12 +40,24 @@ export interface MailPatient {
   emailConsent: boolean
   /** When the patient turned e-mail reminders off, or null. */
   remindersOffAt: Date | null
+  /** yyyy-MM-dd or null; with the guardian's contact it decides who a message goes to (shared/domain/message-recipient.ts). */
+  dateOfBirth: string | null
+  phone: string | null
+  guardianName: string | null
+  guardianEmail: string | null
+  guardianPhone: string | null
 }
 
 export interface MailContext {
   visit: MailVisit
   site: MailSite
   patient: MailPatient
+}
+
+/** A DATE column as yyyy-MM-dd, whether the driver hands a string or a Date. */
+function dateText(value: unknown): string | null {
+  if (value instanceof Date) return value.toISOString().slice(0, 10)
+  return typeof value === 'string' && value ? value.slice(0, 10) : null
 }
 
 export async function loadMailContext(db: Db, visitId: number): Promise<MailContext | undefined> {
@@ -60,6 +72,7 @@ export async function loadMailContext(db: Db, visitId: number): Promise<MailCont
       'sites.email as site_email', 'sites.time_zone as site_time_zone', 'sites.settings as site_settings', 'sites.colour as site_colour',
       'sites.clock as site_clock', 'sites.date_order as site_date_order',
       'patients.id as patient_id', 'patients.first_name', 'patients.last_name', 'patients.email as patient_email', 'patients.email_consent', 'patients.reminders_off_at',
+      'patients.date_of_birth', 'patients.phone as patient_phone', 'patients.guardian_name', 'patients.guardian_email', 'patients.guardian_phone',
     )
   if (!row) return undefined
   return {
@@ -71,7 +84,10 @@ export async function loadMailContext(db: Db, visitId: number): Promise<MailCont
       id: row.site_id, name: row.site_name, address: row.site_address, phone: row.site_phone, email: row.site_email,
       timeZone: row.site_time_zone, clock: row.site_clock, dateOrder: row.site_date_order, colour: row.site_colour, settings: parseJson<Record<string, unknown>>(row.site_settings, {}),
     },
-    patient: { id: row.patient_id, firstName: row.first_name, lastName: row.last_name, email: row.patient_email, emailConsent: Boolean(row.email_consent), remindersOffAt: row.reminders_off_at ?? null },
+    patient: { id: row.patient_id, firstName: row.first_name, lastName: row.last_name, email: row.patient_email, emailConsent: Boolean(row.email_consent), remindersOffAt: row.reminders_off_at ?? null,
+      dateOfBirth: dateText(row.date_of_birth), phone: row.patient_phone ?? null,
+      guardianName: row.guardian_name ?? null, guardianEmail: row.guardian_email ?? null, guardianPhone: row.guardian_phone ?? null,
+    },
   }
 }
 

@@ -1,5 +1,7 @@
 // Patient e-mails waiting to be sent. Rows are written inside the booking transaction and claimed by
 // dispatchers with SELECT … FOR UPDATE SKIP LOCKED, so several processes never take the same row.
+import { recipientOf } from '#shared/domain/message-recipient'
+import { localDateAt } from '#shared/utils/local-date'
 import { hostname } from 'node:os'
 import { escapeLike } from './patients'
 import type { Db } from '../utils/db'
@@ -161,6 +163,11 @@ interface ListedRow extends OutboxRow {
   email: string | null
   phone: string | null
   start_utc: Date | null
+  date_of_birth: string | null
+  guardian_name: string | null
+  guardian_email: string | null
+  guardian_phone: string | null
+  visit_time_zone: string | null
 }
 
 export interface OutboxFilter {
@@ -178,13 +185,27 @@ function listQuery(db: Db) {
   return db('outbox')
     .leftJoin('visits', 'visits.id', 'outbox.visit_id')
     .leftJoin('patients', 'patients.id', 'visits.patient_id')
-    .select('outbox.*', 'patients.first_name', 'patients.last_name', 'patients.email', 'patients.phone', 'visits.start_utc')
+    .leftJoin('sites as visit_sites', 'visit_sites.id', 'visits.site_id')
+    .select('outbox.*', 'patients.first_name', 'patients.last_name', 'patients.email', 'patients.phone', 'visits.start_utc',
+      'patients.date_of_birth', 'patients.guardian_name', 'patients.guardian_email', 'patients.guardian_phone', 'visit_sites.time_zone as visit_time_zone')
+}
+
+/** Who the row is addressed to: the patient, or a minor's guardian (shared/domain/message-recipient.ts); null when nobody. */
+function recipientText(row: ListedRow): string | null {
+  const channel = row.channel === 'sms' ? 'sms' : 'email'
+  if (row.first_name === null || !row.start_utc || !row.visit_time_zone) return channel === 'sms' ? row.phone : row.email
+  const chosen = recipientOf({
+    firstName: row.first_name, lastName: row.last_name ?? '', dateOfBirth: row.date_of_birth, email: row.email, phone: row.phone,
+    guardianName: row.guardian_name, guardianEmail: row.guardian_email, guardianPhone: row.guardian_phone,
+  }, channel, localDateAt(row.start_utc.getTime(), row.visit_time_zone))
+  if ('skip' in chosen) return null
+  return chosen.onBehalfOf ? `${chosen.to} (guardian: ${chosen.name})` : chosen.to
 }
 
 export function toOutboxDto(row: ListedRow): OutboxMessageDto {
   return {
     id: row.id, kind: row.kind, channel: row.channel, providerStatus: row.provider_status, state: row.state, visitId: row.visit_id, siteId: row.site_id,
-    patientName: row.first_name === null ? null : `${row.first_name} ${row.last_name}`, recipient: row.channel === 'sms' ? row.phone : row.email,
+    patientName: row.first_name === null ? null : `${row.first_name} ${row.last_name}`, recipient: recipientText(row),
     visitStartUtc: row.start_utc ? row.start_utc.toISOString() : null, dueAt: row.due_at.toISOString(),
     sentAt: row.sent_at ? row.sent_at.toISOString() : null, attempts: row.attempts, lastError: row.last_error, messageId: row.message_id,
   }

@@ -15,6 +15,9 @@ export interface TextPatient {
   emailConsent: boolean
   smsConsent: boolean
   smsOptedOutAt: Date | null
+  /** A minor's messages go to the guardian (shared/domain/message-recipient.ts). */
+  guardianEmail: string | null
+  guardianPhone: string | null
 }
 
 interface TextPatientRow {
@@ -26,14 +29,16 @@ interface TextPatientRow {
   email_consent: number
   sms_consent: number
   sms_opted_out_at: Date | null
+  guardian_email: string | null
+  guardian_phone: string | null
 }
 
-const PATIENT_COLUMNS = ['id', 'first_name', 'last_name', 'phone', 'email', 'email_consent', 'sms_consent', 'sms_opted_out_at'] as const
+const PATIENT_COLUMNS = ['id', 'first_name', 'last_name', 'phone', 'email', 'email_consent', 'sms_consent', 'sms_opted_out_at', 'guardian_email', 'guardian_phone'] as const
 
 function toTextPatient(row: TextPatientRow): TextPatient {
   return {
     id: row.id, firstName: row.first_name, lastName: row.last_name, phone: row.phone, email: row.email, emailConsent: Boolean(row.email_consent),
-    smsConsent: Boolean(row.sms_consent), smsOptedOutAt: row.sms_opted_out_at,
+    smsConsent: Boolean(row.sms_consent), smsOptedOutAt: row.sms_opted_out_at, guardianEmail: row.guardian_email, guardianPhone: row.guardian_phone,
   }
 }
 
@@ -48,8 +53,11 @@ export async function findTextPatient(db: Db, id: number): Promise<TextPatient |
  * this reads every patient with a number (see README: a stored E.164 column would index it).
  */
 export async function patientsWithNumberEnding(db: Db, digits: string): Promise<TextPatient[]> {
-  const rows = await db<TextPatientRow>('patients').whereNotNull('phone')
-    .whereRaw("REGEXP_REPLACE(phone, '[^0-9]', '') LIKE ?", [`%${digits.replace(/\D/g, '')}`])
+  const pattern = `%${digits.replace(/\D/g, '')}`
+  // A guardian answers for a minor from their own number: theirs counts as the patient's here.
+  const rows = await db<TextPatientRow>('patients').where((where) => where
+    .whereRaw("REGEXP_REPLACE(phone, '[^0-9]', '') LIKE ?", [pattern])
+    .orWhereRaw("REGEXP_REPLACE(guardian_phone, '[^0-9]', '') LIKE ?", [pattern]))
     .orderBy('id').limit(50).select(...PATIENT_COLUMNS)
   return rows.map(toTextPatient)
 }

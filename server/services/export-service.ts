@@ -1,11 +1,15 @@
 // Spreadsheets out (issue 16 §3): patients (all, or those a search finds) and a site's visits over
 // local dates, as CSV with a header row. Cells are escaped against formula injection (shared/utils/csv.ts).
-// Dates are ISO (yyyy-MM-dd) and times the site's 24-hour clock until the site date format setting lands.
+// Dates and times are written as the site shows them (its date order and clock, through the one
+// formatter shared/utils/display-time.ts): the visits' site, or for patients the site the export is for
+// (`siteId`; without one the default style, month/day/year).
 import type { SessionUser } from '#shared/types/auth'
 import type { VisitsExportQuery } from '#shared/schemas/exports'
 import { toCsv } from '#shared/utils/csv'
 import { formatPhone } from '#shared/domain/phone'
-import { localDateAt, localDayRange, localTime } from '#shared/utils/local-date'
+import { localDateAt, localDayRange } from '#shared/utils/local-date'
+import { DEFAULT_DISPLAY, formatDate, formatLocalDate, formatTime } from '#shared/utils/display-time'
+import type { DisplayStyle } from '#shared/types/display'
 import { requireSiteAccess } from '../utils/auth'
 import { useDb } from '../utils/db'
 import { notFound } from '../utils/errors'
@@ -20,15 +24,24 @@ const PATIENT_HEADER = ['Patient id', 'Given name', 'Family name', 'Preferred na
   'State or region', 'Postal code', 'E-mail consent', 'E-mail consent since', 'Text consent', 'Text consent since', 'Guardian', 'Guardian e-mail',
   'Guardian phone', 'Front desk note', 'Alert']
 
-export async function exportPatients(user: SessionUser, search: string | undefined, ip: string): Promise<string> {
+export async function exportPatients(user: SessionUser, search: string | undefined, ip: string, siteId?: number): Promise<string> {
   const db = useDb()
+  let style: DisplayStyle = { ...DEFAULT_DISPLAY, timeZone: 'UTC' }
+  if (siteId !== undefined) {
+    requireSiteAccess(user, siteId)
+    const site = await findSite(db, siteId)
+    if (!site) throw notFound('No such site.')
+    style = { timeZone: site.timeZone, clock: site.clock, dateOrder: site.dateOrder }
+  }
+  const birthDate = (date: string | null) => (date && /^\d{4}-\d{2}-\d{2}$/.test(date) ? formatLocalDate(date, style, 'numeric') : date)
+  const since = (instant: string | null) => (instant ? formatDate(instant, style, 'numeric') : null)
   const records = await allPatientRecords(db, search)
   await writeAudit(db, { userId: user.id, action: 'patients_exported', entity: 'patient', entityId: null, after: { search: search ?? null, rows: records.length }, ip })
   const yesNo = (value: boolean) => (value ? 'yes' : 'no')
   return toCsv(PATIENT_HEADER, records.map((patient) => [
-    patient.id, patient.firstName, patient.lastName, patient.preferredName, patient.dateOfBirth, patient.email, formatPhone(patient.phone),
+    patient.id, patient.firstName, patient.lastName, patient.preferredName, birthDate(patient.dateOfBirth), patient.email, formatPhone(patient.phone),
     patient.addressStreet, patient.addressCity, patient.addressRegion, patient.addressPostalCode, yesNo(patient.emailConsent),
-    patient.emailConsentAt?.slice(0, 10), yesNo(patient.smsConsent), patient.smsConsentAt?.slice(0, 10), patient.guardianName,
+    since(patient.emailConsentAt), yesNo(patient.smsConsent), since(patient.smsConsentAt), patient.guardianName,
     patient.guardianEmail, formatPhone(patient.guardianPhone), patient.frontDeskNote, patient.alertText,
   ]))
 }
@@ -41,6 +54,7 @@ export async function exportVisits(user: SessionUser, query: VisitsExportQuery, 
   const site = await findSite(db, query.siteId)
   if (!site) throw notFound('No such site.')
   const zone = site.timeZone
+  const style: DisplayStyle = { timeZone: zone, clock: site.clock, dateOrder: site.dateOrder }
   const fromMs = Date.parse(localDayRange(query.from, zone).fromUtc)
   const toMs = Date.parse(localDayRange(query.to, zone).toUtc)
   const { rows, segments } = await listVisits(db, { siteIds: [query.siteId], siteId: query.siteId, fromMs, toMs, includeCancelled: true })
@@ -49,7 +63,7 @@ export async function exportVisits(user: SessionUser, query: VisitsExportQuery, 
   return toCsv(VISIT_HEADER, rows.map((row) => {
     const visit = toBoardVisit(row, segments.filter((segment) => segment.visit_id === row.id))
     const startMs = Date.parse(visit.startUtc)
-    return [visit.id, localDateAt(startMs, zone), localTime(visit.startUtc, zone), localTime(visit.endUtc, zone), chairs.get(visit.operatoryId) ?? '',
+    return [visit.id, formatLocalDate(localDateAt(startMs, zone), style, 'numeric'), formatTime(visit.startUtc, style), formatTime(visit.endUtc, style), chairs.get(visit.operatoryId) ?? '',
       visit.providerName, visit.patientId, visit.patientName, visit.procedures.join('; '), visit.state, visit.cancelReason]
   }))
 }

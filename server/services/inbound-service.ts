@@ -19,6 +19,7 @@ import { confirmVisit, findVisitIdByUid, loadMailContext } from '../repositories
 import { deliverySeen, insertInboundMail, listUnmatchedReplies, type InboundOutcome } from '../repositories/inbound-mail'
 import { writeAudit } from '../repositories/audit-log'
 import { patientAsksToCancel } from './visit-link-service'
+import { messageRecipient } from './mail/visit-facts'
 
 export interface CalendarReply {
   uid: string
@@ -71,7 +72,10 @@ async function actOnReply(trx: Db, reply: CalendarReply, siteId: number | null):
   const context = visitId === undefined ? undefined : await loadMailContext(trx, visitId)
   if (!context) return unmatched(`no visit has the UID ${reply.uid.slice(0, 200)}`)
   if (siteId !== null && context.site.id !== siteId) return unmatched('sent to another site\'s reply address than the visit\'s')
-  if (!context.patient.email || context.patient.email.toLowerCase() !== reply.attendee) return unmatched(`the ATTENDEE ${reply.attendee.slice(0, 200)} is not the visit's patient`)
+  // The ATTENDEE of our invitation: the patient's address, or the guardian's for a minor (messageRecipient).
+  const recipient = messageRecipient(context, 'email')
+  const attendees = [context.patient.email, 'skip' in recipient ? null : recipient.to].filter((address): address is string => Boolean(address)).map((address) => address.toLowerCase())
+  if (!attendees.includes(reply.attendee)) return unmatched(`the ATTENDEE ${reply.attendee.slice(0, 200)} is not the visit's patient or their guardian`)
   const matched = (note: string, outcome: InboundOutcome = 'matched'): Outcome => ({ outcome, visitId: context.visit.id, siteId: context.site.id, partstat: reply.partstat, note })
   const { visit } = context
   if (reply.sequence < visit.icalSequence) {

@@ -14,6 +14,7 @@ import { badRequest, conflict, notFound } from '../utils/errors'
 import {
   duplicateCandidates, findPatientRow, insertPatient, patientColumns, toPatientRecordDto, updatePatientIfVersion, type PatientRecordRow,
 } from '../repositories/patients'
+import { mergedConsent } from '#shared/domain/merge-consent'
 import { insertMerge, markMerged, moveAuditTrail, moveVisits, overlappingVisits } from '../repositories/patient-merges'
 import { findSite } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
@@ -138,14 +139,27 @@ export function mergePatients(user: SessionUser, input: PatientMergeInput, ip: s
     const merged = toPatientRecordDto(mergedRow)
     const fields = recordToFields(survivor)
     const mergedFields = recordToFields(merged)
-    const fromMerged = MERGE_FIELDS.filter((field) => input.take[field] === 'merged')
+    const fromMerged = MERGE_FIELDS.filter((field) => input.take[field] === 'merged' && field !== 'emailConsent' && field !== 'smsConsent')
     for (const field of fromMerged) (fields as Record<string, unknown>)[field] = mergedFields[field]
-    if (fromMerged.includes('emailConsent')) fields.emailConsentSource = merged.emailConsentSource
-    if (fromMerged.includes('smsConsent')) fields.smsConsentSource = merged.smsConsentSource
     await assertPreferredSite(trx, user, fromMerged.includes('preferredSiteId') ? fields.preferredSiteId : null)
-    const consent = consentColumns(survivorRow, fields, 'desk')
-    if (fromMerged.includes('emailConsent')) Object.assign(consent, { email_consent_at: mergedRow.email_consent_at, email_consent_source: mergedRow.email_consent_source })
-    if (fromMerged.includes('smsConsent')) Object.assign(consent, { sms_consent_at: mergedRow.sms_consent_at, sms_consent_source: mergedRow.sms_consent_source })
+    // Consent follows the contact kept (shared/domain/merge-consent.ts): never consent given for
+    // another address or number. Its date and source come with it; none kept clears both.
+    const consent: Record<string, unknown> = {}
+    for (const channel of ['email', 'sms'] as const) {
+      const kept = mergedConsent(channel, survivor, merged, input.take)
+      const row = kept.from === 'merged' ? mergedRow : survivorRow
+      if (channel === 'email') {
+        fields.emailConsent = kept.consent
+        Object.assign(consent, kept.from === 'none'
+          ? { email_consent: false, email_consent_at: null, email_consent_source: null }
+          : { email_consent: kept.consent, email_consent_at: row.email_consent_at, email_consent_source: row.email_consent_source })
+      } else {
+        fields.smsConsent = kept.consent
+        Object.assign(consent, kept.from === 'none'
+          ? { sms_consent: false, sms_consent_at: null, sms_consent_source: null }
+          : { sms_consent: kept.consent, sms_consent_at: row.sms_consent_at, sms_consent_source: row.sms_consent_source })
+      }
+    }
     await updatePatientIfVersion(trx, input.survivorId, survivorRow.row_version, { ...patientColumns(fields), ...consent })
     const moved = await moveVisits(trx, input.mergedId, input.survivorId)
     const auditRows = await moveAuditTrail(trx, input.mergedId, input.survivorId)

@@ -10,18 +10,23 @@ export interface TextFacts {
   /** "Mon 11 Jan, 9:00 AM", in the site's zone */
   when: string
   link: string
+  /** For a minor's visit the text goes to the guardian: greet them and name the patient (given name only: minimum necessary). */
+  guardian?: { greeting: string; patientFirstName: string }
 }
 
 export function visitText(kind: TextKind, facts: TextFacts): string {
+  const hello = facts.guardian ? `Hello ${facts.guardian.greeting}, ` : ''
+  const whose = facts.guardian ? `${facts.guardian.patientFirstName}'s visit` : 'your visit'
+  const head = `${facts.siteName}: ${hello}`
   switch (kind) {
     case 'invitation':
-      return `${facts.siteName}: your visit is booked for ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
+      return `${head}${whose} is booked for ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
     case 'update':
-      return `${facts.siteName}: your visit has moved to ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
+      return `${head}${whose} has moved to ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
     case 'cancellation':
-      return `${facts.siteName}: your visit on ${facts.when} is cancelled. Call ${facts.sitePhone} to book again.`
+      return `${head}${whose} on ${facts.when} is cancelled. Call ${facts.sitePhone} to book again.`
     case 'reminder':
-      return `${facts.siteName}: reminder of your visit on ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
+      return `${head}reminder of ${whose} on ${facts.when}. Reply C to confirm or X to cancel. ${facts.link}`
   }
 }
 

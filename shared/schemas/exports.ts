@@ -6,6 +6,8 @@ import { LocalDateSchema } from './local-time'
 
 export const PatientsExportSchema = z.object({
   q: plainText(z.string({ error: 'must be text' }).trim().min(2, 'type at least 2 characters').max(100, 'is too long')).optional(),
+  /** The site whose date order the file uses. */
+  siteId: IdSchema.optional(),
 })
 
 export const VisitsExportSchema = z.object({

@@ -131,14 +131,41 @@ describe('exports', () => {
     expect(lines[1]).not.toMatch(/(^|,)[=+\-@]/)
   })
 
-  it('exports a site\'s visits over local dates with the site\'s times', async () => {
+  it('writes the patients\' dates in the chosen site\'s date order, not ISO (issue 14 site setting; shared/utils/display-time.ts, no outside source)', async () => {
+    const family = `Datesout${tag}`
+    await admin.post('/api/patients', { firstName: 'Dora', lastName: family, dateOfBirth: '1984-07-09', email: `dora.${tag}@fernhollow.test`, emailConsent: true })
+    await testDb()('sites').where({ id: annex.siteId }).update({ clock: '24h', date_order: 'day-month-year' })
+    const dayFirst = await admin.get(`/api/exports/patients?q=${family}&siteId=${annex.siteId}`)
+    expect(dayFirst.status).toBe(200)
+    const [header, row] = (dayFirst.body as string).trim().split('\r\n') as [string, string]
+    const cells = row.split(',')
+    const column = (name: string) => cells[header.split(',').indexOf(name)]
+    expect(column('Birth date')).toBe('09/07/1984')
+    // Consent given today: its date in the same order.
+    expect(column('E-mail consent since')).toMatch(/^\d{2}\/\d{2}\/\d{4}$/)
+    expect(row).not.toContain('1984-07-09')
+    // Without a site: the default order, month/day/year.
+    const plain = await admin.get(`/api/exports/patients?q=${family}`)
+    expect((plain.body as string)).toContain(',07/09/1984,')
+    // A site id that is not a number is a 400.
+    expect((await admin.get(`/api/exports/patients?q=${family}&siteId=abc`)).status).toBe(400)
+  })
+
+  it('exports a site\'s visits over local dates in the site\'s date order and clock (issue 14 site setting; shared/utils/display-time.ts, no outside source)', async () => {
     const patient = await admin.post('/api/patients', { firstName: 'Vee', lastName: `Visitexport${tag}`, dateOfBirth: '1980-01-01' })
     const booked = await admin.post('/api/visits', { patientId: patient.body.id, siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], startUtc: atAhead(6, THURSDAY, '09:30', annex.timeZone), items: FILLING })
     expect(booked.status).toBe(201)
     const day = weekdayAhead(6, THURSDAY, annex.timeZone)
     const csv = await admin.get(`/api/exports/visits?siteId=${annex.siteId}&from=${day}&to=${day}`)
     expect(csv.status).toBe(200)
-    expect(csv.body).toContain(`${booked.body.id},${day},09:30,`)
+    const [year, month, date] = day.split('-')
+    await testDb()('sites').where({ id: annex.siteId }).update({ clock: '24h', date_order: 'day-month-year' })
+    const dayFirst = await admin.get(`/api/exports/visits?siteId=${annex.siteId}&from=${day}&to=${day}`)
+    expect(dayFirst.body).toContain(`${booked.body.id},${date}/${month}/${year},09:30,`)
+    expect(dayFirst.body).not.toContain(day)
+    await testDb()('sites').where({ id: annex.siteId }).update({ clock: '12h', date_order: 'month-day-year' })
+    const monthFirst = await admin.get(`/api/exports/visits?siteId=${annex.siteId}&from=${day}&to=${day}`)
+    expect(monthFirst.body).toContain(`${booked.body.id},${month}/${date}/${year},9:30 AM,`)
     expect((await admin.get(`/api/exports/visits?siteId=${annex.siteId}&from=${day}&to=2099-01-01`)).status).toBe(400)
   })
 })

@@ -5,7 +5,7 @@
 // the patient leaves is chair time, not theirs.
 import { escapeText, utcDateTime, writeLines, type ContentLine } from '#shared/domain/icalendar'
 import type { MailContext } from '../../repositories/mail-context'
-import type { VisitFacts } from './visit-facts'
+import { messageRecipient, type VisitFacts } from './visit-facts'
 
 export type CalendarMethod = 'REQUEST' | 'CANCEL'
 
@@ -29,7 +29,9 @@ export function visitCalendar(context: MailContext, facts: VisitFacts, method: C
   const { visit, site, patient } = context
   const { startMs, endMs } = patientSpan(context, facts)
   const title = `${facts.what} at ${site.name}`
-  const patientName = `${patient.firstName} ${patient.lastName}`
+  // The attendee is whoever the message goes to: the patient, or a minor's guardian (visit-facts.ts).
+  const recipient = messageRecipient(context, 'email')
+  const attendee = 'skip' in recipient ? { name: `${patient.firstName} ${patient.lastName}`, to: patient.email ?? '' } : recipient
   const lines: ContentLine[] = [
     { name: 'BEGIN', value: 'VCALENDAR' },
     { name: 'VERSION', value: '2.0' },
@@ -52,8 +54,8 @@ export function visitCalendar(context: MailContext, facts: VisitFacts, method: C
     { name: 'ORGANIZER', params: [['CN', site.name]], value: `mailto:${options.organizerEmail}` },
     {
       name: 'ATTENDEE',
-      params: [['CUTYPE', 'INDIVIDUAL'], ['ROLE', 'REQ-PARTICIPANT'], ['PARTSTAT', 'NEEDS-ACTION'], ...(method === 'REQUEST' ? [['RSVP', 'TRUE'] as [string, string]] : []), ['CN', patientName]],
-      value: `mailto:${patient.email ?? ''}`,
+      params: [['CUTYPE', 'INDIVIDUAL'], ['ROLE', 'REQ-PARTICIPANT'], ['PARTSTAT', 'NEEDS-ACTION'], ...(method === 'REQUEST' ? [['RSVP', 'TRUE'] as [string, string]] : []), ['CN', attendee.name]],
+      value: `mailto:${attendee.to}`,
     },
   ]
   // RFC 5546 §3.2.5: a CANCEL carries no VALARM.

@@ -7,7 +7,9 @@ import type { SendMailOptions } from 'nodemailer'
 import type { OutboxKind, RenderedMessage } from '#shared/types/outbox'
 import type { MailContext } from '../../repositories/mail-context'
 import type { OutboxPayload } from '../../repositories/outbox'
-import { durationWords, visitFacts, type VisitFacts } from './visit-facts'
+import { durationWords, messageRecipient, visitFacts, type VisitFacts } from './visit-facts'
+import { ADULT_FROM_YEARS } from '#shared/domain/booking-warnings'
+import type { Recipient } from '#shared/domain/message-recipient'
 import { methodFor, visitCalendar } from './calendar'
 
 export interface PatientLinks {
@@ -26,28 +28,45 @@ interface Wording {
   intro: string
 }
 
-function changeWords(site: string, facts: VisitFacts, change: OutboxPayload['change']): string {
-  if (!change) return `The details of your dental visit at ${site} have changed. Here they are as they stand now.`
-  const before = change.minutesBefore === undefined ? '' : ` instead of ${durationWords(change.minutesBefore)}`
-  const parts: string[] = []
-  if (change.time) parts.push(`Your dental visit at ${site} has a new time: ${facts.whenLocal}.`)
-  if (change.length) parts.push(change.time ? `It will take ${facts.howLong}${before}.` : `Your dental visit at ${site} will take ${facts.howLong}${before}. The time is the same.`)
-  if (change.what) parts.push(parts.length ? 'What is planned for it has changed too.' : `What is planned for your dental visit at ${site} has changed. The time is the same.`)
-  return parts.join(' ') || `The details of your dental visit at ${site} have changed.`
+/** How the message names the visit: "your dental visit", or for a guardian "the dental visit for Mia Reyes". */
+interface Voice {
+  your: string
+  Your: string
+  /** The line under the greeting telling a guardian why they get it, or null. */
+  guardianLine: string | null
 }
 
-function wordingFor(kind: OutboxKind, context: MailContext, facts: VisitFacts, payload: OutboxPayload): Wording {
+function voiceOf(recipient: Recipient): Voice {
+  if (!recipient.onBehalfOf) return { your: 'your dental visit', Your: 'Your dental visit', guardianLine: null }
+  return {
+    your: `the dental visit for ${recipient.onBehalfOf}`,
+    Your: `The dental visit for ${recipient.onBehalfOf}`,
+    guardianLine: `You are getting this message as the parent or guardian of ${recipient.onBehalfOf}, who is under ${ADULT_FROM_YEARS}.`,
+  }
+}
+
+function changeWords(site: string, facts: VisitFacts, change: OutboxPayload['change'], voice: Voice): string {
+  if (!change) return `The details of ${voice.your} at ${site} have changed. Here they are as they stand now.`
+  const before = change.minutesBefore === undefined ? '' : ` instead of ${durationWords(change.minutesBefore)}`
+  const parts: string[] = []
+  if (change.time) parts.push(`${voice.Your} at ${site} has a new time: ${facts.whenLocal}.`)
+  if (change.length) parts.push(change.time ? `It will take ${facts.howLong}${before}.` : `${voice.Your} at ${site} will take ${facts.howLong}${before}. The time is the same.`)
+  if (change.what) parts.push(parts.length ? 'What is planned for it has changed too.' : `What is planned for ${voice.your} at ${site} has changed. The time is the same.`)
+  return parts.join(' ') || `The details of ${voice.your} at ${site} have changed.`
+}
+
+function wordingFor(kind: OutboxKind, context: MailContext, facts: VisitFacts, payload: OutboxPayload, voice: Voice): Wording {
   const site = context.site.name
   if (context.visit.state === 'cancelled') {
-    return { subject: `Cancelled: your dental visit at ${site}, ${facts.shortWhen}`, intro: `Your dental visit at ${site} has been cancelled. The time below is no longer held for you.` }
+    return { subject: `Cancelled: ${voice.your} at ${site}, ${facts.shortWhen}`, intro: `${voice.Your} at ${site} has been cancelled. The time below is no longer held${voice.guardianLine ? '' : ' for you'}.` }
   }
   switch (kind) {
     case 'update':
-      return { subject: `Changed: your dental visit at ${site}, ${facts.shortWhen}`, intro: changeWords(site, facts, payload.change) }
+      return { subject: `Changed: ${voice.your} at ${site}, ${facts.shortWhen}`, intro: changeWords(site, facts, payload.change, voice) }
     case 'reminder':
-      return { subject: `Reminder: your dental visit at ${site}, ${facts.shortWhen}`, intro: `A reminder of your coming dental visit at ${site}.` }
+      return { subject: `Reminder: ${voice.your} at ${site}, ${facts.shortWhen}`, intro: `A reminder of ${voice.your.replace('dental visit', 'coming dental visit')} at ${site}.` }
     default:
-      return { subject: `Your dental visit at ${site}, ${facts.shortWhen}`, intro: `Thank you for booking with ${site}. Your dental visit is set for the time below.` }
+      return { subject: `${voice.Your} at ${site}, ${facts.shortWhen}`, intro: `Thank you for booking with ${site}. ${voice.Your} is set for the time below.` }
   }
 }
 
@@ -73,8 +92,9 @@ function offers(context: MailContext) {
   return { confirm: visit.state === 'booked', cancel: live && visit.cancelRequestedAt === null, confirmed: visit.state === 'confirmed' }
 }
 
-function whyLine(kind: OutboxKind, context: MailContext): string {
+function whyLine(kind: OutboxKind, context: MailContext, voice: Voice): string {
   const site = context.site.name
+  if (voice.guardianLine) return `You got this ${kind === 'reminder' ? 'reminder' : 'e-mail'} because ${voice.your.replace(/^the /, 'a ')} was booked at ${site} and you are named as the guardian.`
   return kind === 'reminder'
     ? `You got this reminder because you have a dental visit booked at ${site}.`
     : `You got this e-mail because a dental visit was booked for you at ${site}.`
@@ -85,10 +105,10 @@ function reachLine(context: MailContext): string {
   return [`To reach ${site.name}, call ${site.phone}`, site.email ? ` or write to ${site.email}` : '', '.'].join('')
 }
 
-function textBody(kind: OutboxKind, context: MailContext, facts: VisitFacts, wording: Wording, links: PatientLinks): string {
+function textBody(kind: OutboxKind, context: MailContext, facts: VisitFacts, wording: Wording, links: PatientLinks, recipient: Recipient, voice: Voice): string {
   const cancelled = context.visit.state === 'cancelled'
   const can = offers(context)
-  const lines = [`Hello ${context.patient.firstName},`, '', wording.intro, '']
+  const lines = [`Hello ${recipient.greeting},`, '', ...(voice.guardianLine ? [voice.guardianLine, ''] : []), wording.intro, '']
   for (const [label, value] of detailLines(context, facts)) lines.push(`${label}: ${value}`)
   lines.push('')
   if (cancelled) {
@@ -102,7 +122,7 @@ function textBody(kind: OutboxKind, context: MailContext, facts: VisitFacts, wor
     lines.push(`Add it to your calendar (.ics): ${links.ics}`)
     lines.push(`To change the time, call us at ${context.site.phone}.`)
   }
-  lines.push('', '--', context.site.name, context.site.address, context.site.phone, '', whyLine(kind, context), reachLine(context))
+  lines.push('', '--', context.site.name, context.site.address, context.site.phone, '', whyLine(kind, context, voice), reachLine(context))
   if (kind === 'reminder') lines.push(`Stop reminders by e-mail (you will still get changes and cancellations): ${links.stopReminders}`)
   return lines.filter((line, index, all) => !(line === '' && all[index - 1] === '')).join('\n')
 }
@@ -122,7 +142,7 @@ function button(href: string, label: string, primary: boolean, colours: { backgr
   return `<a href="${escapeHtml(href)}" style="${style}">${escapeHtml(label)}</a>`
 }
 
-function htmlBody(kind: OutboxKind, context: MailContext, facts: VisitFacts, wording: Wording, links: PatientLinks): string {
+function htmlBody(kind: OutboxKind, context: MailContext, facts: VisitFacts, wording: Wording, links: PatientLinks, recipient: Recipient, voice: Voice): string {
   const { site } = context
   const cancelled = context.visit.state === 'cancelled'
   const can = offers(context)
@@ -150,14 +170,14 @@ ${buttons ? `<p style="margin:16px 0 8px">${buttons}</p>` : ''}
 <div style="max-width:600px;margin:0 auto;background:#ffffff">
 <div data-part="site" style="background:${colours.background};color:${colours.text};padding:14px 20px;font-size:18px;font-weight:600">${escapeHtml(site.name)}</div>
 <div style="padding:16px 20px">
-<p>Hello ${escapeHtml(context.patient.firstName)},</p>
-<p>${escapeHtml(wording.intro)}</p>
+<p>Hello ${escapeHtml(recipient.greeting)},</p>
+${voice.guardianLine ? `<p data-part="guardian">${escapeHtml(voice.guardianLine)}</p>\n` : ''}<p>${escapeHtml(wording.intro)}</p>
 <table role="presentation" style="border-collapse:collapse;width:100%">${rows}</table>
 ${actions}
 </div>
 <div data-part="footer" style="padding:14px 20px;border-top:1px solid #e2ded6;color:#5b5850;font-size:14px">
 <p style="margin:0 0 8px">${escapeHtml(site.name)}<br>${escapeHtml(site.address)}<br>${escapeHtml(site.phone)}</p>
-<p style="margin:0">${escapeHtml(whyLine(kind, context))} ${escapeHtml(reachLine(context))}</p>
+<p style="margin:0">${escapeHtml(whyLine(kind, context, voice))} ${escapeHtml(reachLine(context))}</p>
 ${stop}
 </div>
 </div>
@@ -180,12 +200,21 @@ export interface ComposeOptions {
 
 export function composeMessage(kind: OutboxKind, context: MailContext, links: PatientLinks, options: ComposeOptions): ComposedMessage {
   const facts = visitFacts(context)
-  const wording = wordingFor(kind, context, facts, options.payload ?? {})
+  // The guardian for a minor (the dispatcher has already skipped a message with nobody to send it to;
+  // a preview of one shows the patient's own address, empty when there is none).
+  const chosen = messageRecipient(context, 'email')
+  const recipient: Recipient = 'skip' in chosen
+    ? { to: '', name: `${context.patient.firstName} ${context.patient.lastName}`, greeting: context.patient.firstName, onBehalfOf: null }
+    : chosen
+  const voice = voiceOf(recipient)
+  const wording = wordingFor(kind, context, facts, options.payload ?? {}, voice)
   // Reminders carry no calendar part: they are not invitations (RFC 5546 §3.2.2 would ask for a reply).
   const method = kind === 'reminder' && context.visit.state !== 'cancelled' ? null : methodFor(context)
   const ics = method ? visitCalendar(context, facts, method, { organizerEmail: options.organizerEmail }) : null
-  const to = context.patient.email ?? ''
-  const rendered: RenderedMessage = { to, subject: wording.subject, text: textBody(kind, context, facts, wording, links), html: htmlBody(kind, context, facts, wording, links), ics, method }
+  const to = recipient.to
+  const rendered: RenderedMessage = {
+    to, subject: wording.subject, text: textBody(kind, context, facts, wording, links, recipient, voice), html: htmlBody(kind, context, facts, wording, links, recipient, voice), ics, method,
+  }
   const headers: Record<string, string> = {
     // RFC 3834 §5: sent by a program, not a person; auto-responders stay quiet.
     'Auto-Submitted': 'auto-generated',
@@ -200,7 +229,7 @@ export function composeMessage(kind: OutboxKind, context: MailContext, links: Pa
     mail: {
       from: { name: context.site.name, address: options.from || context.site.email },
       replyTo: context.site.email || undefined,
-      to: { name: `${context.patient.firstName} ${context.patient.lastName}`, address: to },
+      to: { name: recipient.name, address: to },
       subject: rendered.subject,
       text: rendered.text,
       html: rendered.html,

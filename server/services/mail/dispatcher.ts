@@ -16,6 +16,7 @@ import { patientLinks, visitToken } from './links'
 import { useLogger } from '../../utils/logger'
 import { sendTextRow } from '../sms/text-dispatch'
 import { noticeMail } from './notice-facts'
+import { messageRecipient } from './visit-facts'
 
 export interface DispatchSettings {
   batchSize: number
@@ -40,7 +41,8 @@ export interface DispatchRound {
 /** Why a claimed message is not sent any more, or null to send it. */
 export function reasonToSkip(row: OutboxRow, context: MailContext | undefined, nowMs: number): string | null {
   if (!context) return 'the visit no longer exists'
-  if (!context.patient.email) return 'the patient has no e-mail address'
+  const recipient = messageRecipient(context, 'email')
+  if ('skip' in recipient) return recipient.skip
   if (!context.patient.emailConsent) return 'the patient has not agreed to e-mail'
   return reasonToSkipForVisit(row, context, nowMs)
 }

@@ -3,6 +3,8 @@ import type { MailContext } from '../../repositories/mail-context'
 import { displayStyleOf, formatDateTime, zoneLongName } from '#shared/utils/display-time'
 import { mailSettingsOf, type MailSettings } from '#shared/domain/site-settings'
 import { patientMinutesOf } from '#shared/domain/patient-time'
+import { recipientOf, type RecipientChoice } from '#shared/domain/message-recipient'
+import { localDateAt } from '#shared/utils/local-date'
 
 export interface VisitFacts {
   settings: MailSettings
@@ -46,4 +48,9 @@ export function visitFacts(context: MailContext): VisitFacts {
     howLong: durationWords(minutes),
     what: settings.includeProcedureNames && names.length ? `Dental visit: ${names.join(', ')}` : 'Dental visit',
   }
+}
+
+/** Who a message about this visit goes to: the patient, or for a minor on the visit's local date the guardian. */
+export function messageRecipient(context: MailContext, channel: 'email' | 'sms'): RecipientChoice {
+  return recipientOf(context.patient, channel, localDateAt(context.visit.startUtc.getTime(), context.site.timeZone))
 }

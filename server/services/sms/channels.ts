@@ -13,9 +13,12 @@ import { smsConfig } from '../../utils/sms-client'
 export async function textReachOf(db: Db, patientId: number): Promise<{ email: boolean; sms: boolean }> {
   const patient = await findTextPatient(db, patientId)
   if (!patient) return { email: false, sms: false }
+  const country = smsConfig().defaultCountry as CountryCode
+  // A guardian's contact counts too: whether a minor's message goes to it is decided at send time
+  // (the dispatcher, on the visit's date), and a minor with no guardian contact is skipped there, in words.
   return {
-    email: Boolean(patient.email && patient.emailConsent),
-    sms: patient.smsConsent && !patient.smsOptedOutAt && toE164(patient.phone, smsConfig().defaultCountry as CountryCode) !== null,
+    email: Boolean((patient.email || patient.guardianEmail) && patient.emailConsent),
+    sms: patient.smsConsent && !patient.smsOptedOutAt && (toE164(patient.phone, country) !== null || toE164(patient.guardianPhone, country) !== null),
   }
 }
 

@@ -16,7 +16,7 @@ import type { CountryCode } from 'libphonenumber-js'
 import { smsConfig, useSmsClient, webhookUrlOf } from '../../utils/sms-client'
 import { useLogger } from '../../utils/logger'
 import { patientLinks, visitToken } from '../mail/links'
-import { visitFacts } from '../mail/visit-facts'
+import { messageRecipient, visitFacts } from '../mail/visit-facts'
 import { reasonToSkipForVisit, retryOrGiveUp, type DispatchRound, type DispatchSettings } from '../mail/dispatcher'
 import { useVisitLinkSecret } from '../../utils/visit-link-secret'
 
@@ -27,6 +27,10 @@ interface TextTarget {
   context: MailContext | undefined
   patient: TextPatient | undefined
   to: string | null
+  /** Why a message about the visit has nobody to go to (a minor without a guardian's number), or null. */
+  noRecipient: string | null
+  /** The guardian's name and the patient's, when a minor's message goes to the guardian. */
+  guardian: { greeting: string; patientFirstName: string } | null
 }
 
 async function targetOf(db: Db, row: OutboxRow): Promise<TextTarget | string> {
@@ -38,14 +42,19 @@ async function targetOf(db: Db, row: OutboxRow): Promise<TextTarget | string> {
   if (!site) return 'the site no longer exists'
   const patient = context ? await findTextPatient(db, context.patient.id) : undefined
   const country = smsConfig().defaultCountry as CountryCode
-  const to = row.kind === 'reply_confirmation' && payload.to ? payload.to : toE164(patient?.phone, country)
-  return { site, context, patient, to }
+  if (row.kind === 'reply_confirmation' && payload.to) return { site, context, patient, to: payload.to, noRecipient: null, guardian: null }
+  // A message about a minor's visit goes to the guardian's number (shared/domain/message-recipient.ts).
+  const recipient = context ? messageRecipient(context, 'sms') : null
+  if (recipient && 'skip' in recipient) return { site, context, patient, to: null, noRecipient: recipient.skip, guardian: null }
+  const guardian = recipient?.onBehalfOf && context ? { greeting: recipient.greeting, patientFirstName: context.patient.firstName } : null
+  return { site, context, patient, to: toE164(recipient ? recipient.to : patient?.phone, country), noRecipient: null, guardian }
 }
 
 /** Why this text is not sent any more, or null to send it. */
 function reasonToSkipText(row: OutboxRow, target: TextTarget, nowMs: number): string | null {
   const payload = payloadOf(row)
-  if (!target.to) return 'the patient has no mobile number that can take texts'
+  if (target.noRecipient) return target.noRecipient
+  if (!target.to) return target.guardian ? 'the guardian\'s number cannot take texts' : 'the patient has no mobile number that can take texts'
   // An answer goes back to the number that wrote to us; everything else needs the patient's consent.
   if (row.kind !== 'reply_confirmation') {
     if (!target.patient) return 'the patient no longer exists'
@@ -63,7 +72,10 @@ function bodyOf(row: OutboxRow, target: TextTarget, settings: Pick<DispatchSetti
   if (!VISIT_KINDS.has(row.kind) || !target.context) return payload.body ?? ''
   const context = target.context
   const links = patientLinks(settings.publicUrl, visitToken(settings.linkSecret, context), context.visit.id)
-  return visitText(row.kind as TextKind, { siteName: context.site.name, sitePhone: context.site.phone, when: visitFacts(context).shortWhen, link: links.visitPage })
+  return visitText(row.kind as TextKind, {
+    siteName: context.site.name, sitePhone: context.site.phone, when: visitFacts(context).shortWhen, link: links.visitPage,
+    ...(target.guardian ? { guardian: target.guardian } : {}),
+  })
 }
 
 function rendered(to: string, text: string): RenderedMessage {

@@ -107,7 +107,8 @@ export async function receiveReply(params: Record<string, string>): Promise<void
   const digits = nationalDigitsOf(from)
   await inTransaction(async (trx) => {
     const candidates = digits ? await patientsWithNumberEnding(trx, digits) : []
-    const patients = candidates.filter((patient) => toE164(patient.phone, smsConfig().defaultCountry as CountryCode) === from)
+    const country = smsConfig().defaultCountry as CountryCode
+    const patients = candidates.filter((patient) => toE164(patient.phone, country) === from || toE164(patient.guardianPhone, country) === from)
     const keyword = replyKeywordOf(body)
     // Kept first: a webhook the service delivers twice is acted on once.
     const replyId = await insertReply(trx, { messageSid: sid, fromNumber: from, body, patientId: patients[0]?.id ?? null, visitId: null, siteId: null, outcome: 'received' })
