@@ -1,7 +1,7 @@
 // Recall due dates (issue 17 §1). Intervals are the site's; 6 months for a cleaning and 12 for an exam
 // are common practice defaults, no source (the treating clinician sets each patient's interval).
 import { describe, expect, it } from 'vitest'
-import { mayMailRecall, nextDueDate, recallKindsOf, recallSettingsOf, recallStatus } from '../../../../shared/domain/recall'
+import { mayMailRecall, nextDueDate, recallKindsOf, recallMonthsFor, recallSettingsOf, recallStatus } from '../../../../shared/domain/recall'
 import { addMonths } from '../../../../shared/utils/local-date'
 
 describe('recall', () => {
@@ -18,6 +18,16 @@ describe('recall', () => {
     expect(nextDueDate('2027-01-11', 'cleaning', recallSettingsOf({ recallMonths: { cleaning: 4 } }))).toBe('2027-05-11')
     expect(addMonths('2027-11-30', 3)).toBe('2028-02-29')
     expect(addMonths('2027-03-31', -1)).toBe('2027-02-28')
+  })
+  it('a patient\'s own interval wins over the site\'s for that kind only (common practice, no source)', () => {
+    const settings = recallSettingsOf({ recallMonths: { cleaning: 6, exam: 12 } })
+    expect(nextDueDate('2027-01-11', 'cleaning', settings, { cleaning: 3 })).toBe('2027-04-11')
+    expect(nextDueDate('2027-01-11', 'exam', settings, { cleaning: 3 })).toBe('2028-01-11')
+    expect(recallMonthsFor('exam', settings, { exam: 24 })).toBe(24)
+    // Out of bounds or not whole: the site's interval applies.
+    expect(recallMonthsFor('cleaning', settings, { cleaning: 0 })).toBe(6)
+    expect(recallMonthsFor('cleaning', settings, { cleaning: 37 })).toBe(6)
+    expect(recallMonthsFor('cleaning', settings, { cleaning: 2.5 })).toBe(6)
   })
   it('a patient is not mailed again within the minimum interval', () => {
     const settings = recallSettingsOf({ recallMailMinDays: 14 })
