@@ -1,6 +1,6 @@
 // The patient's recall page (issue 17 §1): the recall e-mail links to `/recall/<token>`, which lists up
-// to RECALL_PAGE_OPENINGS times for the recall's plan at the patient's preferred site (the site that
-// mailed them when they have none). The patient picks one and it is booked through the booking
+// to RECALL_PAGE_OPENINGS times (at least RECALL_PAGE_SPACING_MINUTES apart) for the recall's plan at the
+// patient's preferred site (the site that mailed them when they have none). The patient picks one and it is booked through the booking
 // transaction (`bookInTransaction`, which also marks the recall booked and closes matching waitlist
 // entries), with an audit row `recall_booked` on entity `recall`. When the time was taken in between,
 // the answer is a 409 "that time has just gone" carrying fresh openings. Bad or edited links are 404,
@@ -9,7 +9,7 @@ import type { PublicRecallDto, RecallOpeningDto } from '#shared/types/recall-pag
 import type { RecallBookInput } from '#shared/schemas/recall'
 import type { OpeningsRequest } from '#shared/schemas/visits'
 import type { SiteDetail } from '#shared/types/sites'
-import { RECALL_PAGE_OPENINGS, RECALL_PAGE_SEARCH_DAYS, RECALL_TEMPLATE_CATEGORY } from '#shared/domain/recall'
+import { RECALL_PAGE_OPENINGS, RECALL_PAGE_SEARCH_DAYS, RECALL_PAGE_SPACING_MINUTES, RECALL_TEMPLATE_CATEGORY, spreadOpenings } from '#shared/domain/recall'
 import { patientMinutesOf } from '#shared/domain/patient-time'
 import { addDays, todayIn } from '#shared/utils/local-date'
 import { useDb, type Db } from '../utils/db'
@@ -64,13 +64,14 @@ async function recallPlanOf(db: Db, recall: PageRecall): Promise<{ items: Array<
 async function openingsFor(db: Db, site: SiteDetail, items: Array<{ templateCode: string }>) {
   const today = todayIn(site.timeZone, scheduleNowMs())
   const request: OpeningsRequest = {
-    items, from: today, to: addDays(today, RECALL_PAGE_SEARCH_DAYS), partOfDay: 'any', limit: RECALL_PAGE_OPENINGS, fewestGaps: false, wholeGroup: false,
+    // Enough starts (every chair, every 5 minutes) to pick six a couple of hours apart.
+    items, from: today, to: addDays(today, RECALL_PAGE_SEARCH_DAYS), partOfDay: 'any', limit: 500, fewestGaps: false, wholeGroup: false,
   }
   const { plan, openings } = await openingsAtSite(db, site, request)
   const chairMinutes = plan.chairMinutes
   return {
     minutes: patientMinutesOf(plan, chairMinutes),
-    openings: openings.map((opening): RecallOpeningDto => ({ startUtc: opening.startUtc, startLocalIso: opening.startLocalIso, operatoryId: opening.operatoryId, providerId: opening.providerId })),
+    openings: spreadOpenings(openings, RECALL_PAGE_OPENINGS, RECALL_PAGE_SPACING_MINUTES).map((opening): RecallOpeningDto => ({ startUtc: opening.startUtc, startLocalIso: opening.startLocalIso, operatoryId: opening.operatoryId, providerId: opening.providerId })),
   }
 }
 

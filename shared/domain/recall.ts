@@ -83,3 +83,18 @@ export function recallStatus(dueDate: LocalDate, today: LocalDate, soonDays = 30
   if (dueDate < today) return 'overdue'
   return dueDate <= addDays(today, soonDays) ? 'due' : 'later'
 }
+
+/** The recall page's times are at least this far apart, so the patient has a real choice of day and hour. */
+export const RECALL_PAGE_SPACING_MINUTES = 120
+
+/** Earliest first, keeping a time only when it starts at least `spacingMinutes` after the last one kept. */
+export function spreadOpenings<T extends { startUtc: string }>(openings: readonly T[], count: number, spacingMinutes: number): T[] {
+  const sorted = [...openings].sort((a, b) => Date.parse(a.startUtc) - Date.parse(b.startUtc))
+  const kept: T[] = []
+  for (const opening of sorted) {
+    if (kept.length >= count) break
+    const last = kept.at(-1)
+    if (!last || Date.parse(opening.startUtc) - Date.parse(last.startUtc) >= spacingMinutes * 60_000) kept.push(opening)
+  }
+  return kept
+}
