@@ -3,6 +3,7 @@
 // the last outcome shown beside the board (a notice, optionally with a "show it" jump).
 import { defineStore } from 'pinia'
 import { addDays, todayIn } from '#shared/utils/local-date'
+import { freedByChange, largestFreed } from '#shared/domain/freed-time'
 import type { DraftItem } from '~/composables/useVisitPlanPreview'
 
 export interface DrawerSlot {
@@ -32,8 +33,14 @@ export interface BoardNotice {
   serial: number
 }
 
-/** A cancelled visit's time, or a slot a visit moved out of. */
-export type FreedTime = { visitId: number } | { siteId: number; operatoryId: number; startUtc: string; endUtc: string }
+/**
+ * A cancelled (or missed) visit's time; or a slot a visit moved out of, or a shortened visit's tail (one
+ * chair); or a new shift's or extra day's window (no `operatoryId`: every chair of the site).
+ */
+export type FreedTime = { visitId: number } | { siteId: number; operatoryId?: number; startUtc: string; endUtc: string }
+
+/** Where a visit sits in a chair, as the board and the API give it. */
+interface VisitPlace { siteId: number; operatoryId: number; startUtc: string; endUtc: string }
 
 export const useChairboardStore = defineStore('chairboard', () => {
   const session = useSessionStore()
@@ -54,6 +61,13 @@ export const useChairboardStore = defineStore('chairboard', () => {
    */
   const freed = ref<FreedTime | null>(null)
 
+  /** After a move or a change of length: the largest piece of chair time it gave up, if any, is shown as freed. */
+  function noteFreed(before: VisitPlace, after: VisitPlace) {
+    const span = (place: VisitPlace) => ({ siteId: place.siteId, operatoryId: place.operatoryId, startMs: Date.parse(place.startUtc), endMs: Date.parse(place.endUtc) })
+    const part = largestFreed(freedByChange(span(before), span(after)))
+    if (part) freed.value = { siteId: part.siteId, operatoryId: part.operatoryId, startUtc: new Date(part.startMs).toISOString(), endUtc: new Date(part.endMs).toISOString() }
+  }
+
   function goToday() { date.value = todayIn(zone.value) }
   function step(days: number) { date.value = addDays(date.value, days) }
   function openDrawer(slot: DrawerSlot, prefill: DrawerPrefill | null = null) {
@@ -67,6 +81,6 @@ export const useChairboardStore = defineStore('chairboard', () => {
 
   return {
     date, selectedVisitId, highlightedVisitId, freed, showCancelled, drawerOpen, drawerSlot, drawerPrefill, notice, zone,
-    goToday, step, openDrawer, closeDrawer, tell, dismissNotice,
+    goToday, step, openDrawer, closeDrawer, tell, dismissNotice, noteFreed,
   }
 })

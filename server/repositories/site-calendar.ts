@@ -97,3 +97,9 @@ export async function loadSiteCalendar(db: Db, siteId: number, options: Calendar
     ...tables,
   }
 }
+
+/** Providers who may work at the calendar's site: a shift there, or an extra day there (issue 17: new provider time). */
+export function providerIdsAtSite(calendar: SiteCalendarInputs): number[] {
+  const extra = calendar.exceptions.filter((exception) => exception.kind === 'extra' && exception.siteId === calendar.site.id)
+  return [...new Set([...calendar.shifts.map((shift) => shift.providerId), ...extra.map((exception) => exception.providerId)])]
+}

@@ -137,8 +137,8 @@ export async function markOthersTaken(db: Db, offer: OfferRow): Promise<number[]
 }
 
 /** Entries with an open offer for this chair time (the gap panel says "offered"). */
-export async function entriesOfferedAt(db: Db, siteId: number, operatoryId: number, fromMs: number, toMs: number): Promise<Set<number>> {
-  const ids = (await db('offers').where({ site_id: siteId, operatory_id: operatoryId, state: 'sent' })
+export async function entriesOfferedAt(db: Db, siteId: number, operatoryId: number | null, fromMs: number, toMs: number): Promise<Set<number>> {
+  const ids = (await db('offers').where({ site_id: siteId, state: 'sent' }).where((chair) => { if (operatoryId !== null) void chair.where('operatory_id', operatoryId) })
     .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs)).where('expires_at', '>', new Date()).pluck('entry_id')) as number[]
   return new Set(ids)
 }

@@ -12,7 +12,7 @@ import { scheduleNowMs } from '../utils/clock'
 import { badRequest, rethrowDomainError } from '../utils/errors'
 import { canAccessSite, requireSiteAccess } from '../utils/auth'
 import { listSites } from '../repositories/sites'
-import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
+import { loadSiteCalendar, providerIdsAtSite, type SiteCalendarInputs } from '../repositories/site-calendar'
 import { busySegments, providersByIds, type ProviderRow } from '../repositories/openings-inputs'
 import { planItems, type ResolvedPlan } from './plan-service'
 
@@ -35,7 +35,7 @@ function rangeInZone(from: string, to: string, zone: string) {
 
 async function siteSearch(db: Db, site: { id: number; name: string }, request: OpeningsRequest): Promise<SiteSearch> {
   const calendar = (await loadSiteCalendar(db, site.id))!
-  const providerIds = [...new Set(calendar.shifts.map((shift) => shift.providerId))]
+  const providerIds = providerIdsAtSite(calendar)
   const providers = await providersByIds(db, request.providerId ? providerIds.filter((id) => id === request.providerId) : providerIds)
   return { siteId: site.id, siteName: site.name, calendar, providers, ...rangeInZone(request.from, request.to, calendar.site.timeZone) }
 }
@@ -97,4 +97,13 @@ export async function searchOpenings(request: OpeningsRequest, user: SessionUser
   const reasons = found.length ? [] : [...new Set(results.flatMap((result) => result.reasons))]
   // Only the openings returned are put on the wall clock (each site finds up to `limit` of its own).
   return { plan, openings: found.slice(0, request.limit).map(({ opening, search }) => toDto(opening, search, canAccessSite(user, opening.siteId))), reasons }
+}
+
+/**
+ * The first openings for a plan at one site, with no signed-in user (the patient's recall page):
+ * the same engine and inputs as the staff search, restricted to that site.
+ */
+export async function openingsAtSite(db: Db, site: { id: number; name: string }, request: OpeningsRequest): Promise<{ plan: VisitPlan; openings: OpeningDto[] }> {
+  const result = await searchOneSite(db, await siteSearch(db, site, request), request)
+  return { plan: result.resolved.plan, openings: result.openings.slice(0, request.limit).map(({ opening, search }) => toDto(opening, search, true)) }
 }

@@ -4,19 +4,20 @@
 // last_contact_at and an audit row `recall_mailed` (entity `recall`), the log the screen reads.
 import type { SessionUser } from '#shared/types/auth'
 import type { StoredTemplate } from '#shared/types/templates'
-import type { RecallDto, RecallMailResult } from '#shared/types/recall'
-import type { RecallMailInput } from '#shared/schemas/recall'
-import { mayMailRecall, nextDueDate, recallKindsOf, recallSettingsOf, type RecallKind } from '#shared/domain/recall'
+import type { RecallDto, RecallIntervalDto, RecallMailResult } from '#shared/types/recall'
+import type { RecallIntervalsInput, RecallMailInput } from '#shared/schemas/recall'
+import { mayMailRecall, nextDueDate, RECALL_KINDS, recallKindsOf, recallMonthsFor, recallSettingsOf, type RecallKind } from '#shared/domain/recall'
 import { addDays, localDateAt, todayIn } from '#shared/utils/local-date'
 import { useDb, type Db } from '../utils/db'
-import { badRequest } from '../utils/errors'
+import { badRequest, notFound } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { inTransaction } from '../utils/db-retry'
 import { scheduleNowMs } from '../utils/clock'
 import { findSiteDetail, findStoredSettings } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
 import { enqueueMessage } from '../repositories/outbox'
-import { listDueRecalls, markRecallsBooked, noteRecallContact, setRecallDue } from '../repositories/recalls'
+import { findPatientRecallMonths, listDueRecalls, markRecallsBooked, noteRecallContact, savePatientRecallMonths, setRecallDue } from '../repositories/recalls'
+import { findPatient } from '../repositories/patients'
 import { composeRecallMail } from './mail/notice-mail'
 
 function kindsOf(templates: readonly Pick<StoredTemplate, 'category'>[]): RecallKind[] {
@@ -28,11 +29,13 @@ export async function setRecallOnFinish(trx: Db, visit: { id: number; patientId:
   const kinds = kindsOf(templates)
   if (!kinds.length) return
   const settings = recallSettingsOf((await findStoredSettings(trx, visit.siteId)) ?? {})
+  const patientMonths = await findPatientRecallMonths(trx, visit.patientId)
   const visitDate = localDateAt(visit.startMs, visit.timeZone)
   for (const kind of kinds) {
-    const dueDate = nextDueDate(visitDate, kind, settings)
+    const months = recallMonthsFor(kind, settings, patientMonths)
+    const dueDate = nextDueDate(visitDate, kind, settings, patientMonths)
     await setRecallDue(trx, visit.patientId, kind, dueDate)
-    await writeAudit(trx, { userId, action: 'recall_due_set', entity: 'patient', entityId: visit.patientId, after: { kind, dueDate, visitId: visit.id } })
+    await writeAudit(trx, { userId, action: 'recall_due_set', entity: 'patient', entityId: visit.patientId, after: { kind, dueDate, visitId: visit.id, months, patientInterval: patientMonths[kind] !== undefined } })
   }
 }
 
@@ -80,5 +83,36 @@ export async function mailRecalls(input: RecallMailInput, user: SessionUser): Pr
       result.sent.push(recallId)
     }
     return result
+  })
+}
+
+// ---------------------------------------------------------------- a patient's own intervals
+
+/** The patient's interval per kind beside the default of their preferred site (the group default without one). */
+async function intervalsOf(db: Db, patientId: number, preferredSiteId: number | null): Promise<RecallIntervalDto[]> {
+  const settings = recallSettingsOf(preferredSiteId === null ? {} : ((await findStoredSettings(db, preferredSiteId)) ?? {}))
+  const own = await findPatientRecallMonths(db, patientId)
+  return RECALL_KINDS.map((kind) => ({ kind, months: own[kind] ?? null, siteMonths: settings.recallMonths[kind], effectiveMonths: recallMonthsFor(kind, settings, own) }))
+}
+
+export async function patientRecallIntervals(patientId: number): Promise<RecallIntervalDto[]> {
+  const db = useDb()
+  const patient = await findPatient(db, patientId)
+  if (!patient) throw notFound('No such patient.')
+  return intervalsOf(db, patientId, patient.preferredSiteId)
+}
+
+/** Set or clear the patient's own intervals (audited `recall_interval_changed` on entity `patient`). */
+export async function savePatientRecallIntervals(patientId: number, input: RecallIntervalsInput, user: SessionUser): Promise<RecallIntervalDto[]> {
+  return inTransaction(async (trx) => {
+    const patient = await findPatient(trx, patientId)
+    if (!patient) throw notFound('No such patient.')
+    const before = await findPatientRecallMonths(trx, patientId)
+    await savePatientRecallMonths(trx, patientId, input, user.id)
+    const after = await findPatientRecallMonths(trx, patientId)
+    if (RECALL_KINDS.some((kind) => before[kind] !== after[kind])) {
+      await writeAudit(trx, { userId: user.id, action: 'recall_interval_changed', entity: 'patient', entityId: patientId, before, after })
+    }
+    return intervalsOf(trx, patientId, patient.preferredSiteId)
   })
 }

@@ -4,17 +4,18 @@ import type { SessionUser } from '#shared/types/auth'
 import type { BookingUnitMinutes } from '#shared/types/chair-time'
 import type { StoredTemplate } from '#shared/types/templates'
 import type { Opening, OpeningsSite } from '#shared/types/openings'
-import type { WaitlistEntryDto, WaitlistMatchDto, WaitlistMatchesDto, WaitlistState } from '#shared/types/waitlist'
+import type { FreedWindowDto, WaitlistEntryDto, WaitlistMatchDto, WaitlistMatchesDto, WaitlistState } from '#shared/types/waitlist'
 import type { NewWaitlistEntryInput, WaitlistGapQuery } from '#shared/schemas/waitlist'
 import { expandAvailabilityMs } from '#shared/domain/rota'
 import { matchWaitlist, openingsInGap, type FreedGap, type WaitlistCandidate } from '#shared/domain/waitlist-match'
+import { addedProviderTime } from '#shared/domain/freed-time'
 import { localDateAt, localIsoAt } from '#shared/utils/local-date'
 import { useDb, type Db } from '../utils/db'
 import { badRequest, conflict, notFound } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { inTransaction } from '../utils/db-retry'
 import { scheduleNowMs } from '../utils/clock'
-import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
+import { loadSiteCalendar, providerIdsAtSite, type SiteCalendarInputs } from '../repositories/site-calendar'
 import { busySegments, providersByIds, type ProviderRow } from '../repositories/openings-inputs'
 import { findPatient } from '../repositories/patients'
 import { findVisitRow } from '../repositories/visits'
@@ -85,8 +86,13 @@ interface GapContext {
   site: OpeningsSite
 }
 
-/** The freed gap named by a cancelled or missed visit, or by site, chair and times. */
-export async function gapOf(db: Db, query: WaitlistGapQuery, user: SessionUser): Promise<{ siteId: number; operatoryId: number; startMs: number; endMs: number }> {
+type NamedGap = { siteId: number; operatoryId: number | null; startMs: number; endMs: number }
+
+/**
+ * The freed gap named by a cancelled or missed visit, or by site, chair and times (a move's old slot, a
+ * shortened visit's tail: `freedByChange`), or by site and times alone (a new shift or extra day: every chair).
+ */
+export async function gapOf(db: Db, query: WaitlistGapQuery, user: SessionUser): Promise<NamedGap> {
   if (query.visitId !== undefined) {
     const visit = await findVisitRow(db, query.visitId)
     if (!visit) throw notFound('No such visit.')
@@ -95,14 +101,14 @@ export async function gapOf(db: Db, query: WaitlistGapQuery, user: SessionUser):
     return { siteId: visit.site_id, operatoryId: visit.operatory_id, startMs: visit.start_utc.getTime(), endMs: visit.end_utc.getTime() }
   }
   requireSiteAccess(user, query.siteId!)
-  return { siteId: query.siteId!, operatoryId: query.operatoryId!, startMs: Date.parse(query.startUtc!), endMs: Date.parse(query.endUtc!) }
+  return { siteId: query.siteId!, operatoryId: query.operatoryId ?? null, startMs: Date.parse(query.startUtc!), endMs: Date.parse(query.endUtc!) }
 }
 
-async function gapContext(db: Db, named: { siteId: number; operatoryId: number; startMs: number; endMs: number }): Promise<GapContext> {
+async function gapContext(db: Db, named: NamedGap): Promise<GapContext> {
   const calendar = await loadSiteCalendar(db, named.siteId)
   if (!calendar) throw badRequest('siteId', 'no such site')
-  if (!calendar.operatoryDetails.some((room) => room.id === named.operatoryId)) throw badRequest('operatoryId', 'no such chair at this site')
-  const providerIds = [...new Set(calendar.shifts.map((shift) => shift.providerId))]
+  if (named.operatoryId !== null && !calendar.operatoryDetails.some((room) => room.id === named.operatoryId)) throw badRequest('operatoryId', 'no such chair at this site')
+  const providerIds = providerIdsAtSite(calendar)
   const providers = await providersByIds(db, providerIds)
   // Availability and busy time around the gap: a plan longer than the gap may use free time after it.
   const fromMs = named.startMs - 12 * HOUR_MS
@@ -146,7 +152,7 @@ async function matchesIn(db: Db, ctx: GapContext, onlyEntryIds?: ReadonlySet<num
 }
 
 /** For offer-service: the gap's context and its matches among some entries. */
-export async function matchesForOffers(db: Db, named: { siteId: number; operatoryId: number; startMs: number; endMs: number }, entryIds: ReadonlySet<number>) {
+export async function matchesForOffers(db: Db, named: NamedGap, entryIds: ReadonlySet<number>) {
   const ctx = await gapContext(db, named)
   return { ctx, matches: await matchesIn(db, ctx, entryIds) }
 }
@@ -166,4 +172,28 @@ export async function waitlistMatches(query: WaitlistGapQuery, user: SessionUser
       canOffer: Boolean(entry.patientEmail && entry.emailConsent), offered: offered.has(entry.id),
     })),
   }
+}
+
+// ---------------------------------------------------------------- time a new shift or extra day adds
+
+const FREED_LOOKAHEAD_MS = 14 * 24 * HOUR_MS
+
+/**
+ * After a new shift or extra day is saved: the provider time it adds at the site in the next 14 days
+ * (their time with it minus without it), as gaps across the site's chairs for the waitlist.
+ */
+export async function freedByNewProviderTime(siteId: number, providerId: number, added: { shiftId?: number; exceptionId?: number }): Promise<FreedWindowDto[]> {
+  const db = useDb()
+  const calendar = await loadSiteCalendar(db, siteId)
+  if (!calendar) return []
+  const nowMs = scheduleNowMs()
+  const range = { fromUtc: new Date(nowMs).toISOString(), toUtc: new Date(nowMs + FREED_LOOKAHEAD_MS).toISOString() }
+  const timeOf = (input: SiteCalendarInputs) => expandAvailabilityMs({ ...input, ...range }).providers.find((entry) => entry.providerId === providerId)?.intervals ?? []
+  const without = {
+    ...calendar,
+    shifts: calendar.shifts.filter((shift) => shift.id !== added.shiftId),
+    exceptions: calendar.exceptions.filter((exception) => exception.id !== added.exceptionId),
+  }
+  return addedProviderTime(timeOf(calendar), timeOf(without))
+    .map((piece) => ({ siteId, startUtc: new Date(piece.startMs).toISOString(), endUtc: new Date(piece.endMs).toISOString() }))
 }

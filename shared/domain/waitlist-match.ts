@@ -16,10 +16,10 @@ import { localDateAt } from '../utils/local-date'
 
 const MINUTE_MS = 60_000
 
-/** A freed piece of one chair's time. */
+/** A freed piece of one chair's time, or of every chair of the site (null: a new shift or extra day). */
 export interface FreedGap {
   siteId: number
-  operatoryId: number
+  operatoryId: number | null
   timeZone: string
   startMs: number
   endMs: number
@@ -46,10 +46,10 @@ export interface WaitlistMatch {
   opening: Opening
 }
 
-/** Every start of a plan inside the gap, on its chair, earliest first (the engine, restricted). */
+/** Every start of a plan inside the gap, on its chair (any chair of the site without one), earliest first (the engine, restricted). */
 export function openingsInGap(query: Omit<OpeningsQuery, 'fromMs' | 'toMs' | 'operatoryId' | 'limit' | 'partOfDay'>, gap: FreedGap): Opening[] {
   if (gap.endMs <= gap.startMs) return []
-  return findOpenings({ ...query, fromMs: gap.startMs, toMs: gap.endMs, operatoryId: gap.operatoryId, limit: Infinity, partOfDay: 'any' }).openings
+  return findOpenings({ ...query, fromMs: gap.startMs, toMs: gap.endMs, operatoryId: gap.operatoryId ?? undefined, limit: Infinity, partOfDay: 'any' }).openings
     .filter((opening) => opening.siteId === gap.siteId)
 }
 

@@ -36,7 +36,10 @@ export const WaitlistListQuerySchema = z.object({
   state: z.enum(['open', 'booked', 'closed', 'all'], { error: 'must be open, booked, closed or all' }).default('open'),
 })
 
-/** A freed gap: a cancelled or missed visit's time, or any chair time named by hand. */
+/**
+ * A freed gap: a cancelled or missed visit's time, or chair time named by site, chair and times (a move's
+ * old slot, a shortened visit's tail), or by site and times alone: every chair of the site (a new shift or extra day).
+ */
 export const WaitlistGapQuerySchema = z.object({
   visitId: IdSchema.optional(),
   siteId: IdSchema.optional(),
@@ -44,7 +47,7 @@ export const WaitlistGapQuerySchema = z.object({
   startUtc: utcInstant.optional(),
   endUtc: utcInstant.optional(),
 })
-  .refine((gap) => gap.visitId !== undefined || (gap.siteId !== undefined && gap.operatoryId !== undefined && gap.startUtc !== undefined && gap.endUtc !== undefined), { message: 'give visitId, or siteId, operatoryId, startUtc and endUtc', path: ['visitId'] })
+  .refine((gap) => gap.visitId !== undefined || (gap.siteId !== undefined && gap.startUtc !== undefined && gap.endUtc !== undefined), { message: 'give visitId, or siteId, startUtc and endUtc (and operatoryId for one chair)', path: ['visitId'] })
   .refine((gap) => gap.startUtc === undefined || gap.endUtc === undefined || (Date.parse(gap.endUtc) > Date.parse(gap.startUtc) && Date.parse(gap.endUtc) - Date.parse(gap.startUtc) <= 12 * 3_600_000), { message: 'must be after startUtc and at most 12 hours later', path: ['endUtc'] })
 export type WaitlistGapQuery = z.infer<typeof WaitlistGapQuerySchema>
 
@@ -56,6 +59,6 @@ export const SendOffersSchema = z.object({
   endUtc: utcInstant.optional(),
   entryIds: z.array(id('waitlist entry'), { error: 'must be a list of waitlist entries' }).min(1, 'choose at least one patient').max(50, 'at most 50 offers at once'),
 })
-  .refine((gap) => gap.visitId !== undefined || (gap.siteId !== undefined && gap.operatoryId !== undefined && gap.startUtc !== undefined && gap.endUtc !== undefined), { message: 'give visitId, or siteId, operatoryId, startUtc and endUtc', path: ['visitId'] })
+  .refine((gap) => gap.visitId !== undefined || (gap.siteId !== undefined && gap.startUtc !== undefined && gap.endUtc !== undefined), { message: 'give visitId, or siteId, startUtc and endUtc (and operatoryId for one chair)', path: ['visitId'] })
   .refine((gap) => gap.startUtc === undefined || gap.endUtc === undefined || (Date.parse(gap.endUtc) > Date.parse(gap.startUtc) && Date.parse(gap.endUtc) - Date.parse(gap.startUtc) <= 12 * 3_600_000), { message: 'must be after startUtc and at most 12 hours later', path: ['endUtc'] })
 export type SendOffersInput = z.infer<typeof SendOffersSchema>

@@ -23,3 +23,13 @@ export interface RecallMailResult {
   sent: number[]
   skipped: Array<{ recallId: number; reason: string }>
 }
+
+/** A patient's recall interval per kind: their own (`months`) or, when null, the site's default. */
+export interface RecallIntervalDto {
+  kind: RecallKind
+  months: number | null
+  /** The default of the patient's preferred site (or the group default when none). */
+  siteMonths: number
+  /** What applies now: `months ?? siteMonths`. */
+  effectiveMonths: number
+}

@@ -47,7 +47,8 @@ export interface WaitlistMatchDto {
 }
 
 export interface WaitlistMatchesDto {
-  gap: { siteId: number; operatoryId: number; startUtc: string; endUtc: string }
+  /** `operatoryId` null: every chair of the site (a new shift or extra day). */
+  gap: { siteId: number; operatoryId: number | null; startUtc: string; endUtc: string }
   matches: WaitlistMatchDto[]
 }
 
@@ -73,4 +74,14 @@ export interface PublicOfferDto {
   state: OfferState
   /** Words for the page when the offer is no longer open. */
   message: string
+}
+
+/**
+ * Provider time a new shift or extra day added (issue 17 §2): a gap across every chair of the site,
+ * asked of the waitlist with GET /api/waitlist/matches?siteId&startUtc&endUtc (no operatoryId).
+ */
+export interface FreedWindowDto {
+  siteId: number
+  startUtc: string
+  endUtc: string
 }

@@ -8,6 +8,8 @@ import { findRecall } from '../../repositories/recalls'
 import { findPatient } from '../../repositories/patients'
 import { findSiteDetail } from '../../repositories/sites'
 import { signOfferToken } from '../../utils/offer-token'
+import { signRecallToken } from '../../utils/recall-token'
+import { RECALL_LINK_DAYS } from '#shared/domain/recall'
 import { composeOfferMail, composeRecallMail } from './notice-mail'
 
 type Composed = ReturnType<typeof composeOfferMail>
@@ -38,7 +40,11 @@ async function recallMail(db: Db, recallId: number, siteId: number | null, setti
   if (!recall || !site || !patient) return { skip: 'the recall no longer exists' }
   if (!patient.email) return { skip: 'the patient has no e-mail address' }
   if (!patient.emailConsent) return { skip: 'the patient has not agreed to e-mail' }
-  const facts = { site, patient: { firstName: patient.firstName, lastName: patient.lastName, email: patient.email }, kind: recall.kind, dueDate: recall.dueDate }
+  // The page lists times at the patient's preferred site, or at the site that mailed them.
+  const pageSiteId = patient.preferredSiteId ?? site.id
+  const token = signRecallToken(settings.linkSecret, { recallId: recall.id, siteId: pageSiteId, patientId: recall.patientId, dueDate: recall.dueDate }, Date.now() + RECALL_LINK_DAYS * 86_400_000)
+  const link = `${settings.publicUrl.replace(/\/+$/, '')}/recall-times/${encodeURIComponent(token)}`
+  const facts = { site, patient: { firstName: patient.firstName, lastName: patient.lastName, email: patient.email }, kind: recall.kind, dueDate: recall.dueDate, link }
   return { siteEmail: site.email, compose: (messageId) => composeRecallMail(facts, { from: settings.from, messageId }) }
 }
 

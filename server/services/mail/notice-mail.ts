@@ -88,6 +88,8 @@ export interface RecallMailFacts {
   patient: NoticePatient
   kind: RecallKind
   dueDate: string
+  /** The signed recall page (`/recall-times/<token>`) where the patient picks a time; absent in a preview. */
+  link?: string
 }
 
 export function composeRecallMail(facts: RecallMailFacts, options: { from: string; messageId?: string }) {
@@ -99,8 +101,11 @@ export function composeRecallMail(facts: RecallMailFacts, options: { from: strin
     subject: `Time for your ${what} at ${site.name}`,
     paragraphs: [
       `Your next regular ${what} at ${site.name} is due on ${formatLocalDate(facts.dueDate, style, 'long')}.`,
-      `Please call us at ${site.phone} or reply to this e-mail, and we will find a time that suits you.`,
+      facts.link
+        ? 'Pick a time that suits you from the free times on our page, or call us at the number below and we will find one together.'
+        : `Please call us at ${site.phone} or reply to this e-mail, and we will find a time that suits you.`,
     ],
+    ...(facts.link ? { button: { href: facts.link, label: 'Choose a time' } } : {}),
     why: `You got this e-mail because you are a patient of ${site.name} and agreed to hear from us by e-mail.`,
   }, options)
 }
