@@ -7,7 +7,7 @@
 //   previews the time off through the change-impact dry run before anything is saved;
 // - consolidate: a visit that could slide to join two short free stretches of its chair; the screen
 //   only helps the front desk ask the patient (there is no move offer yet).
-// Bounded: SUGGESTIONS_PER_KIND of each kind per site (rota moves: per answer), future time only.
+// Bounded: SUGGESTIONS_PER_KIND of each kind per site (rota moves: leaving each site), future time only.
 import type { SessionUser } from '#shared/types/auth'
 import type { BalanceSuggestion, BalanceSuggestionsResponse, SuggestedGap } from '#shared/types/balance'
 import type { BalanceQuery } from '#shared/schemas/balance'

@@ -19,7 +19,7 @@ const MINUTE_MS = 60_000
 /** What Balance suggests; one code name, `suggestion`, with these kinds. */
 export type SuggestionKind = 'waitlist_fit' | 'recall_fit' | 'rota_move' | 'consolidate'
 
-/** At most this many suggestions of each kind per site (rota moves: per range), so the list stays short and quick. */
+/** At most this many suggestions of each kind per site (rota moves: leaving each site), so the list stays short and quick. */
 export const SUGGESTIONS_PER_KIND = 3
 
 export interface ChairOpenTime {
@@ -78,8 +78,9 @@ export interface RotaMove {
 }
 
 /**
- * Providers who could spend a quiet day at a tight site instead. A provider who leaves a colleague on
- * shift behind comes first; then the widest difference between the two sites' shares.
+ * Providers who could spend a quiet day at a tight site instead, at most `limit` leaving each quiet
+ * site. A provider who leaves a colleague on shift behind comes first; then the widest difference
+ * between the two sites' shares.
  */
 export function rotaMoves(days: readonly SiteDay[], sitesOfProvider: ReadonlyMap<number, readonly number[]>, limit: number): RotaMove[] {
   const byDate = new Map<string, SiteDay[]>()
@@ -95,9 +96,14 @@ export function rotaMoves(days: readonly SiteDay[], sitesOfProvider: ReadonlyMap
       }
     }
   }
+  const kept = new Map<number, number>()
   return moves
     .sort((a, b) => Number(b.leavesColleague) - Number(a.leavesColleague) || (b.toShare - b.fromShare) - (a.toShare - a.fromShare) || a.date.localeCompare(b.date) || a.providerId - b.providerId)
-    .slice(0, limit)
+    .filter((move) => {
+      const count = kept.get(move.fromSiteId) ?? 0
+      kept.set(move.fromSiteId, count + 1)
+      return count < limit
+    })
     .map(({ leavesColleague: _, ...move }) => move)
 }
 

@@ -42,6 +42,12 @@ describe('rotaMoves', () => {
     ])
   })
 
+  it('keeps to the limit for each quiet site', () => {
+    const sites = new Map([[7, [1, 2, 3]], [8, [1, 2, 3]]])
+    const moves = rotaMoves([day(1, 0.2, 'quiet', [7, 8]), day(2, 0.95, 'tight', []), day(3, 0.99, 'tight', [])], sites, 1)
+    expect(moves).toEqual([{ date: '2027-03-10', providerId: 7, fromSiteId: 1, toSiteId: 3, fromShare: 0.2, toShare: 0.99 }])
+  })
+
   it('suggests nothing without a tight site that day, or for a provider already there', () => {
     const sites = new Map([[7, [1, 2]]])
     expect(rotaMoves([day(1, 0.2, 'quiet', [7]), day(2, 0.95, 'tight', [], '2027-03-11')], sites, 5)).toEqual([])
