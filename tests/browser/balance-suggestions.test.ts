@@ -44,6 +44,11 @@ async function openQuietDay(browser: BrowserSession) {
   const { page } = browser
   await signInThroughForm(page, 'manager@fernhollow.test')
   await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'))
+  return showQuietDay(browser)
+}
+
+async function showQuietDay(browser: BrowserSession) {
+  const { page } = browser
   await page.goto('/balance')
   await page.getByLabel('From', { exact: true }).fill(day)
   await page.getByLabel('To', { exact: true }).fill(day)
@@ -84,6 +89,7 @@ for (const viewport of [{ width: 1440, height: 900 }, { width: 1024, height: 768
       const dialog = page.getByTestId('impact-dialog')
       await dialog.waitFor()
       expect(await dialog.textContent()).toContain('No booked visit would lose them')
+      expect(await rota.textContent()).toContain('(all day)')
       await screenshot(page, `balance-rota-preview-${viewport.width}`)
       await dialog.getByRole('button', { name: 'Cancel the change' }).click()
       await expect.poll(() => rota.getByTestId('suggestion-outcome').textContent()).toBe('Nothing changed.')
@@ -106,6 +112,23 @@ for (const viewport of [{ width: 1440, height: 900 }, { width: 1024, height: 768
         await expect.poll(() => drawer.getByRole('region', { name: 'Clicked slot' }).textContent()).toContain('Room 1')
         await screenshot(page, 'balance-book-drawer')
       }
+    })
+
+    it.runIf(viewport.width === 1024)('saves the day off, then the extra day at the tight site, each asked before it is written', async () => {
+      const { page } = browser
+      await showQuietDay(browser)
+      const rota = page.getByTestId('balance-suggestion').filter({ hasText: 'works at both' }).filter({ hasText: quietName }).first()
+      await rota.getByTestId('suggestion-preview-rota').click()
+      await page.getByTestId('impact-dialog').getByTestId('impact-confirm').click()
+      await expect.poll(() => rota.getByTestId('suggestion-outcome').textContent()).toMatch(/^Day off saved\. Next: the extra day at /)
+      await rota.getByTestId('suggestion-extra-day').click()
+      const dialog = page.getByTestId('impact-dialog')
+      await dialog.waitFor()
+      expect(await dialog.textContent()).toContain('(all day)?')
+      await screenshot(page, 'balance-rota-extra-day')
+      await dialog.getByTestId('impact-confirm').click()
+      await expect.poll(async () => (await testDb()('shift_exceptions').where({ provider_id: quiet.providerIds[0], start_date: day }).select('kind', 'site_id')).map((row) => `${row.kind}@${row.site_id}`).sort())
+        .toEqual([`extra@${tight.siteId}`, `time_off@${quiet.siteId}`])
     })
   })
 }

@@ -73,7 +73,7 @@ describe('Balance suggestions', () => {
     entryId = entry.body.id
     // A patient of the quiet annex whose cleaning was due ten days ago.
     await db('patients').where({ id: quiet.patientIds[4] }).update({ preferred_site_id: quiet.siteId, email: 'recall.patient@example.test', email_consent: true })
-    ;[recallId] = await db('recalls').insert({ patient_id: quiet.patientIds[4], kind: 'cleaning', due_date: daysFromToday(-10, quiet.timeZone), updated_at: new Date() })
+    recallId = (await db('recalls').insert({ patient_id: quiet.patientIds[4], kind: 'cleaning', due_date: daysFromToday(-10, quiet.timeZone), updated_at: new Date() }))[0]!
     // The tight annex's chair holds one visit that day; the quiet annex's dentist works there too.
     await book(tight, 0, `${day}T10:00`)
     const quietDentist = await db('providers').where({ id: quiet.providerIds[0] }).first('user_id')
@@ -123,7 +123,7 @@ describe('Balance suggestions', () => {
     expect(response.body.suggestions.some((item: { kind: string }) => item.kind === 'rota_move')).toBe(false)
   })
 
-  it('acts through the existing offer and the impact preview, and the rota day off is written only when saved', async () => {
+  it('acts through the existing offer and the impact preview; the rota day off is written only when saved, and then frees the provider for the extra day', async () => {
     const response = await manager.get(`/api/balance/suggestions?from=${day}&to=${day}&${THRESHOLDS}`)
     const waitlist = response.body.suggestions.find((item: { kind: string; entryId?: number }) => item.kind === 'waitlist_fit' && item.entryId === entryId)
     const offer = await manager.post('/api/waitlist/offers', { siteId: quiet.siteId, operatoryId: waitlist.gap.operatoryId, startUtc: waitlist.gap.startUtc, endUtc: waitlist.gap.endUtc, entryIds: [entryId] })
@@ -136,6 +136,15 @@ describe('Balance suggestions', () => {
     expect(preview.status).toBe(200)
     expect(preview.body).toEqual({ strandedVisits: [] })
     expect(await testDb()('shift_exceptions').where({ provider_id: rota.providerId, start_date: rota.date }).count({ n: '*' }).first()).toEqual({ n: 0 })
+
+    // Without the day off, an extra day at the tight annex clashes with the shift at the quiet one (409);
+    // once the day off is saved, the same extra day is taken.
+    const extra = { providerId: rota.providerId, kind: 'extra', siteId: rota.toSiteId, startDate: rota.date, endDate: rota.date, localStart: rota.localStart, localEnd: rota.localEnd, reason: 'Balance' }
+    const refused = await manager.post('/api/shift-exceptions', extra)
+    expect(refused.status).toBe(409)
+    expect(refused.body.data).toMatchObject({ otherSiteId: quiet.siteId })
+    expect((await manager.post('/api/shift-exceptions', body)).status).toBe(201)
+    expect((await manager.post('/api/shift-exceptions', extra)).status).toBe(201)
   })
 
   it('answers 400 naming the field, 401 signed out, 403 for the front desk', async () => {
@@ -164,5 +173,6 @@ describe('Balance figures as CSV', () => {
     expect(lines[1]).toMatch(new RegExp(`^'=HYPERLINK ${site.name},${date}/${month}/${year},24\\.0,\\d\\.\\d,\\d,tight,no,`))
     expect(lines[3]).toMatch(new RegExp(`^'=HYPERLINK ${site.name},All days,48\\.0,`))
     expect(lines.at(-1)).toBe('')
+    await db('sites').where({ id: tight.siteId }).update({ name: site.name, date_order: 'month-day-year' })
   })
 })
