@@ -14,6 +14,8 @@ import { loadSiteCalendar } from '../repositories/site-calendar'
 import { busySegments, providersByIds } from '../repositories/openings-inputs'
 import { visitOutcomes } from '../repositories/visit-outcomes'
 import { LATE_CANCEL_HOURS, outcomeRates } from '#shared/domain/visit-outcomes'
+import { refillFigures } from '#shared/domain/balance-refill'
+import { bookedVisits, freedVisits } from '../repositories/balance-inputs'
 import { scheduleNowMs } from '../utils/clock'
 
 /** Each local date from..to with its own start and end instants (23 or 25 hours across a DST change). */
@@ -24,8 +26,9 @@ function localDays(from: string, to: string, zone: string) {
   })
 }
 
-async function oneSite(db: Db, site: { id: number; name: string }, query: BalanceQuery, thresholds: BalanceThresholds): Promise<SiteBalanceDto> {
-  const calendar = (await loadSiteCalendar(db, site.id))!
+/** A site's calendar over the range, its chairs' live segments, and the chair figures: shared with the suggestions. */
+export async function siteFigures(db: Db, siteId: number, query: Pick<BalanceQuery, 'from' | 'to'>, thresholds: BalanceThresholds) {
+  const calendar = (await loadSiteCalendar(db, siteId))!
   const zone = calendar.site.timeZone
   const fromMs = Date.parse(localDayRange(query.from, zone).fromUtc)
   const toMs = Date.parse(localDayRange(query.to, zone).toUtc)
@@ -33,25 +36,37 @@ async function oneSite(db: Db, site: { id: number; name: string }, query: Balanc
   const rooms = calendar.operatoryDetails.filter((room) => room.active)
   const segments = await busySegments(db, rooms.map((room) => room.id), [], fromMs, toMs)
   const names = new Map((await providersByIds(db, availability.providers.map((entry) => entry.providerId))).map((provider) => [provider.id, provider.name]))
-  const figures = siteBalance({
-    fromMs, toMs, segments, days: localDays(query.from, query.to, zone),
-    operatories: rooms.map((room) => ({ operatoryId: room.id, intervals: availability.operatories.find((entry) => entry.operatoryId === room.id)?.intervals ?? [] })),
-    providers: availability.providers.filter((entry) => names.has(entry.providerId)),
-  }, thresholds)
+  const chairTime = rooms.map((room) => ({ operatoryId: room.id, intervals: availability.operatories.find((entry) => entry.operatoryId === room.id)?.intervals ?? [] }))
+  const providerTime = availability.providers.filter((entry) => names.has(entry.providerId))
+  const days = localDays(query.from, query.to, zone)
+  const figures = siteBalance({ fromMs, toMs, segments, days, operatories: chairTime, providers: providerTime }, thresholds)
+  return { calendar, zone, fromMs, toMs, rooms, segments, names, chairTime, providerTime, days, figures }
+}
+
+async function oneSite(db: Db, site: { id: number; name: string }, query: BalanceQuery, thresholds: BalanceThresholds): Promise<SiteBalanceDto> {
+  const { zone, fromMs, toMs, rooms, names, figures } = await siteFigures(db, site.id, query, thresholds)
   const outcomes = outcomeRates(await visitOutcomes(db, site.id, fromMs, toMs), scheduleNowMs())
+  // Freed visits start in the range; a refill may run past its end, so bookings are read a day further.
+  const refill = refillFigures(await freedVisits(db, site.id, fromMs, toMs), await bookedVisits(db, site.id, fromMs, toMs + 86_400_000))
   return {
-    siteId: site.id, siteName: site.name, timeZone: zone, chairs: figures.chairs, days: figures.days, outcomes,
+    siteId: site.id, siteName: site.name, timeZone: zone, chairs: figures.chairs, days: figures.days, outcomes, refill,
     operatories: figures.operatories.map(({ operatoryId, ...use }) => ({ id: operatoryId, name: rooms.find((room) => room.id === operatoryId)!.name, ...use })),
     providers: figures.providers.map(({ providerId, ...use }) => ({ id: providerId, name: names.get(providerId)!, ...use }))
       .sort((a, b) => a.name.localeCompare(b.name)),
   }
 }
 
+/** The caller's sites, or the one asked for (403 outside the caller's scope, 400 when there is none). */
+export async function sitesInScope(db: Db, user: SessionUser, siteId: number | undefined) {
+  if (siteId !== undefined) requireSiteAccess(user, siteId)
+  const sites = (await listSites(db, user)).filter((site) => siteId === undefined || site.id === siteId)
+  if (siteId !== undefined && !sites.length) throw badRequest('siteId', 'no such site')
+  return sites
+}
+
 export async function balanceAcrossSites(user: SessionUser, query: BalanceQuery): Promise<BalanceResponse> {
   const db = useDb()
-  if (query.siteId !== undefined) requireSiteAccess(user, query.siteId)
-  const sites = (await listSites(db, user)).filter((site) => query.siteId === undefined || site.id === query.siteId)
-  if (query.siteId !== undefined && !sites.length) throw badRequest('siteId', 'no such site')
+  const sites = await sitesInScope(db, user, query.siteId)
   const thresholds = { quietBelow: query.quietBelow, tightFrom: query.tightFrom }
   return { from: query.from, to: query.to, lateCancelHours: LATE_CANCEL_HOURS, thresholds, sites: await Promise.all(sites.map((site) => oneSite(db, site, query, thresholds))) }
 }

@@ -16,9 +16,12 @@ import { notFound } from '../utils/errors'
 import { allPatientRecords } from '../repositories/patients'
 import { listVisits } from '../repositories/visits'
 import { listOperatories } from '../repositories/operatories'
-import { findSite } from '../repositories/sites'
+import { findSite, listSites } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
 import { toBoardVisit } from './visit-list-service'
+import { balanceAcrossSites } from './balance-service'
+import type { BalanceQuery } from '#shared/schemas/balance'
+import { formatLocalDate } from '#shared/utils/display-time'
 
 const PATIENT_HEADER = ['Patient id', 'Given name', 'Family name', 'Preferred name', 'Birth date', 'E-mail', 'Mobile phone', 'Street', 'Town or city',
   'State or region', 'Postal code', 'E-mail consent', 'E-mail consent since', 'Text consent', 'Text consent since', 'Guardian', 'Guardian e-mail',
@@ -66,4 +69,29 @@ export async function exportVisits(user: SessionUser, query: VisitsExportQuery, 
     return [visit.id, formatLocalDate(localDateAt(startMs, zone), style, 'numeric'), formatTime(visit.startUtc, style), formatTime(visit.endUtc, style), chairs.get(visit.operatoryId) ?? '',
       visit.providerName, visit.patientId, visit.patientName, visit.procedures.join('; '), visit.state, visit.cancelReason]
   }))
+}
+
+const BALANCE_HEADER = ['Site', 'Date', 'Chair open hours', 'Chair hours held', 'Chair use %', 'Band', 'Nobody on shift',
+  'Did not come %', 'Cancelled late %', 'Freed hours', 'Freed time refilled %', 'Median hours to refill']
+
+/**
+ * The Balance figures (issue 17 §3): a row per site and day, then a row per site for the whole range
+ * ("All days") with the visit outcomes and refilled time. Dates in the site's own date order; no
+ * patient data, so no audit row.
+ */
+export async function exportBalance(user: SessionUser, query: BalanceQuery): Promise<string> {
+  const balance = await balanceAcrossSites(user, query)
+  const sites = new Map((await listSites(useDb(), user)).map((site) => [site.id, site]))
+  const hours = (minutes: number) => (minutes / 60).toFixed(1)
+  const percent = (share: number | null) => (share === null ? '' : String(Math.round(share * 100)))
+  const rows = balance.sites.flatMap((site) => {
+    const style = { dateOrder: sites.get(site.siteId)?.dateOrder ?? 'year-month-day' as const }
+    return [
+      ...site.days.map((day) => [site.siteName, formatLocalDate(day.date, style, 'numeric'), hours(day.availableMinutes), hours(day.usedMinutes), percent(day.share), day.band ?? '', day.nobodyOnShift ? 'yes' : 'no', '', '', '', '', '']),
+      [site.siteName, 'All days', hours(site.chairs.availableMinutes), hours(site.chairs.usedMinutes), percent(site.chairs.share), site.chairs.band ?? '', '',
+        percent(site.outcomes.missedRate), percent(site.outcomes.lateCancelRate), hours(site.refill.freedMinutes), percent(site.refill.refilledShare),
+        site.refill.medianHoursToRefill === null ? '' : site.refill.medianHoursToRefill.toFixed(1)],
+    ]
+  })
+  return toCsv(BALANCE_HEADER, rows)
 }

@@ -12,7 +12,7 @@ import { findProvider, lockProvider } from '../repositories/providers'
 import { findSiteDetails } from '../repositories/sites'
 import { findOperatory } from '../repositories/operatories'
 import { deleteShift as removeShift, findShift, insertShift, listShifts, shiftToInput, updateShift } from '../repositories/shifts'
-import { deleteShiftException as removeShiftException, findShiftException, insertShiftException } from '../repositories/shift-exceptions'
+import { deleteShiftException as removeShiftException, findShiftException, insertShiftException, listShiftExceptions } from '../repositories/shift-exceptions'
 import { deleteBlock as removeBlock, findBlock, insertBlock, updateBlock } from '../repositories/blocks'
 import { writeAudit } from '../repositories/audit-log'
 import { changeWithImpact, type ImpactResult, type ImpactWatch } from './impact-service'
@@ -39,10 +39,14 @@ async function requireWorksAt(db: Db, providerId: number, siteId: number) {
   }
 }
 
-/** 409 when the provider already works at another site at an overlapping time on some date. */
-async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number): Promise<void> {
+/**
+ * 409 when the provider already works at another site at an overlapping time on some date. Shifts at
+ * `awaySiteIds` are left out (an extra day where whole-day time off already frees the provider).
+ */
+async function refuseCrossSiteClash(db: Db, shift: ShiftBody, shiftId: number, awaySiteIds: ReadonlySet<number> | 'all' = new Set()): Promise<void> {
   const provider = await requireProvider(db, shift.providerId)
-  const others = (await listShifts(db, { providerId: shift.providerId })).filter((other) => other.id !== shiftId)
+  const others = (await listShifts(db, { providerId: shift.providerId }))
+    .filter((other) => other.id !== shiftId && awaySiteIds !== 'all' && !awaySiteIds.has(other.siteId))
   if (others.length === 0) return
   const sites = await findSiteDetails(db, [...new Set([shift.siteId, ...others.map((other) => other.siteId)])])
   const zoneOf = (siteId: number) => sites.find((site) => site.id === siteId)?.timeZone ?? 'UTC'
@@ -122,11 +126,16 @@ export function createShiftException(user: SessionUser, exception: ShiftExceptio
       // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
       // day, which refuses rather than risks a clash.
       await lockProvider(trx, exception.providerId)
+      // Whole-day time off at another site over every date of the extra day frees the provider there
+      // (Balance's rota suggestion: a day off at a quiet site, then an extra day at a tight one).
+      const away = (await listShiftExceptions(trx, { providerId: exception.providerId, from: exception.startDate, to: exception.endDate }))
+        .filter((off) => off.kind === 'time_off' && off.localStart === null && off.startDate <= exception.startDate && off.endDate >= exception.endDate)
+      const awaySiteIds = away.some((off) => off.siteId === null) ? 'all' as const : new Set(away.map((off) => off.siteId!))
       await refuseCrossSiteClash(trx, {
         providerId: exception.providerId, siteId: exception.siteId, rrule: 'FREQ=DAILY',
         validFrom: exception.startDate, validUntil: exception.endDate,
         localStart: exception.localStart ?? '00:00', localEnd: exception.localEnd ?? '24:00', note: '',
-      }, 0)
+      }, 0, awaySiteIds)
     }
     await impact.watch({ ...(exception.siteId === null ? {} : { siteIds: [exception.siteId] }), providerId: exception.providerId })
     const id = await insertShiftException(trx, exception)
