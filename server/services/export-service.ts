@@ -21,7 +21,6 @@ import { writeAudit } from '../repositories/audit-log'
 import { toBoardVisit } from './visit-list-service'
 import { balanceAcrossSites } from './balance-service'
 import type { BalanceQuery } from '#shared/schemas/balance'
-import { formatLocalDate } from '#shared/utils/display-time'
 
 const PATIENT_HEADER = ['Patient id', 'Given name', 'Family name', 'Preferred name', 'Birth date', 'E-mail', 'Mobile phone', 'Street', 'Town or city',
   'State or region', 'Postal code', 'E-mail consent', 'E-mail consent since', 'Text consent', 'Text consent since', 'Guardian', 'Guardian e-mail',
