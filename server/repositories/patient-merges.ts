@@ -29,6 +29,22 @@ export async function moveVisits(db: Db, fromId: number, toId: number): Promise<
   return { visitIds, outboxIds }
 }
 
+/**
+ * Recall and waitlist follow the person: open waitlist entries move to the survivor; a recall or a
+ * recall interval of a kind the survivor has none of moves, and where both have one the survivor's is
+ * kept (the merged-away one is removed, so the merged-away id never shows on the Recall screen).
+ */
+export async function moveRecallAndWaitlist(db: Db, fromId: number, toId: number): Promise<{ waitlistEntries: number; recalls: number; recallIntervals: number }> {
+  const waitlistEntries = await db('waitlist_entries').where({ patient_id: fromId }).update({ patient_id: toId })
+  const moveKinds = async (table: 'recalls' | 'patient_recall_intervals') => {
+    const taken = (await db(table).where({ patient_id: toId }).pluck('kind')) as string[]
+    const moved = await db(table).where({ patient_id: fromId }).whereNotIn('kind', taken.length ? taken : ['']).update({ patient_id: toId })
+    await db(table).where({ patient_id: fromId }).delete()
+    return moved
+  }
+  return { waitlistEntries, recalls: await moveKinds('recalls'), recallIntervals: await moveKinds('patient_recall_intervals') }
+}
+
 /** The merged-away record's audit trail is filed under the survivor; returns how many rows moved. */
 export async function moveAuditTrail(db: Db, fromId: number, toId: number): Promise<number> {
   return db('audit_log').where({ entity: 'patient', entity_id: String(fromId) }).update({ entity_id: String(toId) })

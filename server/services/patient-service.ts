@@ -15,7 +15,7 @@ import {
   duplicateCandidates, findPatientRow, insertPatient, patientColumns, toPatientRecordDto, updatePatientIfVersion, type PatientRecordRow,
 } from '../repositories/patients'
 import { mergedConsent } from '#shared/domain/merge-consent'
-import { insertMerge, markMerged, moveAuditTrail, moveVisits, overlappingVisits } from '../repositories/patient-merges'
+import { insertMerge, markMerged, moveAuditTrail, moveRecallAndWaitlist, moveVisits, overlappingVisits } from '../repositories/patient-merges'
 import { findSite } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
 
@@ -163,10 +163,11 @@ export function mergePatients(user: SessionUser, input: PatientMergeInput, ip: s
     await updatePatientIfVersion(trx, input.survivorId, survivorRow.row_version, { ...patientColumns(fields), ...consent })
     const moved = await moveVisits(trx, input.mergedId, input.survivorId)
     const auditRows = await moveAuditTrail(trx, input.mergedId, input.survivorId)
+    const followed = await moveRecallAndWaitlist(trx, input.mergedId, input.survivorId)
     await markMerged(trx, input.mergedId, input.survivorId)
     const mergeId = await insertMerge(trx, {
       survivorId: input.survivorId, mergedId: input.mergedId, userId: user.id, choices: input.take,
-      mergedBefore: merged, survivorBefore: survivor, moved: { ...moved, auditRows },
+      mergedBefore: merged, survivorBefore: survivor, moved: { ...moved, auditRows, ...followed },
     })
     const after = toPatientRecordDto((await findPatientRow(trx, input.survivorId))!)
     await writeAudit(trx, {

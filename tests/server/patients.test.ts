@@ -123,6 +123,25 @@ describe('merge', () => {
     expect(search.body.map((patient: { id: number }) => patient.id)).toEqual([keep.id])
   })
 
+  it('recalls and recall intervals follow the person: a kind only the merged-away record had moves, where both had one the survivor keeps its own', async () => {
+    const keep = await register({ firstName: 'Rhea', lastName: `Recallmerge${tag}` })
+    const gone = await register({ firstName: 'Rhéa', lastName: `Recallmerge${tag}` })
+    const db = testDb()
+    await db('recalls').insert([
+      { patient_id: keep.id, kind: 'cleaning', due_date: '2030-01-15' },
+      { patient_id: gone.id, kind: 'cleaning', due_date: '2030-02-15' },
+      { patient_id: gone.id, kind: 'exam', due_date: '2030-03-15' },
+    ])
+    await db('patient_recall_intervals').insert({ patient_id: gone.id, kind: 'exam', months: 9 })
+    const merged = await admin.post('/api/patient-merges', { survivorId: keep.id, mergedId: gone.id })
+    expect(merged.status, JSON.stringify(merged.body)).toBe(201)
+    const recalls = await db('recalls').whereIn('patient_id', [keep.id, gone.id]).orderBy('kind').select('patient_id', 'kind', 'due_date')
+    expect(recalls.map((row) => [row.patient_id, row.kind])).toEqual([[keep.id, 'cleaning'], [keep.id, 'exam']])
+    expect(await db('patient_recall_intervals').whereIn('patient_id', [keep.id, gone.id]).select('patient_id', 'kind', 'months')).toEqual([{ patient_id: keep.id, kind: 'exam', months: 9 }])
+    const record = await db('patient_merges').where({ survivor_id: keep.id, merged_id: gone.id }).first()
+    expect(JSON.parse(record.moved)).toMatchObject({ recalls: 1, recallIntervals: 1, waitlistEntries: 0 })
+  })
+
   it('refuses with 409 naming the visits when the two records have visits at the same time', async () => {
     const one = await register({ firstName: 'Tomas', lastName: `Overlap${tag}` })
     const two = await register({ firstName: 'Tomás', lastName: `Overlap${tag}` })
