@@ -35,6 +35,7 @@ const ENGINE_RUNS = 30
 const API_RUNS = 30
 const DAYS = 30
 const HOME_DATABASE = dbSettingsFromEnv().database
+const fmt = (value: number) => value.toFixed(1)
 const PARTS = new Set((process.env.GROUP_BENCH_PARTS ?? 'engine,api,booking').split(',').map((part) => part.trim()))
 
 const group = await groupScaleDatabase({ adminDatabase: HOME_DATABASE, poolMax: CLIENTS + 2 })
@@ -116,7 +117,6 @@ if (PARTS.has('engine')) {
   const key = (o: Opening) => `${o.siteId}/${o.operatoryId}/${o.providerId}@${o.startMs}`
   const same = engineAll().map(key).join() === bruteAll().map(key).join()
   const busyCount = perSite.reduce((sum, site) => sum + site.first10.busy.length, 0)
-  const fmt = (value: number) => value.toFixed(1)
   console.log(`Openings, 2-surface filling (tooth 19 MO), 5 sites of one region, ${from}..${to} (${busyCount.toLocaleString('en-US')} booked segments in range)`)
   console.log(`  engine, first 10      : median ${e10.median.toFixed(2)} ms, p95 ${e10.p95.toFixed(2)} ms (target ≤ 20 ms median)`)
   console.log(`  engine, all ${allCount}      : median ${eAll.median.toFixed(2)} ms, p95 ${eAll.p95.toFixed(2)} ms`)

@@ -27,7 +27,7 @@ import type { BlockInput, OpeningHours, ShiftInput } from '../../shared/types/ro
 import type { StoredTemplate } from '../../shared/types/templates'
 
 export const GROUP = { sites: 60, chairs: 400, providers: 250, visits: 500_000, patients: 120_000, regions: 12 } as const
-const GENERATOR_VERSION = 2
+const GENERATOR_VERSION = 3
 export const GROUP_ADMIN = { email: 'admin@fernhollow.test', password: 'cuspline-demo' }
 const ZONES = ['America/New_York', 'America/Chicago', 'America/Denver', 'America/Phoenix', 'America/Los_Angeles', 'America/Chicago']
 const DAY_MS = 86_400_000
@@ -274,7 +274,7 @@ async function buildGroup(database: string, firstDay: string, fingerprint: strin
     const t0 = performance.now()
     // This site's share of what is still to place, spread over its open days.
     const share = (GROUP.visits - placed) * entry.spec.load / order.slice(step).reduce((sum, index) => sum + specs[index]!.load, 0)
-    const days: Array<{ startMs: number; endMs: number; site: OpeningsSite; busy: BusySegment[]; patients: Set<number>; full: boolean; count: number }> = []
+    const days: Array<{ startMs: number; endMs: number; site: OpeningsSite; busy: BusySegment[]; patients: Set<number>; full: boolean; count: number; misses: number }> = []
     for (let week = 0; week < 52; week += 1) {
       const weekFrom = yearStartMs + week * 7 * DAY_MS
       const availability = expandAvailabilityMs({
@@ -287,7 +287,7 @@ async function buildGroup(database: string, firstDay: string, fingerprint: strin
         const local = DateTime.fromMillis(weekFrom + day * DAY_MS, { zone: 'UTC' }).toISODate()!
         const startMs = DateTime.fromISO(local, { zone: entry.spec.zone }).toMillis()
         if ((entry.spec.hours as Record<string, unknown[]>)[String(DateTime.fromISO(local).weekday)]!.length === 0) continue
-        days.push({ startMs, endMs: startMs + DAY_MS, site, busy: [], patients: new Set(), full: false, count: 0 })
+        days.push({ startMs, endMs: startMs + DAY_MS, site, busy: [], patients: new Set(), full: false, count: 0, misses: 0 })
       }
     }
     const target = Math.round(share)
@@ -296,7 +296,7 @@ async function buildGroup(database: string, firstDay: string, fingerprint: strin
     const segmentRows: unknown[][] = []
     let siteVisits = 0
     let misses = 0
-    while (siteVisits < target && misses < target * 3) {
+    while (siteVisits < target && misses < target) {
       const open = days.filter((day) => !day.full)
       if (open.length === 0) break
       // The emptiest days first, so the load spreads evenly over the year.
@@ -307,9 +307,13 @@ async function buildGroup(database: string, firstDay: string, fingerprint: strin
       const found = findOpenings({ ...query, fromMs: from }).openings[0] ?? findOpenings({ ...query, fromMs: day.startMs }).openings[0]
       if (!found) {
         misses += 1
-        if (request.plan.chairMinutes <= 40) day.full = true
+        // A day that takes neither a short visit nor four in a row is full: the emptiest day would
+        // otherwise be chosen again and again.
+        day.misses += 1
+        if (request.plan.chairMinutes <= 40 || day.misses >= 4) day.full = true
         continue
       }
+      day.misses = 0
       let patientId = pool.first + Math.floor(random() * pool.size)
       while (day.patients.has(patientId)) patientId = pool.first + Math.floor(random() * pool.size)
       day.patients.add(patientId)
