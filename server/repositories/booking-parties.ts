@@ -5,6 +5,7 @@ import type { ProviderKind } from '#shared/types/people'
 import { ROLE_GROUPS } from '#shared/utils/access'
 import { parseJson } from './json'
 import { toPatientDto, type PatientRow } from './patients'
+import { toTextPatient, type TextPatient, type TextPatientRow } from './sms'
 
 export interface ProviderDetails {
   id: number
@@ -23,8 +24,11 @@ interface PartyColumns {
   provider_active: number
 }
 
-/** Either is undefined when no such row exists. */
-export async function findBookingParties(db: Db, providerId: number, patientId: number): Promise<{ provider?: ProviderDetails; patient?: PatientDto }> {
+/**
+ * Either is undefined when no such row exists. `textPatient` is the same patient row as the
+ * outbox's channel choice reads it (numbers, consents, opt-out), so the booking need not read it again.
+ */
+export async function findBookingParties(db: Db, providerId: number, patientId: number): Promise<{ provider?: ProviderDetails; patient?: PatientDto; textPatient?: TextPatient }> {
   const [rows] = await db.raw(`
     SELECT patients.*, provider.* FROM patients
     LEFT JOIN (
@@ -39,10 +43,12 @@ export async function findBookingParties(db: Db, providerId: number, patientId: 
     return { provider }
   }
   const { provider_id: id, provider_name: name, provider_kind: kind, provider_capabilities: capabilities, provider_active: active, ...patient } = row
+  const merged = Boolean((patient as { merged_into_id?: number | null }).merged_into_id)
   return {
     provider: id === null ? undefined : { id, name, kind, capabilities: parseJson<string[]>(capabilities, []), active: Boolean(active) },
     // A record merged into another (issue 16 §2) is no longer booked: the survivor is.
-    patient: (patient as { merged_into_id?: number | null }).merged_into_id ? undefined : toPatientDto(patient as PatientRow),
+    patient: merged ? undefined : toPatientDto(patient as PatientRow),
+    textPatient: merged ? undefined : toTextPatient(patient as unknown as TextPatientRow),
   }
 }
 

@@ -20,7 +20,7 @@ export interface TextPatient {
   guardianPhone: string | null
 }
 
-interface TextPatientRow {
+export interface TextPatientRow {
   id: number
   first_name: string
   last_name: string
@@ -35,7 +35,7 @@ interface TextPatientRow {
 
 const PATIENT_COLUMNS = ['id', 'first_name', 'last_name', 'phone', 'email', 'email_consent', 'sms_consent', 'sms_opted_out_at', 'guardian_email', 'guardian_phone'] as const
 
-function toTextPatient(row: TextPatientRow): TextPatient {
+export function toTextPatient(row: TextPatientRow): TextPatient {
   return {
     id: row.id, firstName: row.first_name, lastName: row.last_name, phone: row.phone, email: row.email, emailConsent: Boolean(row.email_consent),
     smsConsent: Boolean(row.sms_consent), smsOptedOutAt: row.sms_opted_out_at, guardianEmail: row.guardian_email, guardianPhone: row.guardian_phone,

@@ -25,7 +25,7 @@ import { enqueueMessages } from '../repositories/outbox'
 import { dropQueuedReminders, reminderMessages } from './mail/reminders'
 import { seenChange, seenVisitOf, type SeenVisit } from '#shared/domain/patient-time'
 import { mailSettingsOf } from '#shared/domain/site-settings'
-import { onChannels } from './sms/channels'
+import { onChannels, textReachFrom, type TextReach } from './sms/channels'
 import { findTextSite } from '../repositories/sms'
 import { writeAudit } from '../repositories/audit-log'
 import { findProviderIdOfUser } from '../repositories/providers'
@@ -57,6 +57,8 @@ interface VisitMail {
   startMs: number
   calendar: SiteCalendarInputs
   patient: PatientDto | undefined
+  /** The patient's channels when the booking read their row already (see assertBookable). */
+  reach?: TextReach
   /** Updates: what the patient sees, before and after; no update is sent when none of it changed. */
   seen?: { before: SeenVisit; after: SeenVisit }
 }
@@ -75,7 +77,7 @@ async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: Visi
   await enqueueMessages(db, await onChannels(db, visit.patient?.id, site.settings, [
     { kind, visitId: visit.visitId, siteId: site.id, dueAt: new Date(), payload },
     ...reminderMessages({ visitId: visit.visitId, startMs: visit.startMs, site }),
-  ]))
+  ], visit.reach))
 }
 
 async function queueCancellationMail(db: Db, row: VisitRow): Promise<void> {
@@ -128,7 +130,7 @@ export async function bookInTransaction(trx: Db, input: BookVisitInput, userId: 
   const calendar = await bookingCalendar(trx, input.siteId)
   const { plan, templates } = await planItems(trx, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
   assertStartAllowed(startMs, calendar)
-  const { patient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null })
+  const { patient, textPatient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null })
   const newVisit = {
     siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
     startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId,
@@ -137,7 +139,7 @@ export async function bookInTransaction(trx: Db, input: BookVisitInput, userId: 
   const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
   await replaceSegments(trx, id, segments, { isNew: true })
   await writeAudit(trx, { userId, action: 'visit_booked', entity: 'visit', entityId: id, after: input })
-  await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient })
+  await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient, reach: textReachFrom(textPatient) })
   await closeWaitlistOnBooking(trx, input.patientId, id, templates, userId)
   await markRecallsOnBooking(trx, input.patientId, id, templates)
   return newVisitDto(id, newVisit, segments)

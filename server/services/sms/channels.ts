@@ -4,14 +4,20 @@
 // booking and cancel transactions; the dispatcher checks again at send time.
 import type { Db } from '../../utils/db'
 import type { NewOutboxMessage } from '../../repositories/outbox'
-import { findTextPatient } from '../../repositories/sms'
+import { findTextPatient, type TextPatient } from '../../repositories/sms'
 import { channelsFor, type ChannelKind } from '#shared/domain/sms-channels'
 import { toE164 } from '#shared/domain/sms-phone'
 import type { CountryCode } from 'libphonenumber-js'
 import { smsConfig } from '../../utils/sms-client'
 
-export async function textReachOf(db: Db, patientId: number): Promise<{ email: boolean; sms: boolean }> {
-  const patient = await findTextPatient(db, patientId)
+export interface TextReach { email: boolean; sms: boolean }
+
+export async function textReachOf(db: Db, patientId: number): Promise<TextReach> {
+  return textReachFrom(await findTextPatient(db, patientId))
+}
+
+/** The reach of a patient row already read (a booking reads it with the provider, findBookingParties). */
+export function textReachFrom(patient: TextPatient | undefined): TextReach {
   if (!patient) return { email: false, sms: false }
   const country = smsConfig().defaultCountry as CountryCode
   // A guardian's contact counts too: whether a minor's message goes to it is decided at send time
@@ -22,9 +28,12 @@ export async function textReachOf(db: Db, patientId: number): Promise<{ email: b
   }
 }
 
-/** Each message once per channel the site uses for its kind and the patient can take. */
-export async function onChannels(db: Db, patientId: number | undefined, siteSettings: Record<string, unknown>, messages: NewOutboxMessage[]): Promise<NewOutboxMessage[]> {
+/**
+ * Each message once per channel the site uses for its kind and the patient can take. `known` is the
+ * patient's reach when the caller read their row in the same transaction already (saves a round trip).
+ */
+export async function onChannels(db: Db, patientId: number | undefined, siteSettings: Record<string, unknown>, messages: NewOutboxMessage[], known?: TextReach): Promise<NewOutboxMessage[]> {
   if (patientId === undefined || !messages.length) return []
-  const reach = await textReachOf(db, patientId)
+  const reach = known ?? await textReachOf(db, patientId)
   return messages.flatMap((message) => channelsFor(message.kind as ChannelKind, siteSettings, reach).map((channel) => ({ ...message, channel })))
 }
