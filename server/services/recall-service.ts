@@ -19,6 +19,7 @@ import { enqueueMessage } from '../repositories/outbox'
 import { findPatientRecallMonths, listDueRecalls, markRecallsBooked, noteRecallContact, savePatientRecallMonths, setRecallDue } from '../repositories/recalls'
 import { findPatient } from '../repositories/patients'
 import { composeRecallMail } from './mail/notice-mail'
+import { addressee, patientRecord } from './mail/notice-facts'
 
 function kindsOf(templates: readonly Pick<StoredTemplate, 'category'>[]): RecallKind[] {
   return recallKindsOf(templates.map((template) => template.category))
@@ -67,13 +68,16 @@ export async function mailRecalls(input: RecallMailInput, user: SessionUser): Pr
     for (const recallId of input.recallIds) {
       const recall = byId.get(recallId)
       if (!recall) { result.skipped.push({ recallId, reason: 'not a recall due at this site (booked already, or another site\'s patient)' }); continue }
-      if (!recall.email || !recall.emailConsent) { result.skipped.push({ recallId, reason: 'no e-mail address or no consent to e-mail: call instead' }); continue }
+      // The patient, or for a minor the guardian (the same rule as every patient message).
+      const record = await patientRecord(trx, recall.patientId)
+      const to = record ? addressee(record, todayIn(site.timeZone, nowMs)) : { skip: 'no such patient' }
+      if ('skip' in to || !recall.emailConsent) { result.skipped.push({ recallId, reason: 'skip' in to ? `${to.skip}: call instead` : 'no consent to e-mail: call instead' }); continue }
       if (!mayMailRecall(recall.lastContactUtc ? Date.parse(recall.lastContactUtc) : null, nowMs, settings)) {
         result.skipped.push({ recallId, reason: `contacted less than ${settings.recallMailMinDays} days ago` })
         continue
       }
       if (!result.preview) {
-        const { rendered } = composeRecallMail({ site, patient: { firstName: recall.firstName, lastName: recall.lastName, email: recall.email }, kind: recall.kind, dueDate: recall.dueDate }, { from: '' })
+        const { rendered } = composeRecallMail({ site, patient: to, kind: recall.kind, dueDate: recall.dueDate }, { from: '' })
         result.preview = { to: rendered.to, subject: rendered.subject, text: rendered.text }
       }
       if (input.preview) continue

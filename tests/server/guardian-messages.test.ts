@@ -59,7 +59,7 @@ async function book(patientIndex: number, startLocal: string): Promise<number> {
 
 beforeAll(async () => {
   server = await startAppServer({ NUXT_OUTBOX_LANE: lane, NUXT_OUTBOX_POLL_MS: '150', NUXT_OUTBOX_RETRY_BASE_SECONDS: '1', NUXT_OUTBOX_RETRY_MAX_SECONDS: '2' })
-  annex = await createMailAnnex({ patients: 6, mailLane: lane, settings: { quietHours: null, messageChannels: TEXT_TOO } })
+  annex = await createMailAnnex({ patients: 8, mailLane: lane, settings: { quietHours: null, messageChannels: TEXT_TOO } })
   desk = new ApiClient(server.url)
   await desk.signIn('manager@fernhollow.test')
 }, 60_000)
@@ -160,5 +160,36 @@ describe('texts for a minor', () => {
     expect(skipped.state).toBe('skipped')
     expect(skipped.last_error).toBe('the patient is under 18 and no guardian mobile number is on file: not sent to the child')
     expect(await fakeMessages(lonelyChild.e164)).toEqual([])
+  })
+})
+
+describe('recall e-mails for a minor', () => {
+  it('go to the guardian, greeting the guardian and naming the patient; without a guardian address the front desk is told to call', async () => {
+    const today = DateTime.now().setZone(ZONE).toISODate()!
+    const guardianEmail = `guardian-${tag}-r@fernhollow.test`
+    const [withGuardian, without] = [annex.patientIds[6]!, annex.patientIds[7]!]
+    await testDb()('patients').where({ id: withGuardian }).update({
+      first_name: 'Ola', date_of_birth: bornYearsBefore(today, 8), email_consent: true, preferred_site_id: annex.siteId, guardian_name: 'Pia Lund', guardian_email: guardianEmail,
+    })
+    await testDb()('patients').where({ id: without }).update({
+      date_of_birth: bornYearsBefore(today, 9), email_consent: true, preferred_site_id: annex.siteId, guardian_name: null, guardian_email: null, guardian_phone: null,
+    })
+    const [first] = await testDb()('recalls').insert({ patient_id: withGuardian, kind: 'cleaning', due_date: today })
+    const [second] = await testDb()('recalls').insert({ patient_id: without, kind: 'cleaning', due_date: today })
+
+    const preview = await desk.post('/api/recalls/mail', { siteId: annex.siteId, recallIds: [first, second], preview: true })
+    expect(preview.status, JSON.stringify(preview.body)).toBe(200)
+    expect(preview.body.preview.to).toBe(guardianEmail)
+    expect(preview.body.skipped).toEqual([{ recallId: second, reason: 'the patient is under 18 and no guardian e-mail address is on file: not sent to the child: call instead' }])
+
+    const sent = await desk.post('/api/recalls/mail', { siteId: annex.siteId, recallIds: [first, second] })
+    expect(sent.body.sent).toEqual([first])
+    const row = await pollUntil(() => testDb()('outbox').where({ kind: 'recall', site_id: annex.siteId }).whereRaw("JSON_VALUE(payload, '$.recallId') = ?", [first]).first(), (found) => Boolean(found))
+    const mail = await waitForOutboxMail(guardianEmail, row.id)
+    expect(mail.parsed.to).toMatchObject({ value: [{ address: guardianEmail, name: 'Pia Lund' }] })
+    const { last_name: lastName, email: childEmail } = await testDb()('patients').where({ id: withGuardian }).first('last_name', 'email')
+    expect(mail.parsed.text).toContain('Hello Pia Lund,')
+    expect(mail.parsed.text).toContain(`parent or guardian of Ola ${lastName}`)
+    expect((await mailsContaining(childEmail)).filter((arrived) => arrived.parsed.subject?.startsWith('Time for your'))).toEqual([])
   })
 })

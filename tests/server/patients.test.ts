@@ -139,7 +139,7 @@ describe('merge', () => {
     expect(recalls.map((row) => [row.patient_id, row.kind])).toEqual([[keep.id, 'cleaning'], [keep.id, 'exam']])
     expect(await db('patient_recall_intervals').whereIn('patient_id', [keep.id, gone.id]).select('patient_id', 'kind', 'months')).toEqual([{ patient_id: keep.id, kind: 'exam', months: 9 }])
     const record = await db('patient_merges').where({ survivor_id: keep.id, merged_id: gone.id }).first()
-    expect(JSON.parse(record.moved)).toMatchObject({ recalls: 1, recallIntervals: 1, waitlistEntries: 0 })
+    expect(typeof record.moved === 'string' ? JSON.parse(record.moved) : record.moved).toMatchObject({ recalls: 1, recallIntervals: 1, waitlistEntries: 0 })
   })
 
   it('refuses with 409 naming the visits when the two records have visits at the same time', async () => {

@@ -5,17 +5,32 @@ import type { OutboxRow } from '../../repositories/outbox'
 import { payloadOf } from '../../repositories/outbox'
 import { findEntry, findOffer } from '../../repositories/waitlist'
 import { findRecall } from '../../repositories/recalls'
-import { findPatient } from '../../repositories/patients'
+import { findPatientRow, toPatientRecordDto } from '../../repositories/patients'
 import { findSiteDetail } from '../../repositories/sites'
 import { signOfferToken } from '../../utils/offer-token'
 import { signRecallToken } from '../../utils/recall-token'
 import { RECALL_LINK_DAYS } from '#shared/domain/recall'
-import { composeOfferMail, composeRecallMail } from './notice-mail'
+import { recipientOf } from '#shared/domain/message-recipient'
+import { localDateAt } from '#shared/utils/local-date'
+import type { PatientRecordDto } from '#shared/types/patients'
+import { composeOfferMail, composeRecallMail, type NoticePatient } from './notice-mail'
 
 type Composed = ReturnType<typeof composeOfferMail>
 export type NoticeMail = { skip: string } | { siteEmail: string; compose: (messageId?: string) => Composed }
 
 interface NoticeSettings { from: string; publicUrl: string; linkSecret: string }
+
+export async function patientRecord(db: Db, id: number): Promise<PatientRecordDto | undefined> {
+  const row = await findPatientRow(db, id)
+  return row ? toPatientRecordDto(row) : undefined
+}
+
+/** The patient, or for a minor on `onDate` their guardian (the same rule as visit messages), or why not. */
+export function addressee(patient: PatientRecordDto, onDate: string): NoticePatient | { skip: string } {
+  const chosen = recipientOf(patient, 'email', onDate)
+  if ('skip' in chosen) return chosen
+  return { firstName: patient.firstName, lastName: patient.lastName, email: chosen.to, greeting: chosen.greeting, envelopeName: chosen.name, onBehalfOf: chosen.onBehalfOf }
+}
 
 async function offerMail(db: Db, offerId: number, settings: NoticeSettings): Promise<NoticeMail> {
   const offer = await findOffer(db, offerId)
@@ -24,27 +39,29 @@ async function offerMail(db: Db, offerId: number, settings: NoticeSettings): Pro
   if (offer.expires_at.getTime() <= Date.now()) return { skip: 'the offer expired before it was sent' }
   const entry = await findEntry(db, offer.entry_id)
   const site = await findSiteDetail(db, offer.site_id)
-  const patient = entry ? await findPatient(db, entry.patientId) : undefined
+  const patient = entry ? await patientRecord(db, entry.patientId) : undefined
   if (!entry || !site || !patient) return { skip: 'the waitlist entry no longer exists' }
-  if (!patient.email) return { skip: 'the patient has no e-mail address' }
+  const to = addressee(patient, localDateAt(offer.start_utc.getTime(), site.timeZone))
+  if ('skip' in to) return to
   if (!patient.emailConsent) return { skip: 'the patient has not agreed to e-mail' }
   const link = `${settings.publicUrl.replace(/\/+$/, '')}/offer/${encodeURIComponent(signOfferToken(settings.linkSecret, offer))}`
-  const facts = { site, patient: { firstName: patient.firstName, lastName: patient.lastName, email: patient.email }, startMs: offer.start_utc.getTime(), expiresAtMs: offer.expires_at.getTime(), link }
+  const facts = { site, patient: to, startMs: offer.start_utc.getTime(), expiresAtMs: offer.expires_at.getTime(), link }
   return { siteEmail: site.email, compose: (messageId) => composeOfferMail(facts, { from: settings.from, messageId }) }
 }
 
 async function recallMail(db: Db, recallId: number, siteId: number | null, settings: NoticeSettings): Promise<NoticeMail> {
   const recall = await findRecall(db, recallId)
   const site = siteId === null ? undefined : await findSiteDetail(db, siteId)
-  const patient = recall ? await findPatient(db, recall.patientId) : undefined
+  const patient = recall ? await patientRecord(db, recall.patientId) : undefined
   if (!recall || !site || !patient) return { skip: 'the recall no longer exists' }
-  if (!patient.email) return { skip: 'the patient has no e-mail address' }
+  const to = addressee(patient, localDateAt(Date.now(), site.timeZone))
+  if ('skip' in to) return to
   if (!patient.emailConsent) return { skip: 'the patient has not agreed to e-mail' }
   // The page lists times at the patient's preferred site, or at the site that mailed them.
   const pageSiteId = patient.preferredSiteId ?? site.id
   const token = signRecallToken(settings.linkSecret, { recallId: recall.id, siteId: pageSiteId, patientId: recall.patientId, dueDate: recall.dueDate }, Date.now() + RECALL_LINK_DAYS * 86_400_000)
   const link = `${settings.publicUrl.replace(/\/+$/, '')}/recall-times/${encodeURIComponent(token)}`
-  const facts = { site, patient: { firstName: patient.firstName, lastName: patient.lastName, email: patient.email }, kind: recall.kind, dueDate: recall.dueDate, link }
+  const facts = { site, patient: to, kind: recall.kind, dueDate: recall.dueDate, link }
   return { siteEmail: site.email, compose: (messageId) => composeRecallMail(facts, { from: settings.from, messageId }) }
 }
 

@@ -6,7 +6,17 @@ import type { SiteDetail } from '#shared/types/sites'
 import { displayStyleOf, formatDateTime, formatLocalDate, zoneLabel } from '#shared/utils/display-time'
 import { RECALL_KIND_LABELS, type RecallKind } from '#shared/domain/recall'
 
-export interface NoticePatient { firstName: string; lastName: string; email: string }
+export interface NoticePatient {
+  firstName: string
+  lastName: string
+  /** Where the e-mail goes: the patient's address, or for a minor the guardian's (recipientOf). */
+  email: string
+  /** The name after "Hello" and on the envelope when not the patient's own (a guardian). */
+  greeting?: string
+  envelopeName?: string
+  /** The patient's full name when the message goes to their guardian. */
+  onBehalfOf?: string | null
+}
 
 interface Notice {
   site: SiteDetail
@@ -23,8 +33,10 @@ function escapeHtml(text: string): string {
 
 function composeNotice(notice: Notice, options: { from: string; messageId?: string }): { rendered: RenderedMessage; mail: SendMailOptions } {
   const { site, patient } = notice
+  const greeting = patient.greeting ?? patient.firstName
+  const paragraphs = patient.onBehalfOf ? [`We are writing to you as the parent or guardian of ${patient.onBehalfOf}.`, ...notice.paragraphs] : notice.paragraphs
   const text = [
-    `Hello ${patient.firstName},`, '', ...notice.paragraphs.flatMap((line) => [line, '']),
+    `Hello ${greeting},`, '', ...paragraphs.flatMap((line) => [line, '']),
     ...(notice.button ? [`${notice.button.label}: ${notice.button.href}`, ''] : []),
     `Questions? Call us at ${site.phone}.`, '', notice.why,
   ].join('\n')
@@ -34,8 +46,8 @@ function composeNotice(notice: Notice, options: { from: string; messageId?: stri
 <div style="max-width:600px;margin:0 auto;background:#ffffff">
 <div data-part="site" style="background:${escapeHtml(site.colour)};color:#ffffff;padding:14px 20px;font-size:18px;font-weight:600">${escapeHtml(site.name)}</div>
 <div style="padding:16px 20px">
-<p>Hello ${escapeHtml(patient.firstName)},</p>
-${notice.paragraphs.map((line) => `<p>${escapeHtml(line)}</p>`).join('\n')}
+<p>Hello ${escapeHtml(greeting)},</p>
+${paragraphs.map((line) => `<p>${escapeHtml(line)}</p>`).join('\n')}
 ${notice.button ? `<p style="margin:16px 0"><a href="${escapeHtml(notice.button.href)}" style="display:inline-block;background:#1f4f8a;color:#ffffff;padding:12px 18px;border-radius:6px;text-decoration:none;font-weight:600">${escapeHtml(notice.button.label)}</a></p>` : ''}
 <p>Questions? Call us at ${escapeHtml(site.phone)}.</p>
 </div>
@@ -49,7 +61,7 @@ ${notice.button ? `<p style="margin:16px 0"><a href="${escapeHtml(notice.button.
     mail: {
       from: { name: site.name, address: options.from || site.email },
       replyTo: site.email || undefined,
-      to: { name: `${patient.firstName} ${patient.lastName}`, address: patient.email },
+      to: { name: patient.envelopeName ?? `${patient.firstName} ${patient.lastName}`, address: patient.email },
       subject: notice.subject, text, html,
       // RFC 3834 §5: sent by a program, not a person.
       headers: { 'Auto-Submitted': 'auto-generated' },
