@@ -3,7 +3,7 @@ import { canOpenPath, homePathFor } from '#shared/utils/access'
 
 const PUBLIC_PATHS = ['/sign-in']
 // Patients open these from e-mail links: no sign-in, signed-in staff are not redirected.
-const PUBLIC_PREFIXES = ['/visit/', '/offer/', '/recall-times/']
+const PUBLIC_PREFIXES = ['/visit/', '/offer/', '/move-offer/', '/recall-times/']
 
 export default defineNuxtRouteMiddleware(async (to) => {
   if (PUBLIC_PREFIXES.some((prefix) => to.path.startsWith(prefix))) return

@@ -39,6 +39,8 @@ export interface OutboxPayload {
   offerId?: number
   /** Recalls (issue 17): the recall the e-mail is about. */
   recallId?: number
+  /** Move offers (issue 17 §3): the offer the e-mail is about. */
+  moveOfferId?: number
   /** Updates: what the patient sees that changed (issue 15), and the length they were told before. */
   change?: { time: boolean; length: boolean; what: boolean; minutesBefore?: number }
   /** An e-mail sent because the text of this outbox row failed. */

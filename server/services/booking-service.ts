@@ -204,36 +204,44 @@ export async function moveVisit(id: number, input: MoveVisitInput, user: Session
     if (input.providerId === undefined) throw badRequest('providerId', 'is required when the visit moves to another site')
   }
   if (row.row_version !== input.rowVersion) throw staleVersion()
+  return inTransaction((trx) => moveInTransaction(trx, row, input, user.id))
+}
+
+/**
+ * The one move: locks, booking checks (overlaps, hours, shifts), the version check, segments, audit
+ * `visit_moved` and the patient's change mail, inside the caller's transaction. Staff moves come
+ * through `moveVisit`; a patient accepting a move offer comes here with `userId` null.
+ */
+export async function moveInTransaction(trx: Db, row: VisitRow, input: MoveVisitInput, userId: number | null): Promise<VisitDto> {
+  const siteId = input.siteId ?? row.site_id
+  const id = row.id
   const startMs = input.startUtc ? startOf(input.startUtc) : row.start_utc.getTime()
   const operatoryId = input.operatoryId ?? row.operatory_id
   const providerId = input.providerId ?? row.provider_id
-
-  return inTransaction(async (trx) => {
-    await lockForBooking(trx, [operatoryId], [providerId], row.patient_id)
-    const calendar = await bookingCalendar(trx, siteId)
-    const planned = await planForMove(trx, row, input, calendar)
-    const plan = input.lengthOverride ? withLength(planned.plan, input.lengthOverride) : planned.plan
-    if (input.startUtc) assertStartAllowed(startMs, calendar)
-    const { patient } = await assertBookable(trx, { calendar, plan, templates: planned.templates, operatoryId, providerId, patientId: row.patient_id, startMs, exceptVisitId: id })
-    const changed = await updateVisitIfVersion(trx, id, input.rowVersion, {
-      site_id: siteId, operatory_id: operatoryId, provider_id: providerId, start_utc: new Date(startMs), end_utc: new Date(visitEnd(plan, startMs)),
-      plan: JSON.stringify(plan), ical_sequence: row.ical_sequence + 1, updated_by: user.id, ...(input.note === undefined ? {} : { note: input.note }),
-    })
-    if (!changed) throw staleVersion()
-    await replaceSegments(trx, id, placeSegments(plan, startMs, operatoryId, providerId))
-    // A stranded visit moved to a time that holds leaves the Rebook list.
-    if (row.stranded_reason) await settleStranded(trx, id, user.id)
-    await writeAudit(trx, { userId: user.id, action: 'visit_moved', entity: 'visit', entityId: id, before: { start: row.start_utc, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
-    const namesShown = mailSettingsOf(calendar.settings).includeProcedureNames
-    const seen = {
-      before: seenVisitOf(parseJson<VisitPlan>(row.plan, {} as VisitPlan), row.start_utc.getTime(), row.end_utc.getTime(), namesShown),
-      after: seenVisitOf(plan, startMs, visitEnd(plan, startMs), namesShown),
-    }
-    // A visit taken off the Rebook list is always announced (issue 13 §2), even when only its provider
-    // changed: the patient hears that it holds again. Otherwise only what the patient sees (issue 15).
-    await queueVisitMail(trx, 'update', { visitId: id, startMs, calendar, patient, ...(row.stranded_reason ? {} : { seen }) })
-    return loaded(trx, id)
+  await lockForBooking(trx, [operatoryId], [providerId], row.patient_id)
+  const calendar = await bookingCalendar(trx, siteId)
+  const planned = await planForMove(trx, row, input, calendar)
+  const plan = input.lengthOverride ? withLength(planned.plan, input.lengthOverride) : planned.plan
+  if (input.startUtc) assertStartAllowed(startMs, calendar)
+  const { patient } = await assertBookable(trx, { calendar, plan, templates: planned.templates, operatoryId, providerId, patientId: row.patient_id, startMs, exceptVisitId: id })
+  const changed = await updateVisitIfVersion(trx, id, input.rowVersion, {
+    site_id: siteId, operatory_id: operatoryId, provider_id: providerId, start_utc: new Date(startMs), end_utc: new Date(visitEnd(plan, startMs)),
+    plan: JSON.stringify(plan), ical_sequence: row.ical_sequence + 1, updated_by: userId, ...(input.note === undefined ? {} : { note: input.note }),
   })
+  if (!changed) throw staleVersion()
+  await replaceSegments(trx, id, placeSegments(plan, startMs, operatoryId, providerId))
+  // A stranded visit moved to a time that holds leaves the Rebook list.
+  if (row.stranded_reason) await settleStranded(trx, id, userId)
+  await writeAudit(trx, { userId, action: 'visit_moved', entity: 'visit', entityId: id, before: { start: row.start_utc, siteId: row.site_id, operatoryId: row.operatory_id, providerId: row.provider_id }, after: input })
+  const namesShown = mailSettingsOf(calendar.settings).includeProcedureNames
+  const seen = {
+    before: seenVisitOf(parseJson<VisitPlan>(row.plan, {} as VisitPlan), row.start_utc.getTime(), row.end_utc.getTime(), namesShown),
+    after: seenVisitOf(plan, startMs, visitEnd(plan, startMs), namesShown),
+  }
+  // A visit taken off the Rebook list is always announced (issue 13 §2), even when only its provider
+  // changed: the patient hears that it holds again. Otherwise only what the patient sees (issue 15).
+  await queueVisitMail(trx, 'update', { visitId: id, startMs, calendar, patient, ...(row.stranded_reason ? {} : { seen }) })
+  return loaded(trx, id)
 }
 
 function withLength(plan: VisitPlan, override: NonNullable<MoveVisitInput['lengthOverride']>): VisitPlan {

@@ -133,7 +133,7 @@ export async function changeWithImpact<T>(context: ChangeContext, work: (trx: Db
  * After a stranded visit was moved (inside the move's transaction): the flag clears when the visit
  * now holds, or carries the reason it still does not.
  */
-export async function settleStranded(trx: Db, visitId: number, userId: number): Promise<void> {
+export async function settleStranded(trx: Db, visitId: number, userId: number | null): Promise<void> {
   const verdict = (await checkVisits(trx, { visitIds: [visitId] }, scheduleNowMs())).notHolding.get(visitId)
   if (verdict) return
   if (await clearStranded(trx, visitId)) {

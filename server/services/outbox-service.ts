@@ -34,7 +34,8 @@ export async function messageDetail(id: number, user: SessionUser): Promise<Outb
   const stored = renderedOf(row)
   if (stored) return { ...dto, rendered: stored, preview: false }
   if (row.channel === 'sms') return { ...dto, rendered: await textPreview(useDb(), row), preview: true }
-  const context = row.visit_id === null ? undefined : await loadMailContext(useDb(), row.visit_id)
+  // A queued move offer has no visit-mail preview (its link is signed when it is sent).
+  const context = row.visit_id === null || row.kind === 'move_offer' ? undefined : await loadMailContext(useDb(), row.visit_id)
   if (!context || !context.patient.email) return { ...dto, rendered: null, preview: true }
   const { mail, smtp } = useRuntimeConfig()
   const composed = renderFor(row, context, { from: String(smtp.from ?? ''), publicUrl: String(mail.publicUrl), linkSecret: useVisitLinkSecret(), replyAddress: String(mail.replyAddress ?? '') })

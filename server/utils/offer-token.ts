@@ -4,12 +4,15 @@
 import { createHmac, timingSafeEqual } from 'node:crypto'
 import { MAX_ID } from '../../shared/domain/input-bounds'
 
-function signature(secret: string, offerId: number, nonce: string): string {
-  return createHmac('sha256', secret).update(`cuspline-offer:${offerId}:${nonce}`).digest('base64url')
+/** What a link is for: a waitlist offer (`/offer/`) or a move offer (`/move-offer/`); one never opens the other. */
+export type OfferLinkPurpose = 'offer' | 'move-offer'
+
+function signature(secret: string, offerId: number, nonce: string, purpose: OfferLinkPurpose): string {
+  return createHmac('sha256', secret).update(`cuspline-${purpose}:${offerId}:${nonce}`).digest('base64url')
 }
 
-export function signOfferToken(secret: string, offer: { id: number; nonce: string }): string {
-  return `${offer.id}.${signature(secret, offer.id, offer.nonce)}`
+export function signOfferToken(secret: string, offer: { id: number; nonce: string }, purpose: OfferLinkPurpose = 'offer'): string {
+  return `${offer.id}.${signature(secret, offer.id, offer.nonce, purpose)}`
 }
 
 /** The claimed offer id, before the signature is checked (that needs the offer's nonce). */
@@ -19,10 +22,10 @@ export function readOfferToken(token: string): { offerId: number; signature: str
   return { offerId: Number(match[1]), signature: match[2]! }
 }
 
-export function offerSignatureValid(secret: string, token: string, nonce: string): boolean {
+export function offerSignatureValid(secret: string, token: string, nonce: string, purpose: OfferLinkPurpose = 'offer'): boolean {
   const parts = readOfferToken(token)
   if (!parts) return false
-  const expected = Buffer.from(signature(secret, parts.offerId, nonce))
+  const expected = Buffer.from(signature(secret, parts.offerId, nonce, purpose))
   const given = Buffer.from(parts.signature)
   return expected.length === given.length && timingSafeEqual(expected, given)
 }

@@ -3,7 +3,7 @@ import type { VisitState } from '../domain/visit-states'
 import type { Channel } from '../domain/sms-channels'
 
 /** The four visit messages, two that are texts only (a front desk's own text, the answer to a patient's reply), and the waitlist offer and recall e-mails. */
-export const OUTBOX_KINDS = ['invitation', 'update', 'cancellation', 'reminder', 'free_text', 'reply_confirmation', 'offer', 'recall'] as const
+export const OUTBOX_KINDS = ['invitation', 'update', 'cancellation', 'reminder', 'free_text', 'reply_confirmation', 'offer', 'recall', 'move_offer'] as const
 export type OutboxKind = (typeof OUTBOX_KINDS)[number]
 export const OUTBOX_STATES = ['queued', 'sending', 'sent', 'failed', 'skipped'] as const
 export type OutboxState = (typeof OUTBOX_STATES)[number]

@@ -123,6 +123,17 @@ describe('Balance suggestions', () => {
     expect(response.body.suggestions.some((item: { kind: string }) => item.kind === 'rota_move')).toBe(false)
   })
 
+  it('the consolidate suggestion carries what "Send move offer" needs: the offer is sent, the visit does not move', async () => {
+    const response = await manager.get(`/api/balance/suggestions?from=${plusDays(day, 1)}&to=${plusDays(day, 1)}&siteId=${quiet.siteId}&${THRESHOLDS}`)
+    const consolidate = response.body.suggestions.find((item: { kind: string; visitId?: number }) => item.kind === 'consolidate' && item.visitId === middle.id)
+    expect(consolidate).toBeDefined()
+    await testDb()('patients').where({ id: quiet.patientIds[1] }).update({ email: 'moving.patient@example.test', email_consent: true })
+    const sent = await manager.post(`/api/visits/${consolidate.visitId}/move-offers`, { startUtc: consolidate.newStartUtc, operatoryId: consolidate.operatoryId })
+    expect(sent.status, JSON.stringify(sent.body)).toBe(201)
+    expect(sent.body.startUtc).toBe(new Date(consolidate.newStartUtc).toISOString())
+    expect((await testDb()('visits').where({ id: middle.id }).first('start_utc')).start_utc.toISOString()).toBe(new Date(middle.startUtc).toISOString())
+  })
+
   it('acts through the existing offer and the impact preview; the rota day off is written only when saved, and then frees the provider for the extra day', async () => {
     const response = await manager.get(`/api/balance/suggestions?from=${day}&to=${day}&${THRESHOLDS}`)
     const waitlist = response.body.suggestions.find((item: { kind: string; entryId?: number }) => item.kind === 'waitlist_fit' && item.entryId === entryId)

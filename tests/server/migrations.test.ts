@@ -37,14 +37,14 @@ describe('migrations', () => {
   it('creates every table, rolls all of them back, and applies again', async () => {
     await scratch.migrate.latest(migratorConfig)
     expect(await tableNames(scratch)).toEqual([
-      'audit_log', 'blocks', 'idempotency_keys', 'inbound_mail', 'offers', 'operatories', 'outbox', 'patient_import_mappings', 'patient_imports', 'patient_merges', 'patient_recall_intervals', 'patients', 'procedure_templates',
+      'audit_log', 'blocks', 'idempotency_keys', 'inbound_mail', 'move_offers', 'offers', 'operatories', 'outbox', 'patient_import_mappings', 'patient_imports', 'patient_merges', 'patient_recall_intervals', 'patients', 'procedure_templates',
       'providers', 'recalls', 'shift_exceptions', 'shifts', 'sign_in_attempts', 'sites', 'sms_replies', 'user_sites', 'users',
       'visit_segments', 'visits', 'waitlist_entries',
     ])
     await scratch.migrate.rollback(migratorConfig, true)
     expect(await tableNames(scratch)).toEqual([])
     await scratch.migrate.latest(migratorConfig)
-    expect((await tableNames(scratch)).length).toBe(25)
+    expect((await tableNames(scratch)).length).toBe(26)
   })
 
   it('renames appointments to visits, carrying rows written before the rename', async () => {

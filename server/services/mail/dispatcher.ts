@@ -111,7 +111,7 @@ export async function retryOrGiveUp(db: Db, row: OutboxRow, error: unknown, sett
 async function sendOne(db: Db, transporter: Transporter, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   let sent: { messageId: string; rendered: ComposedMessage['rendered'] }
   try {
-    if (row.kind === 'offer' || row.kind === 'recall') {
+    if (row.kind === 'offer' || row.kind === 'recall' || row.kind === 'move_offer') {
       // Waitlist offers and recalls (issue 17) have no visit: their own facts and composer.
       const notice = await noticeMail(db, row, settings)
       if ('skip' in notice) {

@@ -13,7 +13,10 @@ import { RECALL_LINK_DAYS } from '#shared/domain/recall'
 import { recipientOf } from '#shared/domain/message-recipient'
 import { localDateAt } from '#shared/utils/local-date'
 import type { PatientRecordDto } from '#shared/types/patients'
-import { composeOfferMail, composeRecallMail, type NoticePatient } from './notice-mail'
+import { findMoveOffer } from '../../repositories/move-offers'
+import { loadMailContext } from '../../repositories/mail-context'
+import { messageRecipient } from './visit-facts'
+import { composeMoveOfferMail, composeOfferMail, composeRecallMail, type NoticePatient } from './notice-mail'
 
 type Composed = ReturnType<typeof composeOfferMail>
 export type NoticeMail = { skip: string } | { siteEmail: string; compose: (messageId?: string) => Composed }
@@ -65,8 +68,25 @@ async function recallMail(db: Db, recallId: number, siteId: number | null, setti
   return { siteEmail: site.email, compose: (messageId) => composeRecallMail(facts, { from: settings.from, messageId }) }
 }
 
+async function moveOfferMail(db: Db, moveOfferId: number, settings: NoticeSettings): Promise<NoticeMail> {
+  const offer = await findMoveOffer(db, moveOfferId)
+  if (!offer) return { skip: 'the move offer no longer exists' }
+  if (offer.state !== 'sent') return { skip: `the move offer is ${offer.state}` }
+  if (offer.expires_at.getTime() <= Date.now()) return { skip: 'the move offer expired before it was sent' }
+  const [context, site] = await Promise.all([loadMailContext(db, offer.visit_id), findSiteDetail(db, offer.site_id)])
+  if (!context || !site) return { skip: 'the visit no longer exists' }
+  if (context.visit.startUtc.getTime() !== offer.from_start_utc.getTime()) return { skip: 'the visit changed since the offer was made' }
+  const recipient = messageRecipient(context, 'email')
+  if ('skip' in recipient) return { skip: recipient.skip }
+  if (!context.patient.emailConsent) return { skip: 'the patient has not agreed to e-mail' }
+  const link = `${settings.publicUrl.replace(/\/+$/, '')}/move-offer/${encodeURIComponent(signOfferToken(settings.linkSecret, offer, 'move-offer'))}`
+  const facts = { site, recipient, fromStartMs: offer.from_start_utc.getTime(), startMs: offer.start_utc.getTime(), expiresAtMs: offer.expires_at.getTime(), link }
+  return { siteEmail: site.email, compose: (messageId) => composeMoveOfferMail(facts, { from: settings.from, messageId }) }
+}
+
 export async function noticeMail(db: Db, row: OutboxRow, settings: NoticeSettings): Promise<NoticeMail> {
   const payload = payloadOf(row)
   if (row.kind === 'offer') return offerMail(db, payload.offerId ?? 0, settings)
+  if (row.kind === 'move_offer') return moveOfferMail(db, payload.moveOfferId ?? 0, settings)
   return recallMail(db, payload.recallId ?? 0, row.site_id, settings)
 }

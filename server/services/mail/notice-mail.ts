@@ -61,7 +61,7 @@ ${notice.button ? `<p style="margin:16px 0"><a href="${escapeHtml(notice.button.
     mail: {
       from: { name: site.name, address: options.from || site.email },
       replyTo: site.email || undefined,
-      to: { name: patient.envelopeName ?? `${patient.firstName} ${patient.lastName}`, address: patient.email },
+      to: { name: (patient.envelopeName ?? `${patient.firstName} ${patient.lastName}`).trim(), address: patient.email },
       subject: notice.subject, text, html,
       // RFC 3834 §5: sent by a program, not a person.
       headers: { 'Auto-Submitted': 'auto-generated' },
@@ -119,5 +119,33 @@ export function composeRecallMail(facts: RecallMailFacts, options: { from: strin
     ],
     ...(facts.link ? { button: { href: facts.link, label: 'Choose a time' } } : {}),
     why: `You got this e-mail because you are a patient of ${site.name} and agreed to hear from us by e-mail.`,
+  }, options)
+}
+
+export interface MoveOfferMailFacts {
+  site: SiteDetail
+  /** From `messageRecipient`: the guardian for a minor, with the patient's name in `onBehalfOf`. */
+  recipient: { greeting: string; to: string; onBehalfOf: string | null }
+  fromStartMs: number
+  startMs: number
+  expiresAtMs: number
+  link: string
+}
+
+/** A move offer (issue 17 §3): an earlier or better-placed time for a booked visit; nothing moves unless the patient accepts. */
+export function composeMoveOfferMail(facts: MoveOfferMailFacts, options: { from: string; messageId?: string }) {
+  const { site } = facts
+  const style = displayStyleOf(site)
+  const whose = facts.recipient.onBehalfOf ? `The dental visit for ${facts.recipient.onBehalfOf}` : 'Your visit'
+  return composeNotice({
+    site, patient: { firstName: facts.recipient.greeting, lastName: '', email: facts.recipient.to },
+    subject: `Could your visit at ${site.name} move to ${formatDateTime(facts.startMs, style, 'short')}?`,
+    paragraphs: [
+      `${whose} is booked for ${formatDateTime(facts.fromStartMs, style, 'long')} (${zoneLabel(site.timeZone, facts.fromStartMs)}).`,
+      `We could see you at ${formatDateTime(facts.startMs, style, 'long')} instead, which helps us keep our day together. Nothing changes unless you agree.`,
+      `You can answer until ${formatDateTime(facts.expiresAtMs, style, 'short')}. If you do nothing, the visit stays as booked.`,
+    ],
+    button: { href: facts.link, label: 'See both times and answer' },
+    why: `You got this e-mail because you have a visit booked at ${site.name} and agreed to hear from us by e-mail.`,
   }, options)
 }

@@ -1,0 +1,31 @@
+// Move offers (issue 17 §3): Balance's "consolidate" suggestion e-mailed to the patient, who may move
+// the visit to the proposed time or keep the current one.
+import type { ClockStyle, DateOrder } from './display'
+
+export const MOVE_OFFER_STATES = ['sent', 'accepted', 'declined', 'expired', 'taken'] as const
+export type MoveOfferState = (typeof MOVE_OFFER_STATES)[number]
+
+export interface SentMoveOfferDto {
+  moveOfferId: number
+  visitId: number
+  startUtc: string
+  expiresAtUtc: string
+}
+
+export interface PublicMoveOfferDto {
+  siteName: string
+  sitePhone: string | null
+  siteAddress: string | null
+  timeZone: string
+  clock: ClockStyle
+  dateOrder: DateOrder
+  /** The visit's time now, and the time proposed. */
+  currentStartUtc: string
+  currentEndUtc: string
+  startUtc: string
+  endUtc: string
+  expiresAtUtc: string
+  state: MoveOfferState
+  /** Words for the page when the offer is no longer open. */
+  message: string
+}

@@ -1,0 +1,195 @@
+// Issue 17 §3: Balance's "consolidate" suggestion becomes a move offer. The front desk sends it; the
+// patient (or a minor's guardian) gets an e-mail with a signed link; the page shows both times; accepting
+// moves the visit through the booking service's move (the same locks and overlap checks), so a time
+// taken meanwhile is a 409 and the visit stays; declining or expiry leave the visit untouched.
+// Private annexes only (createMailAnnex): no demo weeks used. Dates from today.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DateTime } from 'luxon'
+import { ApiClient, signedInAs } from '../helpers/api-client'
+import { closeTestDb, testDb } from '../helpers/db'
+import { createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
+import { FILLING } from '../helpers/booking-fixtures'
+import { createStaff, startIn, STAFF_PASSWORD } from '../helpers/midday'
+import { waitForOutboxMail } from '../helpers/mail'
+import { signOfferToken } from '../../server/utils/offer-token'
+
+let annex: MailAnnex
+let desk: ApiClient
+let admin: ApiClient
+
+beforeAll(async () => {
+  annex = await createMailAnnex({ patients: 8 })
+  admin = await signedInAs('admin@fernhollow.test')
+  const staff = await createStaff('front_desk', [annex.siteId])
+  desk = new ApiClient()
+  await desk.signIn(staff.email, STAFF_PASSWORD)
+}, 60_000)
+afterAll(async () => { await closeTestDb() })
+
+const DAY_MINUTES = 24 * 60
+const HOUR_MS = 3_600_000
+
+async function book(patientIndex: number, startUtc: string) {
+  const response = await admin.post('/api/visits', {
+    siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], patientId: annex.patientIds[patientIndex], items: FILLING, startUtc,
+  })
+  expect(response.status, JSON.stringify(response.body)).toBe(201)
+  return response.body as { id: number; startUtc: string; endUtc: string; rowVersion: number }
+}
+
+/** A visit three days ahead (plus `hours`) and a proposed time two hours later, both from today. */
+async function visitWithProposal(patientIndex: number, hours = 0) {
+  const visit = await book(patientIndex, startIn(3 * DAY_MINUTES + hours * 60))
+  const proposed = new Date(Date.parse(visit.startUtc) + 2 * HOUR_MS).toISOString()
+  return { visit, proposed }
+}
+
+async function send(visitId: number, startUtc: string, client = desk) {
+  return client.post(`/api/visits/${visitId}/move-offers`, { startUtc })
+}
+
+async function tokenOf(moveOfferId: number): Promise<string> {
+  const row = await testDb()('move_offers').where({ id: moveOfferId }).first('id', 'nonce')
+  return signOfferToken(process.env.NUXT_MAIL_LINK_SECRET!, row, 'move-offer')
+}
+
+async function visitStart(visitId: number): Promise<string> {
+  const row = await testDb()('visits').where({ id: visitId }).first('start_utc')
+  return (row.start_utc as Date).toISOString()
+}
+
+async function auditActions(moveOfferId: number): Promise<string[]> {
+  return (await testDb()('audit_log').where({ entity: 'move_offer', entity_id: String(moveOfferId) }).orderBy('id').pluck('action')) as string[]
+}
+
+describe('sending a move offer', () => {
+  it('needs a booking role at the visit\'s site: 401 signed out, 403 for a provider or another site\'s desk', async () => {
+    const { visit, proposed } = await visitWithProposal(0)
+    expect((await send(visit.id, proposed, new ApiClient())).status).toBe(401)
+    const dentist = await createStaff('dentist', [annex.siteId], { provider: true })
+    const asDentist = new ApiClient()
+    await asDentist.signIn(dentist.email, STAFF_PASSWORD)
+    expect((await send(visit.id, proposed, asDentist)).status).toBe(403)
+    const otherDesk = await createStaff('front_desk', [])
+    const asOther = new ApiClient()
+    await asOther.signIn(otherDesk.email, STAFF_PASSWORD)
+    expect((await send(visit.id, proposed, asOther)).status).toBe(403)
+    expect(await testDb()('move_offers').where({ visit_id: visit.id }).count({ n: '*' })).toEqual([{ n: 0 }])
+  })
+
+  it('refuses bad input in words: 400 naming startUtc, 409 when the time is not free now', async () => {
+    const { visit, proposed } = await visitWithProposal(1, 6)
+    const bad = await send(visit.id, 'tomorrow')
+    expect(bad.status).toBe(400)
+    expect(JSON.stringify(bad.body)).toContain('startUtc')
+    const same = await send(visit.id, new Date(visit.startUtc).toISOString())
+    expect(same.status).toBe(400)
+    await book(2, proposed)
+    const taken = await send(visit.id, proposed)
+    expect(taken.status, JSON.stringify(taken.body)).toBe(409)
+    expect(await testDb()('move_offers').where({ visit_id: visit.id }).count({ n: '*' })).toEqual([{ n: 0 }])
+  })
+
+  it('409 when the patient has not agreed to e-mail (consent is respected)', async () => {
+    const { visit, proposed } = await visitWithProposal(3, 12)
+    await testDb()('patients').where({ id: annex.patientIds[3] }).update({ email_consent: false })
+    const refused = await send(visit.id, proposed)
+    expect(refused.status).toBe(409)
+    expect(JSON.stringify(refused.body)).toContain('agreed to e-mail')
+  })
+})
+
+describe('the patient answers', () => {
+  it('send → the e-mail arrives with the link → accept moves the visit, a change e-mail is queued, audit rows written', async () => {
+    const { visit, proposed } = await visitWithProposal(4, 18)
+    const sent = await send(visit.id, proposed)
+    expect(sent.status, JSON.stringify(sent.body)).toBe(201)
+    expect(Date.parse(sent.body.expiresAtUtc)).toBeGreaterThan(Date.now())
+    expect(await visitStart(visit.id)).toBe(new Date(visit.startUtc).toISOString()) // sending moves nothing
+    const row = await testDb()('outbox').where({ kind: 'move_offer', visit_id: visit.id }).first('id')
+    const mail = await waitForOutboxMail(annex.emails[4]!, row.id)
+    expect(mail.parsed.subject).toContain('Could your visit')
+    const link = /\/move-offer\/([A-Za-z0-9._%-]+)/.exec(mail.parsed.text ?? '')
+    expect(link).not.toBeNull()
+    const token = decodeURIComponent(link![1]!)
+    const patient = new ApiClient()
+    const shown = await patient.get(`/api/move-offer/${encodeURIComponent(token)}`)
+    expect(shown.status).toBe(200)
+    expect(shown.body.state).toBe('sent')
+    expect(shown.body.currentStartUtc).toBe(new Date(visit.startUtc).toISOString())
+    expect(shown.body.startUtc).toBe(proposed)
+    const accepted = await patient.post(`/api/move-offer/${encodeURIComponent(token)}/accept`)
+    expect(accepted.status, JSON.stringify(accepted.body)).toBe(200)
+    expect(accepted.body.state).toBe('accepted')
+    expect(await visitStart(visit.id)).toBe(proposed)
+    const update = await testDb()('outbox').where({ kind: 'update', visit_id: visit.id }).first('id')
+    expect(update).toBeDefined()
+    expect(await auditActions(sent.body.moveOfferId)).toEqual(['move_offer_sent', 'move_offer_accepted'])
+    const moved = await testDb()('audit_log').where({ entity: 'visit', entity_id: String(visit.id), action: 'visit_moved' }).first('user_id')
+    expect(moved.user_id).toBeNull() // moved by the patient's answer, not a staff account
+    // A second press of the same link keeps the answer.
+    expect((await patient.post(`/api/move-offer/${encodeURIComponent(token)}/accept`)).body.state).toBe('accepted')
+  })
+
+  it('decline keeps the visit where it is; the link can no longer move it', async () => {
+    const { visit, proposed } = await visitWithProposal(5, 24)
+    const sent = await send(visit.id, proposed)
+    expect(sent.status).toBe(201)
+    const token = await tokenOf(sent.body.moveOfferId)
+    const declined = await new ApiClient().post(`/api/move-offer/${encodeURIComponent(token)}/decline`)
+    expect(declined.status).toBe(200)
+    expect(declined.body.state).toBe('declined')
+    expect(declined.body.message).toContain('stays at')
+    expect(await visitStart(visit.id)).toBe(new Date(visit.startUtc).toISOString())
+    expect((await new ApiClient().post(`/api/move-offer/${encodeURIComponent(token)}/accept`)).status).toBe(409)
+    expect(await visitStart(visit.id)).toBe(new Date(visit.startUtc).toISOString())
+    expect(await auditActions(sent.body.moveOfferId)).toEqual(['move_offer_sent', 'move_offer_declined'])
+  })
+
+  it('the time was taken meanwhile: 409 "no longer free; your visit stays at …", visit unchanged', async () => {
+    const { visit, proposed } = await visitWithProposal(6, 30)
+    const sent = await send(visit.id, proposed)
+    expect(sent.status).toBe(201)
+    await book(7, proposed)
+    const token = await tokenOf(sent.body.moveOfferId)
+    const accepted = await new ApiClient().post(`/api/move-offer/${encodeURIComponent(token)}/accept`)
+    expect(accepted.status).toBe(409)
+    expect(JSON.stringify(accepted.body)).toContain('This time is no longer free; your visit stays at')
+    expect(await visitStart(visit.id)).toBe(new Date(visit.startUtc).toISOString())
+    expect(await auditActions(sent.body.moveOfferId)).toEqual(['move_offer_sent', 'move_offer_taken'])
+  })
+
+  it('expired: the page says so, accept is 410, the visit stays; bad or edited tokens are 404', async () => {
+    const { visit, proposed } = await visitWithProposal(0, 36)
+    const sent = await send(visit.id, proposed)
+    expect(sent.status).toBe(201)
+    const token = await tokenOf(sent.body.moveOfferId)
+    await testDb()('move_offers').where({ id: sent.body.moveOfferId }).update({ expires_at: new Date(Date.now() - 60_000) })
+    const shown = await new ApiClient().get(`/api/move-offer/${encodeURIComponent(token)}`)
+    expect(shown.status).toBe(200)
+    expect(shown.body.state).toBe('expired')
+    expect((await new ApiClient().post(`/api/move-offer/${encodeURIComponent(token)}/accept`)).status).toBe(410)
+    expect(await visitStart(visit.id)).toBe(new Date(visit.startUtc).toISOString())
+    expect(await auditActions(sent.body.moveOfferId)).toEqual(['move_offer_sent', 'move_offer_expired'])
+    // Edited, malformed, or a waitlist offer's signature over the same id and nonce: not a move offer link.
+    const edited = `${token.slice(0, -2)}${token.endsWith('AA') ? 'BB' : 'AA'}`
+    expect((await new ApiClient().get(`/api/move-offer/${encodeURIComponent(edited)}`)).status).toBe(404)
+    expect((await new ApiClient().get('/api/move-offer/not-a-token')).status).toBe(404)
+    const row = await testDb()('move_offers').where({ id: sent.body.moveOfferId }).first('id', 'nonce')
+    expect((await new ApiClient().get(`/api/move-offer/${encodeURIComponent(signOfferToken(process.env.NUXT_MAIL_LINK_SECRET!, row))}`)).status).toBe(404)
+  })
+
+  it('a minor\'s move offer goes to the guardian, naming the patient', async () => {
+    const { visit, proposed } = await visitWithProposal(1, 42)
+    const guardianEmail = `guardian-move-${visit.id}@fernhollow.test`
+    const birth = DateTime.now().minus({ years: 9 }).toISODate()!
+    await testDb()('patients').where({ id: annex.patientIds[1] }).update({ date_of_birth: birth, guardian_name: 'Rosa Quill', guardian_email: guardianEmail })
+    const sent = await send(visit.id, proposed)
+    expect(sent.status, JSON.stringify(sent.body)).toBe(201)
+    const row = await testDb()('outbox').where({ kind: 'move_offer', visit_id: visit.id }).first('id')
+    const mail = await waitForOutboxMail(guardianEmail, row.id)
+    expect(mail.parsed.text).toContain('Hello Rosa Quill')
+    expect(mail.parsed.text).toContain('The dental visit for')
+    expect(mail.raw).not.toContain(annex.emails[1]!)
+  })
+})
