@@ -184,7 +184,7 @@ describe('recall e-mails for a minor', () => {
 
     const sent = await desk.post('/api/recalls/mail', { siteId: annex.siteId, recallIds: [first, second] })
     expect(sent.body.sent).toEqual([first])
-    const row = await pollUntil(() => testDb()('outbox').where({ kind: 'recall', site_id: annex.siteId }).whereRaw("JSON_VALUE(payload, '$.recallId') = ?", [first]).first(), (found) => Boolean(found))
+    const row = await pollUntil(() => testDb()('outbox').where({ kind: 'recall', site_id: annex.siteId }).whereRaw("JSON_VALUE(payload, '$.recallId') = ?", [first!]).first(), (found) => Boolean(found))
     const mail = await waitForOutboxMail(guardianEmail, row.id)
     expect(mail.parsed.to).toMatchObject({ value: [{ address: guardianEmail, name: 'Pia Lund' }] })
     const { last_name: lastName, email: childEmail } = await testDb()('patients').where({ id: withGuardian }).first('last_name', 'email')
