@@ -11,3 +11,10 @@ export interface DisplayStyle {
   clock: ClockStyle
   dateOrder: DateOrder
 }
+
+/** The site as a patient's own page (offer, move offer, recall page; no sign-in) names it and shows its times. */
+export interface PublicSiteFacts extends DisplayStyle {
+  siteName: string
+  sitePhone: string | null
+  siteAddress: string | null
+}

@@ -1,6 +1,6 @@
 // Move offers (issue 17 §3): Balance's "consolidate" suggestion e-mailed to the patient, who may move
 // the visit to the proposed time or keep the current one.
-import type { ClockStyle, DateOrder } from './display'
+import type { PublicSiteFacts } from './display'
 
 export const MOVE_OFFER_STATES = ['sent', 'accepted', 'declined', 'expired', 'taken'] as const
 export type MoveOfferState = (typeof MOVE_OFFER_STATES)[number]
@@ -12,13 +12,7 @@ export interface SentMoveOfferDto {
   expiresAtUtc: string
 }
 
-export interface PublicMoveOfferDto {
-  siteName: string
-  sitePhone: string | null
-  siteAddress: string | null
-  timeZone: string
-  clock: ClockStyle
-  dateOrder: DateOrder
+export interface PublicMoveOfferDto extends PublicSiteFacts {
   /** The visit's time now, and the time proposed. */
   currentStartUtc: string
   currentEndUtc: string

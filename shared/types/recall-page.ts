@@ -1,6 +1,6 @@
 // The patient's recall page (issue 17 §1) as the API gives it: no sign-in, the signed link is the key.
 import type { RecallKind } from '../domain/recall'
-import type { ClockStyle, DateOrder } from './display'
+import type { PublicSiteFacts } from './display'
 
 /** One time the patient may pick: the chair and provider go back with the choice. */
 export interface RecallOpeningDto {
@@ -10,13 +10,7 @@ export interface RecallOpeningDto {
   providerId: number
 }
 
-export interface PublicRecallDto {
-  siteName: string
-  sitePhone: string | null
-  siteAddress: string | null
-  timeZone: string
-  clock: ClockStyle
-  dateOrder: DateOrder
+export interface PublicRecallDto extends PublicSiteFacts {
   firstName: string
   kind: RecallKind
   dueDate: string

@@ -1,7 +1,7 @@
 // The waitlist and offers (issue 17 §2) as the API gives them.
 import type { ChairTimeRequest } from '../schemas/templates'
 import type { PartOfDay } from './openings'
-import type { ClockStyle, DateOrder } from './display'
+import type { PublicSiteFacts } from './display'
 
 type ChairTimeItem = ChairTimeRequest['items'][number]
 
@@ -59,14 +59,7 @@ export interface SentOffersDto {
 }
 
 /** What the patient's offer page shows (no sign-in). */
-export interface PublicOfferDto {
-  siteName: string
-  sitePhone: string | null
-  siteAddress: string | null
-  timeZone: string
-  /** How the site shows times and dates (issue 14). */
-  clock: ClockStyle
-  dateOrder: DateOrder
+export interface PublicOfferDto extends PublicSiteFacts {
   startUtc: string
   startLocalIso: string
   minutes: number

@@ -2,7 +2,7 @@
 // transaction); 409 when someone else took it first, 410 when the offer expired.
 import type { PublicOfferDto } from '#shared/types/waitlist'
 import { acceptOffer } from '../../../services/offer-service'
-import { offerTokenParam } from '../../../utils/offer-token-param'
+import { offerTokenParam } from '../../../utils/token-param'
 
 export default defineEventHandler(async (event): Promise<PublicOfferDto> => {
   const token = offerTokenParam(event)

@@ -5,7 +5,7 @@ import type { PublicRecallDto } from '#shared/types/recall-page'
 import { RecallBookSchema } from '#shared/schemas/recall'
 import { validateWith } from '../../../utils/errors'
 import { bookFromRecall } from '../../../services/recall-page-service'
-import { recallTokenParam } from '../../../utils/recall-token-param'
+import { recallTokenParam } from '../../../utils/token-param'
 
 export default defineEventHandler(async (event): Promise<PublicRecallDto> => {
   const token = recallTokenParam(event)

@@ -2,8 +2,6 @@
 import { describe, expect, it } from 'vitest'
 import ICAL from 'ical.js'
 import { decodeParamValue, escapeText, foldLine, paramValue, writeLines } from '../../../../shared/domain/icalendar'
-import { isReplyTemplate, replyAddressOf, siteOfReplyAddress } from '../../../../shared/domain/reply-address'
-import { patientMinutesOf, seenChange } from '../../../../shared/domain/patient-time'
 
 const NAMES = [
   'Ann "Annie" O\'Brien', 'Ruiz; Maria', 'Lee, Jun', 'Dr: Who', 'Back\\slash', 'Zoë Ørsted-Ñúñez', '李小龍', 'Sam 🦷😀 Smile', 'Caret ^ and ^n',
@@ -71,34 +69,5 @@ describe('folding', () => {
 describe('TEXT values', () => {
   it('escape backslash, semicolon, comma and line breaks (RFC 5545 §3.3.11)', () => {
     expect(escapeText('a\\b;c,d\ne')).toBe('a\\\\b\\;c\\,d\\ne')
-  })
-})
-
-describe('reply addresses', () => {
-  it('put the site id into the template and read it back', () => {
-    expect(replyAddressOf('replies+{site}@cuspline.test', 42)).toBe('replies+42@cuspline.test')
-    expect(siteOfReplyAddress('replies+{site}@cuspline.test', 'Replies+42@Cuspline.test')).toBe(42)
-    expect(siteOfReplyAddress('replies+{site}@cuspline.test', 'replies+x@cuspline.test')).toBeNull()
-    expect(siteOfReplyAddress('replies+{site}@cuspline.test', 'other+42@cuspline.test')).toBeNull()
-    expect(isReplyTemplate('')).toBe(false)
-    expect(isReplyTemplate('replies@{site}.test')).toBe(false)
-    expect(replyAddressOf('', 1)).toBeNull()
-  })
-})
-
-describe('the patient\'s time', () => {
-  const segments = [
-    { kind: 'hands_on', startMinute: 0, endMinute: 40 },
-    { kind: 'reset', startMinute: 40, endMinute: 55 },
-  ] as never
-  it('ends before the room reset after the patient leaves (common practice, no source)', () => {
-    expect(patientMinutesOf({ segments }, 55)).toBe(40)
-    expect(patientMinutesOf(undefined, 30)).toBe(30)
-  })
-
-  it('sees no change when only the chair time after the patient changed', () => {
-    expect(seenChange({ startMs: 0, minutes: 40, what: [] }, { startMs: 0, minutes: 40, what: [] })).toBeNull()
-    expect(seenChange({ startMs: 0, minutes: 40, what: [] }, { startMs: 0, minutes: 50, what: [] })).toEqual({ time: false, length: true, what: false })
-    expect(seenChange({ startMs: 0, minutes: 40, what: [] }, { startMs: 1, minutes: 40, what: [] })).toEqual({ time: true, length: false, what: false })
   })
 })
