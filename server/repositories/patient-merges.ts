@@ -1,4 +1,5 @@
 // Merging two patient records (issue 16 §2): what moves, and the merge record.
+import type { ClockStyle, DateOrder } from '#shared/types/display'
 import type { Db } from '../utils/db'
 
 export interface OverlapRow {
@@ -6,6 +7,8 @@ export interface OverlapRow {
   merged_visit_id: number
   start_utc: Date
   time_zone: string
+  clock: ClockStyle
+  date_order: DateOrder
   site_name: string
 }
 
@@ -17,7 +20,7 @@ export async function overlappingVisits(db: Db, survivorId: number, mergedId: nu
     .where('a.patient_id', survivorId).where('b.patient_id', mergedId)
     .whereNotIn('a.state', ['cancelled', 'missed']).whereNotIn('b.state', ['cancelled', 'missed'])
     .orderBy('a.start_utc').limit(5)
-    .select({ survivor_visit_id: 'a.id', merged_visit_id: 'b.id', start_utc: 'a.start_utc', time_zone: 'sites.time_zone', site_name: 'sites.name' })
+    .select({ survivor_visit_id: 'a.id', merged_visit_id: 'b.id', start_utc: 'a.start_utc', time_zone: 'sites.time_zone', clock: 'sites.clock', date_order: 'sites.date_order', site_name: 'sites.name' })
 }
 
 /** Gives the merged-away patient's visits to the survivor; their outbox rows follow the visits. */

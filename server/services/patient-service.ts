@@ -6,7 +6,7 @@ import type { NewPatientInput } from '#shared/schemas/visits'
 import type { ConsentSource, DuplicateCheckInput, PatientEditInput, PatientFieldsInput, PatientMergeInput } from '#shared/schemas/patients'
 import { MERGE_FIELDS } from '#shared/schemas/patients'
 import { findDuplicates, type PatientIdentity } from '#shared/domain/patient-duplicates'
-import { localDateAt, localTime } from '#shared/utils/local-date'
+import { formatDateTime } from '#shared/utils/display-time'
 import { requireSiteAccess } from '../utils/auth'
 import { useDb, type Db } from '../utils/db'
 import { inTransaction } from '../utils/db-retry'
@@ -130,7 +130,7 @@ export function mergePatients(user: SessionUser, input: PatientMergeInput, ip: s
     const mergedRow = rows.get(input.mergedId)!
     const overlaps = await overlappingVisits(trx, input.survivorId, input.mergedId)
     if (overlaps.length) {
-      const named = overlaps.map((overlap) => `visit ${overlap.survivor_visit_id} and visit ${overlap.merged_visit_id} (${localDateAt(overlap.start_utc.getTime(), overlap.time_zone)} ${localTime(overlap.start_utc.toISOString(), overlap.time_zone)}, ${overlap.site_name})`)
+      const named = overlaps.map((overlap) => `visit ${overlap.survivor_visit_id} and visit ${overlap.merged_visit_id} (${formatDateTime(overlap.start_utc, { timeZone: overlap.time_zone, clock: overlap.clock, dateOrder: overlap.date_order }, 'short')}, ${overlap.site_name})`)
       throw conflict(`These two records have visits at the same time: ${named.join('; ')}. Cancel or move one of each pair first.`, {
         field: 'mergedId', visitIds: overlaps.flatMap((overlap) => [overlap.survivor_visit_id, overlap.merged_visit_id]),
       })

@@ -6,6 +6,7 @@ import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, createTestUser, testDb } from '../helpers/db'
 import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
 import { atAhead, TUESDAY, WEDNESDAY } from '../helpers/dates'
+import { formatDateTime } from '../../shared/utils/display-time'
 
 let admin: ApiClient
 let desk: ApiClient
@@ -152,6 +153,9 @@ describe('merge', () => {
     const refused = await admin.post('/api/patient-merges', { survivorId: one.id, mergedId: two.id })
     expect(refused.status).toBe(409)
     expect(refused.body.message).toContain(`visit ${a.body.id} and visit ${b.body.id}`)
+    // The time as the site shows it (its clock and date order), through the one shared formatter.
+    const site = await testDb()('sites').where({ id: annex.siteId }).first('time_zone', 'clock', 'date_order', 'name')
+    expect(refused.body.message).toContain(`(${formatDateTime(startUtc, { timeZone: site.time_zone, clock: site.clock, dateOrder: site.date_order }, 'short')}, ${site.name})`)
     expect(refused.body.data.visitIds).toEqual([a.body.id, b.body.id])
     expect((await testDb()('visits').where({ id: b.body.id }).first()).patient_id).toBe(two.id)
   })
