@@ -14,6 +14,7 @@ import type { BusySegment, Opening, OpeningsPlan, OpeningsQuery, OpeningsSite } 
 import type { BlockInput, OpeningHours, ShiftInput } from '../../shared/types/rota'
 import { DEFAULT_TEMPLATES } from '../../seeds/data/procedure-templates'
 import { bruteForceOpenings } from '../../tests/support/openings-brute-force'
+import { seededRandom } from '../lib/seeded-random'
 
 const MINUTE_MS = 60_000
 const DAY_MS = 86_400_000
@@ -25,17 +26,6 @@ const FROM_UTC = '2026-03-02T00:00:00Z' // Monday; the month crosses the 8 March
 const DAYS = 30
 const UNIT = 10 as const
 
-// A fixed-seed generator so every run books the same calendar.
-function seededRandom(seed: number): () => number {
-  let state = seed >>> 0
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0
-    let t = state
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296
-  }
-}
 const random = seededRandom(20260302)
 const pick = <T>(list: readonly T[]): T => list[Math.floor(random() * list.length)]!
 

@@ -25,6 +25,7 @@ import type { BookingUnitMinutes, OperatoryCapability, TemplateCategory, VisitPl
 import type { BusySegment, OpeningsSite } from '../../shared/types/openings'
 import type { BlockInput, OpeningHours, ShiftInput } from '../../shared/types/rota'
 import type { StoredTemplate } from '../../shared/types/templates'
+import { seededRandom } from './seeded-random'
 
 export const GROUP = { sites: 60, chairs: 400, providers: 250, visits: 500_000, patients: 120_000, regions: 12 } as const
 const GENERATOR_VERSION = 3
@@ -33,17 +34,6 @@ const ZONES = ['America/New_York', 'America/Chicago', 'America/Denver', 'America
 const DAY_MS = 86_400_000
 const MINUTE_MS = 60_000
 
-// A fixed-seed generator: the same group every time.
-function seededRandom(seed: number): () => number {
-  let state = seed >>> 0
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0
-    let t = state
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296
-  }
-}
 
 /** The first day of the generated year: the Monday 26 weeks before this week's (UTC). */
 export function groupYearStart(now = DateTime.utc()): string {

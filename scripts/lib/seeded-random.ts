@@ -1,0 +1,13 @@
+// Benchmarks and the group-scale generator: random numbers that repeat run after run.
+
+/** A fixed-seed random generator (mulberry32): the same sequence on every run, so a bench books the same calendar. */
+export function seededRandom(seed: number): () => number {
+  let state = seed >>> 0
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0
+    let t = state
+    t = Math.imul(t ^ (t >>> 15), t | 1)
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
+    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296
+  }
+}
