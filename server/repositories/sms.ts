@@ -16,6 +16,8 @@ export interface TextPatient {
   smsConsent: boolean
   smsOptedOutAt: Date | null
   /** A minor's messages go to the guardian (shared/domain/message-recipient.ts). */
+  dateOfBirth: string | null
+  guardianName: string | null
   guardianEmail: string | null
   guardianPhone: string | null
 }
@@ -29,16 +31,19 @@ export interface TextPatientRow {
   email_consent: number
   sms_consent: number
   sms_opted_out_at: Date | null
+  date_of_birth: string | null
+  guardian_name: string | null
   guardian_email: string | null
   guardian_phone: string | null
 }
 
-const PATIENT_COLUMNS = ['id', 'first_name', 'last_name', 'phone', 'email', 'email_consent', 'sms_consent', 'sms_opted_out_at', 'guardian_email', 'guardian_phone'] as const
+const PATIENT_COLUMNS = ['id', 'first_name', 'last_name', 'phone', 'email', 'email_consent', 'sms_consent', 'sms_opted_out_at', 'date_of_birth', 'guardian_name', 'guardian_email', 'guardian_phone'] as const
 
 export function toTextPatient(row: TextPatientRow): TextPatient {
   return {
     id: row.id, firstName: row.first_name, lastName: row.last_name, phone: row.phone, email: row.email, emailConsent: Boolean(row.email_consent),
-    smsConsent: Boolean(row.sms_consent), smsOptedOutAt: row.sms_opted_out_at, guardianEmail: row.guardian_email, guardianPhone: row.guardian_phone,
+    smsConsent: Boolean(row.sms_consent), smsOptedOutAt: row.sms_opted_out_at,
+    dateOfBirth: row.date_of_birth, guardianName: row.guardian_name, guardianEmail: row.guardian_email, guardianPhone: row.guardian_phone,
   }
 }
 

@@ -2,6 +2,7 @@
 import type { Db } from '../utils/db'
 import type { OfferState, WaitlistEntryDto, WaitlistState } from '#shared/types/waitlist'
 import type { PartOfDay } from '#shared/types/openings'
+import type { Channel } from '#shared/domain/sms-channels'
 import type { NewWaitlistEntryInput } from '#shared/schemas/waitlist'
 import { parseJson } from './json'
 
@@ -137,8 +138,20 @@ export async function markOthersTaken(db: Db, offer: OfferRow): Promise<number[]
 }
 
 /** Entries with an open offer for this chair time (the gap panel says "offered"). */
-export async function entriesOfferedAt(db: Db, siteId: number, operatoryId: number | null, fromMs: number, toMs: number): Promise<Set<number>> {
-  const ids = (await db('offers').where({ site_id: siteId, state: 'sent' }).where((chair) => { if (operatoryId !== null) void chair.where('operatory_id', operatoryId) })
-    .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs)).where('expires_at', '>', new Date()).pluck('entry_id')) as number[]
-  return new Set(ids)
+export async function entriesOfferedAt(db: Db, siteId: number, operatoryId: number | null, fromMs: number, toMs: number): Promise<Map<number, Channel[]>> {
+  const offers = (await db('offers').where({ site_id: siteId, state: 'sent' }).where((chair) => { if (operatoryId !== null) void chair.where('operatory_id', operatoryId) })
+    .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs)).where('expires_at', '>', new Date()).select('id', 'entry_id')) as Array<{ id: number; entry_id: number }>
+  const offered = new Map<number, Channel[]>(offers.map((offer) => [offer.entry_id, []]))
+  if (!offers.length) return offered
+  // The channels each open offer went by: its outbox rows (payload.offerId), one per channel.
+  const entryOf = new Map(offers.map((offer) => [offer.id, offer.entry_id]))
+  const sent = (await db('outbox').where({ site_id: siteId, kind: 'offer' })
+    .whereRaw(`CAST(JSON_EXTRACT(payload, '$.offerId') AS UNSIGNED) IN (${offers.map(() => '?').join(', ')})`, offers.map((offer) => offer.id))
+    .select('channel', db.raw("CAST(JSON_EXTRACT(payload, '$.offerId') AS UNSIGNED) AS offer_id"))) as Array<{ channel: Channel; offer_id: number }>
+  for (const row of sent) {
+    const channels = offered.get(entryOf.get(Number(row.offer_id)) ?? 0)
+    if (channels && !channels.includes(row.channel)) channels.push(row.channel)
+  }
+  for (const channels of offered.values()) channels.sort()
+  return offered
 }

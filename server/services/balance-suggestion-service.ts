@@ -71,7 +71,7 @@ async function waitlistFits(user: SessionUser, siteId: number, figures: Figures,
     found.push({
       id: `waitlist_fit-${siteId}-${match.entry.id}`, kind: 'waitlist_fit', siteId, date: localDateAt(gap.startMs, figures.zone), gap: gapDto(figures, gap),
       entryId: match.entry.id, patientId: match.entry.patientId, patientName: match.entry.patientName, planLabel: match.entry.planLabel, items: match.entry.items,
-      providerId: match.providerId, providerName: match.providerName, startUtc: match.startUtc, canOffer: match.canOffer, offered: match.offered,
+      providerId: match.providerId, providerName: match.providerName, startUtc: match.startUtc, canOffer: match.canOffer, channels: match.channels, offered: match.offered,
     })
   }
   return found

@@ -1,6 +1,7 @@
-// Move offers (issue 17 §3): Balance's "consolidate" suggestion sent to the patient as an offer. The
-// visit moves only when the patient accepts on the page behind the e-mailed link, through the booking
-// service's one move (`moveInTransaction`: locks, overlap and hours checks, the change e-mail). If the
+// Move offers (issue 17 §3): Balance's "consolidate" suggestion sent to the patient as an offer, by
+// e-mail and/or text (`offerChannels`). The visit moves only when the patient accepts on the page
+// behind the link, through the booking service's one move (`moveInTransaction`: locks, overlap and
+// hours checks, the change e-mail). If the
 // time was taken meanwhile the patient hears so (409) and the visit stays. Declining or expiry leave
 // the visit untouched. The link expires like a waitlist offer (site setting `offerHours`, never later
 // than the notice before the earlier of the two times). Audit rows on entity `move_offer`.
@@ -12,6 +13,7 @@ import { offerExpiresAtMs } from '#shared/domain/waitlist-match'
 import { waitlistSettingsOf } from '#shared/domain/waitlist-settings'
 import { canMove } from '#shared/domain/visit-states'
 import { displayStyleOf, formatDateTime } from '#shared/utils/display-time'
+import { localDateAt } from '#shared/utils/local-date'
 import { useDb, type Db } from '../utils/db'
 import { badRequest, conflict, notFound } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
@@ -21,12 +23,12 @@ import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { offerSignatureValid, readOfferToken } from '../utils/offer-token'
 import { findSiteDetail } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
-import { enqueueMessage } from '../repositories/outbox'
+import { enqueueMessages } from '../repositories/outbox'
 import { findVisitRow, type VisitRow } from '../repositories/visits'
 import { loadMailContext } from '../repositories/mail-context'
 import { findMoveOffer, insertMoveOffer, setMoveOfferState, type MoveOfferRow } from '../repositories/move-offers'
-import { messageRecipient } from './mail/visit-facts'
 import { moveInTransaction } from './booking-service'
+import { offerChannels } from './sms/channels'
 
 /** The notice a patient gets before the earlier of the two times: the link closes this long before it. */
 export const MOVE_OFFER_NOTICE_MINUTES = 120
@@ -69,9 +71,9 @@ export async function sendMoveOffer(visitId: number, input: SendMoveOfferInput, 
   if (startMs === row.start_utc.getTime() && (input.operatoryId ?? row.operatory_id) === row.operatory_id) throw badRequest('startUtc', 'is the visit\'s current time; propose another')
   const context = await loadMailContext(db, visitId)
   if (!context) throw notFound('No such visit.')
-  const recipient = messageRecipient(context, 'email')
-  if ('skip' in recipient) throw conflict(`No move offer sent: ${recipient.skip}.`, { field: 'patient' })
-  if (!context.patient.emailConsent) throw conflict('No move offer sent: the patient has not agreed to e-mail.', { field: 'patient' })
+  // By e-mail and/or text, to the patient or a minor's guardian (on the visit's date, as `messageRecipient`).
+  const { channels, why } = await offerChannels(db, 'move_offer', context.patient.id, context.site.settings, localDateAt(row.start_utc.getTime(), context.site.timeZone))
+  if (!channels.length) throw conflict(`No move offer sent: ${why ?? 'no e-mail or text can reach the patient'}.`, { field: 'patient' })
   const { offerHours } = waitlistSettingsOf(context.site.settings)
   const expiresAtMs = offerExpiresAtMs({ nowMs, slotStartMs: Math.min(startMs, row.start_utc.getTime()), noticeMinutes: MOVE_OFFER_NOTICE_MINUTES, offerHours })
   if (expiresAtMs === null) throw conflict(`No move offer sent: the visit or the proposed time is less than ${MOVE_OFFER_NOTICE_MINUTES / 60} hours away.`, { field: 'startUtc' })
@@ -83,14 +85,14 @@ export async function sendMoveOffer(visitId: number, input: SendMoveOfferInput, 
       from_start_utc: row.start_utc, start_utc: new Date(startMs), end_utc: new Date(endMs),
       nonce: randomBytes(24).toString('base64url'), expires_at: new Date(expiresAtMs), created_by: user.id,
     })
-    await enqueueMessage(trx, { kind: 'move_offer', visitId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { moveOfferId: id } })
+    await enqueueMessages(trx, channels.map((channel) => ({ kind: 'move_offer' as const, channel, visitId: row.id, siteId: row.site_id, dueAt: new Date(), payload: { moveOfferId: id } })))
     await writeAudit(trx, {
       userId: user.id, action: 'move_offer_sent', entity: 'move_offer', entityId: id,
-      after: { visitId: row.id, fromStartUtc: row.start_utc.toISOString(), ...target, expiresAtUtc: new Date(expiresAtMs).toISOString() },
+      after: { visitId: row.id, fromStartUtc: row.start_utc.toISOString(), ...target, expiresAtUtc: new Date(expiresAtMs).toISOString(), channels },
     })
     return id
   })
-  return { moveOfferId, visitId: row.id, startUtc: target.startUtc, expiresAtUtc: new Date(expiresAtMs).toISOString() }
+  return { moveOfferId, visitId: row.id, startUtc: target.startUtc, expiresAtUtc: new Date(expiresAtMs).toISOString(), channels }
 }
 
 /** The move offer a token opens, or 404 (malformed, unknown, tampered, or a waitlist offer's link). */

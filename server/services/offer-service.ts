@@ -1,4 +1,5 @@
-// Offers (issue 17 §2): a freed time e-mailed to waiting patients; the first to accept on the offer
+// Offers (issue 17 §2): a freed time e-mailed and/or texted to waiting patients (the channels each can
+// be reached by, `offerChannels`); the first to accept on the offer
 // page gets it, through the booking transaction (`bookInTransaction`), so several accepting at the
 // same moment give one visit and "this time has just been taken" to the rest. An offer is open until
 // its expiry (site setting, default 2 hours, never past the slot's start minus the patient's notice).
@@ -10,7 +11,7 @@ import type { SendOffersInput } from '#shared/schemas/waitlist'
 import { offerExpiresAtMs } from '#shared/domain/waitlist-match'
 import { waitlistSettingsOf } from '#shared/domain/waitlist-settings'
 import { patientMinutesOf } from '#shared/domain/patient-time'
-import { localIsoAt } from '#shared/utils/local-date'
+import { localDateAt, localIsoAt } from '#shared/utils/local-date'
 import { useDb, type Db } from '../utils/db'
 import { conflict, notFound } from '../utils/errors'
 import { inTransaction } from '../utils/db-retry'
@@ -19,11 +20,12 @@ import { useVisitLinkSecret } from '../utils/visit-link-secret'
 import { offerSignatureValid, readOfferToken } from '../utils/offer-token'
 import { findSiteDetail } from '../repositories/sites'
 import { writeAudit } from '../repositories/audit-log'
-import { enqueueMessage } from '../repositories/outbox'
+import { enqueueMessages } from '../repositories/outbox'
 import { findEntry, findOffer, insertOffer, markOthersTaken, setOfferState, type OfferRow } from '../repositories/waitlist'
 import { findVisit } from '../repositories/visits'
 import { bookInTransaction } from './booking-service'
 import { gapOf, matchesForOffers } from './waitlist-service'
+import { offerChannels } from './sms/channels'
 
 const MINUTE_MS = 60_000
 const LINK_NOT_VALID = 'This link is not valid. Please call the practice.'
@@ -53,8 +55,10 @@ export async function sendOffers(input: SendOffersInput, user: SessionUser): Pro
         continue
       }
       const { entry, opening } = match
-      if (!entry.patientEmail || !entry.emailConsent) {
-        result.skipped.push({ entryId, reason: 'the patient has no e-mail address or has not agreed to e-mail' })
+      // By e-mail and/or text, as the patient (or a minor's guardian) can be reached; neither: not offered.
+      const { channels, why } = await offerChannels(trx, 'offer', entry.patientId, ctx.calendar.settings, localDateAt(opening.startMs, ctx.gap.timeZone))
+      if (!channels.length) {
+        result.skipped.push({ entryId, reason: why ?? 'no e-mail or text can reach the patient' })
         continue
       }
       const expiresAtMs = offerExpiresAtMs({ nowMs, slotStartMs: opening.startMs, noticeMinutes: entry.noticeMinutes, offerHours })
@@ -66,12 +70,12 @@ export async function sendOffers(input: SendOffersInput, user: SessionUser): Pro
         entryId, siteId: opening.siteId, operatoryId: opening.operatoryId, providerId: opening.providerId,
         startMs: opening.startMs, endMs: opening.endMs, nonce: randomBytes(24).toString('base64url'), expiresAtMs, userId: user.id,
       })
-      await enqueueMessage(trx, { kind: 'offer', visitId: null, siteId: opening.siteId, dueAt: new Date(), payload: { offerId } })
+      await enqueueMessages(trx, channels.map((channel) => ({ kind: 'offer' as const, channel, visitId: null, siteId: opening.siteId, dueAt: new Date(), payload: { offerId } })))
       await writeAudit(trx, {
         userId: user.id, action: 'offer_sent', entity: 'offer', entityId: offerId,
-        after: { entryId, patientId: entry.patientId, siteId: opening.siteId, operatoryId: opening.operatoryId, providerId: opening.providerId, startUtc: new Date(opening.startMs).toISOString(), expiresAtUtc: new Date(expiresAtMs).toISOString() },
+        after: { entryId, patientId: entry.patientId, siteId: opening.siteId, operatoryId: opening.operatoryId, providerId: opening.providerId, startUtc: new Date(opening.startMs).toISOString(), expiresAtUtc: new Date(expiresAtMs).toISOString(), channels },
       })
-      result.sent.push({ offerId, entryId, expiresAtUtc: new Date(expiresAtMs).toISOString() })
+      result.sent.push({ offerId, entryId, expiresAtUtc: new Date(expiresAtMs).toISOString(), channels })
     }
     return result
   })

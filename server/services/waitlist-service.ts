@@ -20,6 +20,7 @@ import { busySegments, providersByIds, type ProviderRow } from '../repositories/
 import { findPatient } from '../repositories/patients'
 import { findVisitRow } from '../repositories/visits'
 import { writeAudit } from '../repositories/audit-log'
+import { offerChannels } from './sms/channels'
 import { closeEntry, entriesOfferedAt, findEntry, insertEntry, listEntries, openEntriesForSite, openEntryIdsOfPatient } from '../repositories/waitlist'
 import { planItems, type ResolvedPlan } from './plan-service'
 
@@ -164,13 +165,19 @@ export async function waitlistMatches(query: WaitlistGapQuery, user: SessionUser
   const matches = await matchesIn(db, ctx)
   const offered = await entriesOfferedAt(db, gap.siteId, gap.operatoryId, gap.startMs, gap.endMs)
   const names = new Map(ctx.providers.map((provider) => [provider.id, provider.name]))
-  return {
-    gap: { siteId: gap.siteId, operatoryId: gap.operatoryId, startUtc: new Date(gap.startMs).toISOString(), endUtc: new Date(gap.endMs).toISOString() },
-    matches: matches.map(({ entry, opening }): WaitlistMatchDto => ({
+  const rows: WaitlistMatchDto[] = []
+  for (const { entry, opening } of matches) {
+    // The channels an offer would go by now (the same choice as sending: e-mail and/or text).
+    const { channels } = await offerChannels(db, 'offer', entry.patientId, ctx.calendar.settings, localDateAt(opening.startMs, gap.timeZone))
+    rows.push({
       entry, siteId: opening.siteId, operatoryId: opening.operatoryId, providerId: opening.providerId, providerName: names.get(opening.providerId) ?? '',
       startUtc: new Date(opening.startMs).toISOString(), endUtc: new Date(opening.endMs).toISOString(), startLocalIso: localIsoAt(opening.startMs, gap.timeZone),
-      canOffer: Boolean(entry.patientEmail && entry.emailConsent), offered: offered.has(entry.id),
-    })),
+      canOffer: channels.length > 0, channels, offered: offered.has(entry.id), offeredBy: offered.get(entry.id) ?? [],
+    })
+  }
+  return {
+    gap: { siteId: gap.siteId, operatoryId: gap.operatoryId, startUtc: new Date(gap.startMs).toISOString(), endUtc: new Date(gap.endMs).toISOString() },
+    matches: rows,
   }
 }
 

@@ -30,6 +30,39 @@ export function visitText(kind: TextKind, facts: TextFacts): string {
   }
 }
 
+export interface OfferTextFacts {
+  siteName: string
+  /** The offered time, "Tue, Dec 8, 9:00 AM" in the site's clock and date order (formatDateTime 'short'). */
+  when: string
+  /** When the link closes, the same way. */
+  until: string
+  link: string
+  /** A minor's offer goes to the guardian: greet them and name the patient (given name only). */
+  guardian?: { greeting: string; patientFirstName: string }
+}
+
+/**
+ * A waitlist offer (issue 17 §2) as a text: a freed time, first to accept gets it, the signed offer
+ * link. No plan or procedure (minimum necessary, as visit texts). No reply keywords: the link answers.
+ */
+export function offerText(facts: OfferTextFacts): string {
+  const hello = facts.guardian ? `Hello ${facts.guardian.greeting}, ` : ''
+  const whom = facts.guardian ? ` for ${facts.guardian.patientFirstName}` : ''
+  return `${facts.siteName}: ${hello}a dental visit time has come free${whom}: ${facts.when}. The first to accept gets it. Open until ${facts.until}: ${facts.link}`
+}
+
+export interface MoveOfferTextFacts extends OfferTextFacts {
+  /** The visit's time now, the same way. */
+  from: string
+}
+
+/** A move offer (issue 17 §3) as a text: both times, nothing moves unless they accept, the signed link. */
+export function moveOfferText(facts: MoveOfferTextFacts): string {
+  const hello = facts.guardian ? `Hello ${facts.guardian.greeting}, ` : ''
+  const whose = facts.guardian ? `${facts.guardian.patientFirstName}'s visit` : 'your visit'
+  return `${facts.siteName}: ${hello}could ${whose} on ${facts.from} move to ${facts.when}? It stays as booked unless you accept by ${facts.until}: ${facts.link}`
+}
+
 export type ReplyOutcome = 'confirmed' | 'already_confirmed' | 'cancel_requested' | 'cancelled' | 'opted_out' | 'opted_in' | 'unanswered' | 'no_visit'
 
 /** The short answer to a patient's reply. */

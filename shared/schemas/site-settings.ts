@@ -21,7 +21,7 @@ export const SiteSettingsSchema = z.object({
   patientCancel: z.enum(['request', 'cancel'], { error: "must be 'request' or 'cancel'" }),
   whatToBring: plainText(z.string({ error: 'is required' }).trim().min(1, 'is required').max(300, 'must be at most 300 characters')),
   alarmMinutes: wholeMinutes(1_440, 'a day').min(5, 'must be at least 5 minutes'),
-  /** Left out: the stored choice stays. */
-  messageChannels: z.object({ invitation: channelList, update: channelList, cancellation: channelList, reminder: channelList }).optional(),
+  /** Left out: the stored choice stays. Offers left out (an older form): their default, e-mail and text. */
+  messageChannels: z.object({ invitation: channelList, update: channelList, cancellation: channelList, reminder: channelList, offer: channelList.optional(), move_offer: channelList.optional() }).optional(),
 })
 export type SiteSettingsBody = z.infer<typeof SiteSettingsSchema>

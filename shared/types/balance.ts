@@ -4,6 +4,7 @@ import type { OutcomeRates } from '../domain/visit-outcomes'
 import type { RefillFigures } from '../domain/balance-refill'
 import type { SuggestionKind } from '../domain/balance-suggestions'
 import type { RecallKind } from '../domain/recall'
+import type { Channel } from '../domain/sms-channels'
 import type { ChairTimeRequest } from '../schemas/templates'
 
 export interface NamedUse extends UseFigures {
@@ -66,6 +67,8 @@ export interface WaitlistFitSuggestion extends SuggestionBase {
   /** The earliest start the entry can take in the gap. */
   startUtc: string
   canOffer: boolean
+  /** How an offer would go (e-mail and/or text), as `WaitlistMatchDto`. */
+  channels: Channel[]
   offered: boolean
 }
 

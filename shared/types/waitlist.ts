@@ -2,6 +2,7 @@
 import type { ChairTimeRequest } from '../schemas/templates'
 import type { PartOfDay } from './openings'
 import type { PublicSiteFacts } from './display'
+import type { Channel } from '../domain/sms-channels'
 
 type ChairTimeItem = ChairTimeRequest['items'][number]
 
@@ -40,10 +41,14 @@ export interface WaitlistMatchDto {
   startUtc: string
   endUtc: string
   startLocalIso: string
-  /** False when the patient cannot be e-mailed (no address or no consent). */
+  /** False when neither e-mail nor text reaches the patient (or a minor's guardian). */
   canOffer: boolean
+  /** How an offer would go now: the site's choice narrowed to consent and contact (`offerChannels`). */
+  channels: Channel[]
   /** Offers already open for this entry at this time. */
   offered: boolean
+  /** The channels the open offer went by (empty when none is open). */
+  offeredBy: Channel[]
 }
 
 export interface WaitlistMatchesDto {
@@ -53,7 +58,8 @@ export interface WaitlistMatchesDto {
 }
 
 export interface SentOffersDto {
-  sent: Array<{ offerId: number; entryId: number; expiresAtUtc: string }>
+  /** Each offer made, with the channels it went by (e-mail and/or text). */
+  sent: Array<{ offerId: number; entryId: number; expiresAtUtc: string; channels: Channel[] }>
   /** Entries not offered, with the reason in words. */
   skipped: Array<{ entryId: number; reason: string }>
 }

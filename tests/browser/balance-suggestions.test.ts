@@ -101,7 +101,8 @@ for (const viewport of [{ width: 1440, height: 900 }, { width: 1024, height: 768
       const suggestion = page.getByTestId('balance-suggestion').filter({ hasText: patientName })
       if (viewport.width === 1440) {
         await suggestion.getByRole('button', { name: 'Send an offer' }).click()
-        await expect.poll(() => suggestion.getByTestId('suggestion-outcome').textContent()).toMatch(/^Offer e-mailed to /)
+        expect(await suggestion.getByTestId('offer-channels').textContent()).toBe('by e-mail')
+        await expect.poll(() => suggestion.getByTestId('suggestion-outcome').textContent()).toMatch(/^Offer sent to .+ by e-mail; open until /)
         await screenshot(page, 'balance-offer-sent')
       } else {
         await suggestion.getByRole('button', { name: 'Book in the drawer' }).click()

@@ -11,6 +11,7 @@ import { createAnnex, FILLING, type Annex } from '../helpers/booking-fixtures'
 import { createStaff, middayZone, startIn, STAFF_PASSWORD } from '../helpers/midday'
 import { mailsContaining, pollUntil } from '../helpers/mail'
 import { addDays, todayIn } from '../../shared/utils/local-date'
+import { freshNumber } from '../helpers/sms'
 
 let desk: BrowserSession
 let annex: Annex
@@ -27,6 +28,8 @@ beforeAll(async () => {
     await testDb()('patients').where({ id }).update({ email, email_consent: true })
     emails.push(email)
   }
+  // The first waiting patient also agreed to texts: their offer goes by e-mail and text.
+  await testDb()('patients').where({ id: annex.patientIds[1] }).update({ phone: freshNumber().written, sms_consent: true })
   deskEmail = (await createStaff('front_desk', [annex.siteId])).email
   const admin = await signedInAs('admin@fernhollow.test')
   const booked = await admin.post('/api/visits', { siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0], patientId: annex.patientIds[0], items: FILLING, startUtc: startIn(150) })
@@ -58,9 +61,13 @@ describe('a cancelled visit refills from the waitlist', () => {
     await expect.poll(() => gap.getByTestId('waitlist-fit-count').textContent()).toBe('2 on the waitlist fit')
     await gap.getByTestId('show-matches').click()
     await expect.poll(() => gap.getByTestId('waitlist-match-row').count()).toBe(2)
+    // How each offer would go: e-mail and text, or e-mail only.
+    expect((await gap.getByTestId('offer-channels').allTextContents()).map((text) => text.trim()).sort()).toEqual(['· offer by e-mail', '· offer by e-mail and text'])
     await screenshot(page, 'waitlist-freed-gap')
     await gap.getByTestId('send-offers').click()
     await expect.poll(() => gap.getByTestId('waitlist-gap-message').textContent()).toContain('Offers sent to 2 patients')
+    // Per offer, the channels it went by.
+    expect(await gap.getByTestId('waitlist-gap-message').textContent()).toMatch(/by e-mail and text; .* by e-mail\)|by e-mail; .* by e-mail and text\)/)
     await screenshot(page, 'waitlist-offers-sent')
 
     // The offer e-mails as they arrived at the mail catcher; their links open the offer page.

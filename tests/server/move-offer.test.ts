@@ -1,5 +1,6 @@
 // Issue 17 §3: Balance's "consolidate" suggestion becomes a move offer. The front desk sends it; the
-// patient (or a minor's guardian) gets an e-mail with a signed link; the page shows both times; accepting
+// patient (or a minor's guardian) gets an e-mail and/or a text (the channels they agreed to; real SMTP into
+// the catcher, real HTTP to the SMS fake) with a signed link; the page shows both times; accepting
 // moves the visit through the booking service's move (the same locks and overlap checks), so a time
 // taken meanwhile is a 409 and the visit stays; declining or expiry leave the visit untouched.
 // Private annexes only (createMailAnnex): no demo weeks used. Dates from today.
@@ -12,13 +13,16 @@ import { FILLING } from '../helpers/booking-fixtures'
 import { createStaff, startIn, STAFF_PASSWORD } from '../helpers/midday'
 import { waitForOutboxMail } from '../helpers/mail'
 import { signOfferToken } from '../../server/utils/offer-token'
+import { formatDateTime } from '../../shared/utils/display-time'
+import { fakeMessages, freshNumber } from '../helpers/sms'
 
 let annex: MailAnnex
 let desk: ApiClient
 let admin: ApiClient
 
 beforeAll(async () => {
-  annex = await createMailAnnex({ patients: 8 })
+  // No quiet hours: texts go at once whatever the hour the suite runs.
+  annex = await createMailAnnex({ patients: 11, settings: { quietHours: null } })
   admin = await signedInAs('admin@fernhollow.test')
   const staff = await createStaff('front_desk', [annex.siteId])
   desk = new ApiClient()
@@ -191,5 +195,79 @@ describe('the patient answers', () => {
     expect(mail.parsed.text).toContain('Hello Rosa Quill')
     expect(mail.parsed.text).toContain('The dental visit for')
     expect(mail.raw).not.toContain(annex.emails[1]!)
+  })
+})
+
+describe('by text as well (texts of issue 18)', () => {
+  const moveRows = (visitId: number) => testDb()('outbox').where({ kind: 'move_offer', visit_id: visitId }).orderBy('id')
+
+  async function sentText(visitId: number, to: string) {
+    await expect.poll(async () => (await moveRows(visitId)).find((row) => row.channel === 'sms')?.state, { timeout: 20_000, interval: 200 }).toBe('sent')
+    const row = (await moveRows(visitId)).find((row) => row.channel === 'sms')!
+    const text = (await fakeMessages(to)).find((message) => message.sid === row.message_id)
+    expect(text, `move offer text at ${to}`).toBeDefined()
+    return text!.body
+  }
+
+  it('a consenting patient gets the e-mail and a text with both times and the same link; the texted link opens the page and accepting moves the visit once', async () => {
+    const number = freshNumber()
+    await testDb()('patients').where({ id: annex.patientIds[8] }).update({ phone: number.written, sms_consent: true })
+    const { visit, proposed } = await visitWithProposal(8, 48)
+    const sent = await send(visit.id, proposed)
+    expect(sent.status, JSON.stringify(sent.body)).toBe(201)
+    expect(sent.body.channels).toEqual(['email', 'sms'])
+    const text = await sentText(visit.id, number.e164)
+    const site = await testDb()('sites').where({ id: annex.siteId }).first('time_zone', 'clock', 'date_order')
+    const style = { timeZone: site.time_zone, clock: site.clock, dateOrder: site.date_order }
+    // Both times in the site's clock and date order, through the shared formatter.
+    expect(text).toContain(`could your visit on ${formatDateTime(visit.startUtc, style)} move to ${formatDateTime(proposed, style)}?`)
+    const link = /(https?:\/\/\S+\/move-offer\/([A-Za-z0-9._%-]+))$/.exec(text)
+    expect(link).not.toBeNull()
+    const mail = await waitForOutboxMail(annex.emails[8]!, (await moveRows(visit.id)).find((row) => row.channel === 'email')!.id)
+    expect(mail.parsed.text).toContain(link![1])
+    const page = await fetch(link![1]!)
+    expect(page.status).toBe(200)
+    expect(page.headers.get('content-type')).toContain('text/html')
+    const token = decodeURIComponent(link![2]!)
+    const accepted = await new ApiClient().post(`/api/move-offer/${encodeURIComponent(token)}/accept`)
+    expect(accepted.status, JSON.stringify(accepted.body)).toBe(200)
+    expect(await visitStart(visit.id)).toBe(proposed)
+    expect((await new ApiClient().post(`/api/move-offer/${encodeURIComponent(token)}/accept`)).body.state).toBe('accepted')
+    expect(await testDb()('audit_log').where({ entity: 'visit', entity_id: String(visit.id), action: 'visit_moved' }).count({ n: '*' })).toEqual([{ n: 1 }])
+  })
+
+  it('without text consent only the e-mail goes; a minor\'s text goes to the guardian\'s phone; with neither channel, 409 in words', async () => {
+    const mailOnly = freshNumber()
+    await testDb()('patients').where({ id: annex.patientIds[9] }).update({ phone: mailOnly.written, sms_consent: false })
+    const first = await visitWithProposal(9, 54)
+    const sent = await send(first.visit.id, first.proposed)
+    expect(sent.status, JSON.stringify(sent.body)).toBe(201)
+    expect(sent.body.channels).toEqual(['email'])
+    expect((await moveRows(first.visit.id)).map((row) => row.channel)).toEqual(['email'])
+    await waitForOutboxMail(annex.emails[9]!, (await moveRows(first.visit.id))[0]!.id)
+    expect(await fakeMessages(mailOnly.e164)).toEqual([])
+
+    const child = freshNumber()
+    const guardian = freshNumber()
+    await testDb()('patients').where({ id: annex.patientIds[10] }).update({
+      date_of_birth: DateTime.now().minus({ years: 9 }).toISODate(), phone: child.written, sms_consent: true,
+      guardian_name: 'Rosa Quill', guardian_email: null, guardian_phone: guardian.written,
+    })
+    const second = await visitWithProposal(10, 60)
+    const minor = await send(second.visit.id, second.proposed)
+    expect(minor.status, JSON.stringify(minor.body)).toBe(201)
+    // No guardian e-mail on file: the e-mail would go to the child, so only the guardian's text goes.
+    expect(minor.body.channels).toEqual(['sms'])
+    const text = await sentText(second.visit.id, guardian.e164)
+    const { first_name: firstName } = await testDb()('patients').where({ id: annex.patientIds[10] }).first('first_name')
+    expect(text).toContain(`Hello Rosa Quill, could ${firstName}'s visit on`)
+    expect(await fakeMessages(child.e164)).toEqual([])
+
+    await testDb()('patients').where({ id: annex.patientIds[10] }).update({ guardian_phone: null })
+    const third = await visitWithProposal(10, 66)
+    const refused = await send(third.visit.id, third.proposed)
+    expect(refused.status).toBe(409)
+    expect(JSON.stringify(refused.body)).toMatch(/No move offer sent: no e-mail or text can reach them: .*no guardian e-mail address.*; .*no guardian mobile number/)
+    expect(await testDb()('move_offers').where({ visit_id: third.visit.id }).count({ n: '*' })).toEqual([{ n: 0 }])
   })
 })

@@ -10,28 +10,16 @@ import { startAppServer, type RunningServer } from '../helpers/app-server'
 import { closeTestDb, testDb } from '../helpers/db'
 import { bookingFor, createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
 import { atAhead, MONDAY, TUESDAY, WEDNESDAY } from '../helpers/dates'
+import { fakeMessages, freshNumber } from '../helpers/sms'
 
 const ZONE = 'America/Los_Angeles'
 const FAKE = process.env.NUXT_SMS_FAKE_URL!
 const TOKEN = process.env.NUXT_SMS_AUTH_TOKEN!
 const servers: RunningServer[] = []
-const ALL_TEXT = { invitation: ['email', 'sms'], update: ['email', 'sms'], cancellation: ['email', 'sms'], reminder: ['email', 'sms'] }
+const ALL_TEXT = { invitation: ['email', 'sms'], update: ['email', 'sms'], cancellation: ['email', 'sms'], reminder: ['email', 'sms'], offer: ['email', 'sms'], move_offer: ['email', 'sms'] }
 // Procedure, tooth and anaesthetic words a text must never carry (HHS OCR: minimum necessary, 45 CFR 164.502(b)).
 const CLINICAL = /filling|composite|COMP-POST|tooth|surface|\bMO\b|numb|anaesthe|anesthe|molar/i
 
-interface FakeMessage { sid: string; to: string; from: string; body: string; status: string; direction: string }
-
-async function fakeMessages(to: string): Promise<FakeMessage[]> {
-  const response = await fetch(`${FAKE}/_fake/messages?to=${encodeURIComponent(to)}`)
-  return (await response.json()) as FakeMessage[]
-}
-
-/** A fictional number (555-01xx) with an area code the demo's patients do not use; line 98/99 only when asked. */
-function freshNumber(line?: string): { written: string; e164: string } {
-  const area = String(600 + Math.floor(Math.random() * 300))
-  const last = line ?? String(Math.floor(Math.random() * 98)).padStart(2, '0')
-  return { written: `(${area}) 555-01${last}`, e164: `+1${area}55501${last}` }
-}
 
 async function textAnnex(lane: string, settings: Record<string, unknown> = {}, patients = 4): Promise<MailAnnex & { numbers: string[] }> {
   // No quiet hours unless a test sets them: the suite runs at any hour.

@@ -1,8 +1,9 @@
 // Issue 17 §2: the waitlist refills freed time. A cancelled visit or one marked did not come frees its
 // chair time; the waiting patients whose plan fits it (the openings engine restricted to that time) are
-// ranked by priority, then by how long they have waited. Offers go by e-mail; the first patient to accept
-// gets the time through the booking transaction, everyone else hears "this time has just been taken".
-// Private annexes only (createMailAnnex): no demo weeks used.
+// ranked by priority, then by how long they have waited. Offers go by e-mail and by text (to the channels
+// the patient, or a minor's guardian, agreed to: real SMTP into the catcher, real HTTP to the SMS fake);
+// the first patient to accept gets the time through the booking transaction, everyone else hears "this
+// time has just been taken". Private annexes only (createMailAnnex): no demo weeks used.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DateTime } from 'luxon'
 import { ApiClient, signedInAs } from '../helpers/api-client'
@@ -11,12 +12,16 @@ import { createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
 import { FILLING } from '../helpers/booking-fixtures'
 import { startIn } from '../helpers/midday'
 import { signOfferToken } from '../../server/utils/offer-token'
+import { formatDateTime } from '../../shared/utils/display-time'
+import { waitForOutboxMail } from '../helpers/mail'
+import { fakeMessages, freshNumber } from '../helpers/sms'
 
 let annex: MailAnnex
 let admin: ApiClient
 
 beforeAll(async () => {
-  annex = await createMailAnnex({ patients: 30 })
+  // No quiet hours: texts go at once whatever the hour the suite runs.
+  annex = await createMailAnnex({ patients: 35, settings: { quietHours: null } })
   admin = await signedInAs('admin@fernhollow.test')
 })
 afterAll(async () => { await closeTestDb() })
@@ -195,6 +200,99 @@ describe('offers', () => {
     // A tampered link is simply not valid.
     const tampered = (await tokenOf(refusing!.offerId)).slice(0, -2) + 'AA'
     expect((await new ApiClient().get(`/api/offer/${encodeURIComponent(tampered)}`)).status).toBe(404)
+    await closeAll()
+  })
+})
+
+describe('offers by text as well (issue 17 §2, texts of issue 18)', () => {
+  const offerRows = (offerId: number) => testDb()('outbox').where({ kind: 'offer' }).whereRaw("JSON_EXTRACT(payload, '$.offerId') = ?", [offerId]).orderBy('id')
+
+  async function sentText(offerId: number, to: string) {
+    await expect.poll(async () => (await offerRows(offerId)).find((row) => row.channel === 'sms')?.state, { timeout: 20_000, interval: 200 }).toBe('sent')
+    const row = (await offerRows(offerId)).find((row) => row.channel === 'sms')!
+    const text = (await fakeMessages(to)).find((message) => message.sid === row.message_id)
+    expect(text, `text of offer ${offerId} at ${to}`).toBeDefined()
+    return text!.body
+  }
+
+  it('e-mail and text to a consenting patient, e-mail only without text consent, the guardian\'s phone for a minor, nobody reachable skipped; the texted link opens the page and books once', async () => {
+    const [both, mailOnly, minor, nobody] = [30, 31, 32, 33].map((index) => annex.patientIds[index]!)
+    const numbers = { both: freshNumber(), mailOnly: freshNumber(), child: freshNumber(), guardian: freshNumber() }
+    await testDb()('patients').where({ id: both }).update({ phone: numbers.both.written, sms_consent: true })
+    await testDb()('patients').where({ id: mailOnly }).update({ phone: numbers.mailOnly.written, sms_consent: false })
+    const guardianEmail = `guardian-offer-${annex.siteId}@fernhollow.test`
+    await testDb()('patients').where({ id: minor }).update({
+      date_of_birth: DateTime.now().minus({ years: 9 }).toISODate(), phone: numbers.child.written, sms_consent: true,
+      guardian_name: 'Rosa Quill', guardian_email: guardianEmail, guardian_phone: numbers.guardian.written,
+    })
+    await testDb()('patients').where({ id: nobody }).update({ email_consent: false, sms_consent: false })
+
+    const visit = await book(34, startIn(98 * 60))
+    await admin.post(`/api/visits/${visit.id}/cancel`, { reason: 'Moved away' })
+    const entries = [await wait(30), await wait(31), await wait(32), await wait(33)]
+    // Before sending, the gap panel says how each offer would go.
+    const found = await admin.get(`/api/waitlist/matches?visitId=${visit.id}`)
+    expect(found.status, JSON.stringify(found.body)).toBe(200)
+    const planned = new Map((found.body.matches as Array<{ entry: { id: number }; channels: string[]; canOffer: boolean }>).map((match) => [match.entry.id, match]))
+    expect(entries.map((entry) => planned.get(entry.id)?.channels)).toEqual([['email', 'sms'], ['email'], ['email', 'sms'], []])
+    expect(planned.get(entries[3]!.id)?.canOffer).toBe(false)
+
+    const sent = await admin.post('/api/waitlist/offers', { visitId: visit.id, entryIds: entries.map((entry) => entry.id) })
+    expect(sent.status, JSON.stringify(sent.body)).toBe(200)
+    const offerOf = new Map((sent.body.sent as Array<{ entryId: number; offerId: number; channels: string[] }>).map((offer) => [offer.entryId, offer]))
+    expect(entries.map((entry) => offerOf.get(entry.id)?.channels)).toEqual([['email', 'sms'], ['email'], ['email', 'sms'], undefined])
+    // Neither channel: no offer made, and the front desk reads why.
+    expect(sent.body.skipped).toHaveLength(1)
+    expect(sent.body.skipped[0].entryId).toBe(entries[3]!.id)
+    expect(sent.body.skipped[0].reason).toMatch(/^no e-mail or text can reach them: the patient has not agreed to e-mail; the patient has not agreed to texts$/)
+    expect(await testDb()('offers').where({ entry_id: entries[3]!.id }).count({ n: '*' }).first()).toMatchObject({ n: 0 })
+    // The matches now say which channels the open offers went by.
+    const after = await admin.get(`/api/waitlist/matches?visitId=${visit.id}`)
+    expect((after.body.matches as Array<{ entry: { id: number }; offeredBy: string[] }>).find((match) => match.entry.id === entries[0]!.id)?.offeredBy).toEqual(['email', 'sms'])
+
+    const site = await testDb()('sites').where({ id: annex.siteId }).first('time_zone', 'clock', 'date_order')
+    const when = formatDateTime(visit.startUtc, { timeZone: site.time_zone, clock: site.clock, dateOrder: site.date_order })
+    const bothOffer = offerOf.get(entries[0]!.id)!
+    const text = await sentText(bothOffer.offerId, numbers.both.e164)
+    expect(text).toMatch(/^Test annex[^:]*: a dental visit time has come free: /)
+    expect(text).toContain(when) // the site's clock and date order, through the shared formatter
+    const mailRow = (await offerRows(bothOffer.offerId)).find((row) => row.channel === 'email')!
+    const mail = await waitForOutboxMail(annex.emails[30]!, mailRow.id)
+    // The same signed link in both.
+    const textLink = /(https?:\/\/\S+\/offer\/([A-Za-z0-9._%-]+))$/.exec(text)
+    expect(textLink).not.toBeNull()
+    expect(mail.parsed.text).toContain(textLink![1])
+
+    // E-mail only: no text row, nothing at the fake for that number.
+    const mailOnlyOffer = offerOf.get(entries[1]!.id)!
+    expect((await offerRows(mailOnlyOffer.offerId)).map((row) => row.channel)).toEqual(['email'])
+    await waitForOutboxMail(annex.emails[31]!, (await offerRows(mailOnlyOffer.offerId))[0]!.id)
+    expect(await fakeMessages(numbers.mailOnly.e164)).toEqual([])
+
+    // A minor: the guardian's phone and e-mail, greeting the guardian and naming the child; never the child's phone.
+    const minorOffer = offerOf.get(entries[2]!.id)!
+    const guardianText = await sentText(minorOffer.offerId, numbers.guardian.e164)
+    const child = await testDb()('patients').where({ id: minor }).first('first_name')
+    expect(guardianText).toContain(`Hello Rosa Quill, a dental visit time has come free for ${child.first_name}`)
+    await waitForOutboxMail(guardianEmail, (await offerRows(minorOffer.offerId)).find((row) => row.channel === 'email')!.id)
+    expect(await fakeMessages(numbers.child.e164)).toEqual([])
+
+    // The texted link opens the offer page; accepting from it books the time, once.
+    const page = await fetch(textLink![1]!)
+    expect(page.status).toBe(200)
+    expect(page.headers.get('content-type')).toContain('text/html')
+    const token = decodeURIComponent(textLink![2]!)
+    const shown = await new ApiClient().get(`/api/offer/${encodeURIComponent(token)}`)
+    expect(shown.body).toMatchObject({ state: 'sent', startUtc: new Date(visit.startUtc).toISOString() })
+    const accepted = await new ApiClient().post(`/api/offer/${encodeURIComponent(token)}/accept`)
+    expect(accepted.status, JSON.stringify(accepted.body)).toBe(201)
+    expect(accepted.body.state).toBe('accepted')
+    const again = await new ApiClient().post(`/api/offer/${encodeURIComponent(token)}/accept`)
+    expect(again.body.state).toBe('accepted')
+    const late = await new ApiClient().post(`/api/offer/${encodeURIComponent(await tokenOf(minorOffer.offerId))}/accept`)
+    expect(late.status).toBe(409)
+    const booked = await testDb()('visits').where({ site_id: annex.siteId, start_utc: new Date(visit.startUtc) }).whereNot('state', 'cancelled').select('patient_id')
+    expect(booked).toEqual([{ patient_id: both }])
     await closeAll()
   })
 })

@@ -5,7 +5,7 @@
 import type { Db } from '../../utils/db'
 import type { NewOutboxMessage } from '../../repositories/outbox'
 import { findTextPatient, type TextPatient } from '../../repositories/sms'
-import { channelsFor, type ChannelKind } from '#shared/domain/sms-channels'
+import { channelsFor, channelsWithReason, reachOn, type Channel, type ChannelKind } from '#shared/domain/sms-channels'
 import { toE164 } from '#shared/domain/sms-phone'
 import type { CountryCode } from 'libphonenumber-js'
 import { smsConfig } from '../../utils/sms-client'
@@ -36,4 +36,15 @@ export async function onChannels(db: Db, patientId: number | undefined, siteSett
   if (patientId === undefined || !messages.length) return []
   const reach = known ?? await textReachOf(db, patientId)
   return messages.flatMap((message) => channelsFor(message.kind as ChannelKind, siteSettings, reach).map((channel) => ({ ...message, channel })))
+}
+
+/**
+ * The channels an offer (a waitlist offer, a move offer) goes by: the site's choice for its kind,
+ * narrowed to what reaches the patient, or for a minor on `onDate` their guardian (`reachOn`). With
+ * none, `why` says in words what stops each channel, for the front desk.
+ */
+export async function offerChannels(db: Db, kind: Extract<ChannelKind, 'offer' | 'move_offer'>, patientId: number, siteSettings: Record<string, unknown>, onDate: string): Promise<{ channels: Channel[]; why: string | null }> {
+  const patient = await findTextPatient(db, patientId)
+  if (!patient) return { channels: [], why: 'the patient no longer exists' }
+  return channelsWithReason(kind, siteSettings, reachOn(patient, onDate, smsConfig().defaultCountry as CountryCode))
 }

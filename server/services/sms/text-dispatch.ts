@@ -1,7 +1,8 @@
 // Sending one claimed outbox row of channel 'sms' through the SDK's messages.create. The claim,
 // lease, backoff and give-up are the e-mail dispatcher's (../mail/dispatcher.ts); here: check again
 // (number, consent, opt-out, the visit), wait out the site's quiet hours, render, send, store the
-// message SID and status. The service then reports delivery to POST /api/sms/status.
+// message SID and status. The service then reports delivery to POST /api/sms/status. Waitlist offers
+// and move offers (issue 17) are texted with the facts and signed link of their e-mails (`noticeText`).
 import type { Db } from '../../utils/db'
 import type { OutboxRow } from '../../repositories/outbox'
 import { markFailed, markSkipped, payloadOf } from '../../repositories/outbox'
@@ -17,6 +18,7 @@ import { smsConfig, useSmsClient, webhookUrlOf } from '../../utils/sms-client'
 import { useLogger } from '../../utils/logger'
 import { patientLinks, visitToken } from '../mail/links'
 import { messageRecipient, visitFacts } from '../mail/visit-facts'
+import { noticeText } from '../mail/notice-facts'
 import { reasonToSkipForVisit, retryOrGiveUp, type DispatchRound, type DispatchSettings } from '../mail/dispatcher'
 import { useVisitLinkSecret } from '../../utils/visit-link-secret'
 
@@ -92,6 +94,25 @@ function permanentFailure(error: unknown): string | null {
   return null
 }
 
+/** A waitlist offer or a move offer (issue 17): no visit message, their own facts (`noticeText`). */
+const NOTICE_KINDS = new Set<string>(['offer', 'move_offer'])
+
+interface ReadyText { to: string; text: string; site: TextSite }
+
+/** The text as it goes out now, or why it is not sent any more. */
+async function readyText(db: Db, row: OutboxRow, settings: Pick<DispatchSettings, 'publicUrl' | 'linkSecret'>): Promise<ReadyText | { skip: string }> {
+  if (NOTICE_KINDS.has(row.kind)) {
+    const notice = await noticeText(db, row, settings)
+    if ('skip' in notice) return notice
+    const site = await findTextSite(db, notice.siteId)
+    return site ? { to: notice.to, text: notice.text, site } : { skip: 'the site no longer exists' }
+  }
+  const target = await targetOf(db, row)
+  const skip = typeof target === 'string' ? target : reasonToSkipText(row, target, Date.now())
+  if (skip || typeof target === 'string') return { skip: skip ?? 'nothing to send' }
+  return { to: target.to!, text: bodyOf(row, target, settings), site: target.site }
+}
+
 export async function sendTextRow(db: Db, row: OutboxRow, settings: DispatchSettings, round: DispatchRound): Promise<void> {
   let sent: { sid: string; status: string; rendered: RenderedMessage }
   try {
@@ -101,30 +122,29 @@ export async function sendTextRow(db: Db, row: OutboxRow, settings: DispatchSett
       round.skipped += 1
       return
     }
-    const target = await targetOf(db, row)
-    const skip = typeof target === 'string' ? target : reasonToSkipText(row, target, Date.now())
-    if (skip || typeof target === 'string') {
-      await markSkipped(db, row, skip ?? 'nothing to send')
+    const ready = await readyText(db, row, settings)
+    if ('skip' in ready) {
+      await markSkipped(db, row, ready.skip)
       round.skipped += 1
       return
     }
-    // An answer to a reply goes at once (the patient just wrote); anything else waits out quiet hours.
+    // An answer to a reply goes at once (the patient just wrote); anything else waits out quiet hours
+    // (an offer whose link closes meanwhile is then skipped as expired).
     if (row.kind !== 'reply_confirmation') {
-      const quiet = mailSettingsOf(target.site.settings).quietHours
-      const until = quietUntilMs(Date.now(), quiet, target.site.timeZone)
+      const quiet = mailSettingsOf(ready.site.settings).quietHours
+      const until = quietUntilMs(Date.now(), quiet, ready.site.timeZone)
       if (until !== null) {
         await deferText(db, row, new Date(until), `quiet hours at the site: waits until ${quiet!.end}`)
         round.skipped += 1
         return
       }
     }
-    const text = bodyOf(row, target, settings)
     const { from } = smsConfig()
     const message = await client.messages.create({
-      to: target.to!, body: text, statusCallback: webhookUrlOf('/api/sms/status'),
+      to: ready.to, body: ready.text, statusCallback: webhookUrlOf('/api/sms/status'),
       ...(from.startsWith('MG') ? { messagingServiceSid: from } : { from }),
     })
-    sent = { sid: message.sid, status: message.status, rendered: rendered(target.to!, text) }
+    sent = { sid: message.sid, status: message.status, rendered: rendered(ready.to, ready.text) }
   } catch (error) {
     const permanent = permanentFailure(error)
     if (permanent) {
@@ -141,8 +161,13 @@ export async function sendTextRow(db: Db, row: OutboxRow, settings: DispatchSett
 
 /** The Outbox screen's preview of a text not yet sent: as it would go out now. */
 export async function textPreview(db: Db, row: OutboxRow): Promise<RenderedMessage | null> {
+  const { mail } = useRuntimeConfig()
+  const settings = { publicUrl: String(mail.publicUrl), linkSecret: useVisitLinkSecret() }
+  if (NOTICE_KINDS.has(row.kind)) {
+    const notice = await noticeText(db, row, settings)
+    return 'skip' in notice ? null : rendered(notice.to, notice.text)
+  }
   const target = await targetOf(db, row)
   if (typeof target === 'string' || !target.to) return null
-  const { mail } = useRuntimeConfig()
-  return rendered(target.to, bodyOf(row, target, { publicUrl: String(mail.publicUrl), linkSecret: useVisitLinkSecret() }))
+  return rendered(target.to, bodyOf(row, target, settings))
 }

@@ -1,0 +1,18 @@
+// Reading what really arrived at the local SMS fake over HTTP (scripts/sms-fake.ts, started by
+// scripts/test.sh), and fictional numbers to send to.
+export interface FakeMessage { sid: string; to: string; from: string; body: string; status: string; direction: string }
+
+const FAKE = () => process.env.NUXT_SMS_FAKE_URL!
+
+/** The texts the fake has taken for this number (E.164), oldest first. */
+export async function fakeMessages(to: string): Promise<FakeMessage[]> {
+  const response = await fetch(`${FAKE()}/_fake/messages?to=${encodeURIComponent(to)}`)
+  return (await response.json()) as FakeMessage[]
+}
+
+/** A fictional number (555-01xx) with an area code the demo's patients do not use; line 98/99 only when asked. */
+export function freshNumber(line?: string): { written: string; e164: string } {
+  const area = String(600 + Math.floor(Math.random() * 300))
+  const last = line ?? String(Math.floor(Math.random() * 98)).padStart(2, '0')
+  return { written: `(${area}) 555-01${last}`, e164: `+1${area}55501${last}` }
+}
