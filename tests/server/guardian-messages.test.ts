@@ -13,9 +13,9 @@ import { closeTestDb, testDb } from '../helpers/db'
 import { bookingFor, createMailAnnex, outboxRowsOf, type MailAnnex } from '../helpers/mail-fixtures'
 import { calendarPart, mailsContaining, parseCalendar, pollUntil, veventOf, waitForOutboxMail } from '../helpers/mail'
 import { MONDAY, TUESDAY, WEDNESDAY, weekdayAhead } from '../helpers/dates'
+import { fakeMessages, freshNumber } from '../helpers/sms'
 
 const ZONE = 'America/Los_Angeles'
-const FAKE = process.env.NUXT_SMS_FAKE_URL!
 const lane = `guardian-${randomUUID().slice(0, 8)}`
 const TEXT_TOO = { invitation: ['email', 'sms'], update: ['email'], cancellation: ['email'], reminder: ['email'] }
 
@@ -24,16 +24,6 @@ let desk: ApiClient
 let annex: MailAnnex
 const tag = randomUUID().slice(0, 8)
 
-/** A fictional number (555-01xx) with an area code the demo does not use. */
-function freshNumber(): { written: string; e164: string } {
-  const area = String(600 + Math.floor(Math.random() * 300))
-  const last = String(Math.floor(Math.random() * 98)).padStart(2, '0')
-  return { written: `(${area}) 555-01${last}`, e164: `+1${area}55501${last}` }
-}
-
-async function fakeMessages(to: string): Promise<Array<{ sid: string; to: string; body: string }>> {
-  return (await (await fetch(`${FAKE}/_fake/messages?to=${encodeURIComponent(to)}`)).json()) as Array<{ sid: string; to: string; body: string }>
-}
 
 /** The birth date that makes someone `years` old exactly on `date` (their birthday). */
 function bornYearsBefore(date: string, years: number): string {
