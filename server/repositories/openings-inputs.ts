@@ -1,6 +1,7 @@
 // Reads what the openings search needs beyond the site calendar: providers and busy segments.
 import type { Db } from '../utils/db'
-import { earliestOverlappingStart } from '#shared/domain/input-bounds'
+// Relative, not #shared: the group-scale benchmark loads this file under tsx.
+import { earliestOverlappingStart } from '../../shared/domain/input-bounds'
 import type { BusySegment } from '#shared/types/openings'
 import { parseJson } from './json'
 

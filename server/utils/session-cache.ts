@@ -41,9 +41,9 @@ export function sealedSessionOf(event: H3Event): string | undefined {
   return undefined
 }
 
-/** The seal's expiry (iron's sixth field, covered by its HMAC once unsealed); 0 when it has none. */
+/** The seal's expiry (iron's `Fe26.2*id*salt*iv*data*expiry*hmacSalt*hmac`, covered by its HMAC once unsealed); 0 when it has none. */
 function sealExpiryMs(sealed: string): number {
-  const expiry = Number(sealed.split('*')[6])
+  const expiry = Number(sealed.split('*')[5])
   return Number.isFinite(expiry) && expiry > 0 ? expiry : 0
 }
 

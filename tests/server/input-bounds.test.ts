@@ -114,7 +114,7 @@ describe('the longest visit, 8 hours (MAX_VISIT_MINUTES; the overlap reads rely 
   const eightFillings = ['2', '3', '14', '15', '18', '19', '30', '31'].map((tooth) => ({ templateCode: 'COMP-POST', tooth, surfaces: 'MODB' }))
 
   it('POST /api/visits with a longer plan is a 400 naming items, saying why in plain words', async () => {
-    const response = await desk.post('/api/visits', {
+    const response = await admin.post('/api/visits', {
       patientId: annex.patientIds[0], siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0],
       startUtc: `${weekdayAhead(5, MONDAY, annex.timeZone)}T14:00:00Z`, items: eightFillings,
     })
@@ -124,7 +124,7 @@ describe('the longest visit, 8 hours (MAX_VISIT_MINUTES; the overlap reads rely 
 
   it('an openings search for it is a 400 naming items', async () => {
     const from = weekdayAhead(5, MONDAY, annex.timeZone)
-    expect400(await desk.post('/api/openings', { items: eightFillings, siteIds: [annex.siteId], from, to: from }), 'items')
+    expect400(await admin.post('/api/openings', { items: eightFillings, siteIds: [annex.siteId], from, to: from }), 'items')
   })
 
   it('a length set by hand past it is a 400 naming lengthOverride.chairMinutes', async () => {
