@@ -5,6 +5,7 @@ import type { Knex } from 'knex'
 import { DateTime } from 'luxon'
 import mysql from 'mysql2/promise'
 import { dbSettingsFromEnv } from '../../db/connection'
+import { earliestOverlappingStart } from '../../shared/domain/input-bounds'
 import { cpuSeconds, mondayAhead, percentile } from './bench'
 import { call } from './bench-http'
 
@@ -79,12 +80,13 @@ export async function httpBookings(baseURL: string, annex: BenchAnnex, cookies: 
 /**
  * What the database alone can do: a plain mysql2 loop on one connection per lane, each booking
  * locking the room and provider by writing, checking both for overlaps, inserting the visit and its
- * segments, and committing (five lane-days after the HTTP run's slots).
+ * segments, and committing (five lane-days after the HTTP run's slots). The overlap checks carry the
+ * same lower bound as the app's (earliestOverlappingStart). `connection` points it elsewhere (the cluster's write listener).
  */
-export async function rawCeiling(annex: BenchAnnex, database: string, first: number, count: number, connection: { host?: string; port?: number } = {}) {
+export async function rawCeiling(annex: BenchAnnex, database: string, first: number, count: number, connection: { host?: string; port?: number; password?: string } = {}) {
   const settings = dbSettingsFromEnv()
   const connections = await Promise.all(annex.lanes.map(async () => {
-    const opened = await mysql.createConnection({ host: connection.host ?? settings.host, port: connection.port ?? Number(settings.port), user: settings.user, password: settings.password, database, timezone: 'Z' })
+    const opened = await mysql.createConnection({ host: connection.host ?? settings.host, port: connection.port ?? Number(settings.port), user: settings.user, password: connection.password ?? settings.password, database, timezone: 'Z' })
     await opened.query("SET time_zone = '+00:00'")
     await opened.query('SET SESSION TRANSACTION ISOLATION LEVEL READ COMMITTED')
     return opened
@@ -101,8 +103,8 @@ export async function rawCeiling(annex: BenchAnnex, database: string, first: num
       await link.query('BEGIN')
       await link.query('UPDATE operatories SET booking_seq = booking_seq + 1 WHERE id = ?', [lane.operatoryId])
       await link.query('UPDATE providers SET booking_seq = booking_seq + 1 WHERE id = ?', [lane.providerId])
-      await link.query('SELECT id FROM visit_segments WHERE operatory_id = ? AND start_utc < ? AND end_utc > ? LIMIT 1', [lane.operatoryId, end, start])
-      await link.query("SELECT id FROM visit_segments WHERE provider_id = ? AND kind = 'hands_on' AND start_utc < ? AND end_utc > ? LIMIT 1", [lane.providerId, end, handsOn])
+      await link.query('SELECT id FROM visit_segments WHERE operatory_id = ? AND start_utc < ? AND start_utc > ? AND end_utc > ? LIMIT 1', [lane.operatoryId, end, earliestOverlappingStart(start.getTime()), start])
+      await link.query("SELECT id FROM visit_segments WHERE provider_id = ? AND kind = 'hands_on' AND start_utc < ? AND start_utc > ? AND end_utc > ? LIMIT 1", [lane.providerId, end, earliestOverlappingStart(handsOn.getTime()), handsOn])
       const [inserted] = await link.query<mysql.ResultSetHeader>(
         'INSERT INTO visits (site_id, operatory_id, provider_id, patient_id, start_utc, end_utc, plan, ical_uid) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
         [annex.siteId, lane.operatoryId, lane.providerId, lane.patientId, start, end, '{}', `raw-${start.getTime()}-${laneIndex}@bench`],

@@ -2,6 +2,7 @@
 // bookings that took it again (refilled time), and the visits of a site's chairs with the patient's
 // contact details and their providers' hands-on time (consolidation suggestions).
 import type { Db } from '../utils/db'
+import { earliestOverlappingStart } from '#shared/domain/input-bounds'
 import type { FreedVisit, LaterVisit } from '#shared/domain/balance-refill'
 import type { ProviderBusy } from '#shared/domain/balance-suggestions'
 
@@ -27,7 +28,7 @@ export async function freedVisits(db: Db, siteId: number, fromMs: number, toMs: 
 export async function bookedVisits(db: Db, siteId: number, fromMs: number, toMs: number): Promise<LaterVisit[]> {
   const rows: Array<{ id: number; operatory_id: number; start_utc: Date; end_utc: Date; created_at: Date }> = await db('visits')
     .where('site_id', siteId).whereNot('state', 'cancelled')
-    .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs))
+    .where('start_utc', '<', new Date(toMs)).where('start_utc', '>', earliestOverlappingStart(fromMs)).where('end_utc', '>', new Date(fromMs))
     .select('id', 'operatory_id', 'start_utc', 'end_utc', 'created_at')
   return rows.map((row) => ({ visitId: row.id, operatoryId: row.operatory_id, startMs: row.start_utc.getTime(), endMs: row.end_utc.getTime(), createdAtMs: row.created_at.getTime() }))
 }
@@ -50,7 +51,7 @@ export interface ChairVisit {
 export async function liveChairVisits(db: Db, siteId: number, fromMs: number, toMs: number): Promise<ChairVisit[]> {
   const rows = await db('visits').join('patients', 'patients.id', 'visits.patient_id')
     .where('visits.site_id', siteId).whereNotIn('visits.state', ['cancelled', 'missed'])
-    .where('visits.start_utc', '<', new Date(toMs)).where('visits.end_utc', '>', new Date(fromMs))
+    .where('visits.start_utc', '<', new Date(toMs)).where('visits.start_utc', '>', earliestOverlappingStart(fromMs)).where('visits.end_utc', '>', new Date(fromMs))
     .orderBy('visits.start_utc').limit(2000)
     .select('visits.id', 'visits.operatory_id', 'visits.provider_id', 'visits.start_utc', 'visits.end_utc', 'visits.state', 'visits.stranded_reason',
       'patients.first_name', 'patients.last_name', 'patients.phone', 'patients.email', 'patients.email_consent')
@@ -66,7 +67,7 @@ export async function providersHandsOn(db: Db, providerIds: number[], fromMs: nu
   if (!providerIds.length) return []
   const rows: Array<{ visit_id: number; provider_id: number; start_utc: Date; end_utc: Date }> = await db('visit_segments')
     .whereIn('provider_id', providerIds).where('kind', 'hands_on')
-    .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs))
+    .where('start_utc', '<', new Date(toMs)).where('start_utc', '>', earliestOverlappingStart(fromMs)).where('end_utc', '>', new Date(fromMs))
     .select('visit_id', 'provider_id', 'start_utc', 'end_utc')
   return rows.map((row) => ({ visitId: row.visit_id, providerId: row.provider_id, startMs: new Date(row.start_utc).getTime(), endMs: new Date(row.end_utc).getTime() }))
 }

@@ -22,15 +22,20 @@ interface PartyColumns {
   provider_kind: ProviderDetails['kind']
   provider_capabilities: unknown
   provider_active: number
+  open_waitlist_entry_ids: string | null
 }
 
 /**
  * Either is undefined when no such row exists. `textPatient` is the same patient row as the
- * outbox's channel choice reads it (numbers, consents, opt-out), so the booking need not read it again.
+ * outbox's channel choice reads it (numbers, consents, opt-out), so the booking need not read it again;
+ * `openWaitlistEntryIds` the patient's open waitlist entries, which a booking may close (same reason).
  */
-export async function findBookingParties(db: Db, providerId: number, patientId: number): Promise<{ provider?: ProviderDetails; patient?: PatientDto; textPatient?: TextPatient }> {
+export async function findBookingParties(db: Db, providerId: number, patientId: number): Promise<{ provider?: ProviderDetails; patient?: PatientDto; textPatient?: TextPatient; openWaitlistEntryIds: number[] }> {
   const [rows] = await db.raw(`
-    SELECT patients.*, provider.* FROM patients
+    SELECT patients.*, provider.*,
+      (SELECT GROUP_CONCAT(waitlist_entries.id ORDER BY waitlist_entries.id) FROM waitlist_entries
+        WHERE waitlist_entries.patient_id = patients.id AND waitlist_entries.state = 'open') AS open_waitlist_entry_ids
+    FROM patients
     LEFT JOIN (
       SELECT providers.id AS provider_id, users.name AS provider_name, users.role AS provider_kind,
         providers.capabilities AS provider_capabilities, (providers.active AND users.active) AS provider_active
@@ -40,15 +45,16 @@ export async function findBookingParties(db: Db, providerId: number, patientId: 
   const row = (rows as Array<PatientRow & PartyColumns>)[0]
   if (!row) {
     const provider = await findProviderDetails(db, providerId)
-    return { provider }
+    return { provider, openWaitlistEntryIds: [] }
   }
-  const { provider_id: id, provider_name: name, provider_kind: kind, provider_capabilities: capabilities, provider_active: active, ...patient } = row
+  const { provider_id: id, provider_name: name, provider_kind: kind, provider_capabilities: capabilities, provider_active: active, open_waitlist_entry_ids: entryIds, ...patient } = row
   const merged = Boolean((patient as { merged_into_id?: number | null }).merged_into_id)
   return {
     provider: id === null ? undefined : { id, name, kind, capabilities: parseJson<string[]>(capabilities, []), active: Boolean(active) },
     // A record merged into another (issue 16 §2) is no longer booked: the survivor is.
     patient: merged ? undefined : toPatientDto(patient as PatientRow),
     textPatient: merged ? undefined : toTextPatient(patient as unknown as TextPatientRow),
+    openWaitlistEntryIds: entryIds ? String(entryIds).split(',').map(Number) : [],
   }
 }
 

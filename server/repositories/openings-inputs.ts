@@ -1,5 +1,7 @@
 // Reads what the openings search needs beyond the site calendar: providers and busy segments.
 import type { Db } from '../utils/db'
+// Relative, not #shared: the group-scale benchmark loads this file under tsx.
+import { earliestOverlappingStart } from '../../shared/domain/input-bounds'
 import type { BusySegment } from '#shared/types/openings'
 import { parseJson } from './json'
 
@@ -17,7 +19,7 @@ export async function providersByIds(db: Db, ids: number[]): Promise<ProviderRow
 export async function busySegments(db: Db, operatoryIds: number[], providerIds: number[], fromMs: number, toMs: number): Promise<BusySegment[]> {
   if (!operatoryIds.length && !providerIds.length) return []
   const rows = await db('visit_segments')
-    .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs))
+    .where('start_utc', '<', new Date(toMs)).where('start_utc', '>', earliestOverlappingStart(fromMs)).where('end_utc', '>', new Date(fromMs))
     .where((who) => {
       if (operatoryIds.length) who.orWhereIn('operatory_id', operatoryIds)
       if (providerIds.length) who.orWhere((hands) => hands.whereIn('provider_id', providerIds).where('kind', 'hands_on'))

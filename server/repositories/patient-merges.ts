@@ -1,6 +1,7 @@
 // Merging two patient records (issue 16 §2): what moves, and the merge record.
 import type { ClockStyle, DateOrder } from '#shared/types/display'
 import type { Db } from '../utils/db'
+import { MAX_VISIT_MINUTES } from '#shared/domain/input-bounds'
 
 export interface OverlapRow {
   survivor_visit_id: number
@@ -15,7 +16,9 @@ export interface OverlapRow {
 /** Live visits of the two patients that overlap in time (a person cannot be in two chairs at once). */
 export async function overlappingVisits(db: Db, survivorId: number, mergedId: number): Promise<OverlapRow[]> {
   return db('visits as a')
-    .join('visits as b', (on) => on.on('a.start_utc', '<', 'b.end_utc').andOn('a.end_utc', '>', 'b.start_utc'))
+    // Both last at most MAX_VISIT_MINUTES, so b starts after a's start minus that: the (patient_id, start_utc) index bounds b.
+    .join('visits as b', (on) => on.on('a.start_utc', '<', 'b.end_utc').andOn('a.end_utc', '>', 'b.start_utc')
+      .andOn('b.start_utc', '>', db.raw('a.start_utc - INTERVAL ? MINUTE', [MAX_VISIT_MINUTES])))
     .join('sites', 'sites.id', 'a.site_id')
     .where('a.patient_id', survivorId).where('b.patient_id', mergedId)
     .whereNotIn('a.state', ['cancelled', 'missed']).whereNotIn('b.state', ['cancelled', 'missed'])

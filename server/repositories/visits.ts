@@ -1,6 +1,7 @@
 // Visits and their timeline segments. Conflict queries use the overlap predicate
 // start < :end AND end > :start on live segments (cancelled visits keep none).
 import type { Db } from '../utils/db'
+import { earliestOverlappingStart } from '#shared/domain/input-bounds'
 import type { VisitDto, SegmentDto } from '#shared/types/visits'
 import type { VisitPlan, StepKind } from '#shared/types/chair-time'
 import type { VisitState } from '#shared/domain/visit-states'
@@ -158,38 +159,40 @@ export interface Clashes {
 /**
  * The first clash of each kind, in one round trip: any live segment of another visit in the chair
  * overlapping [start, end); the provider hands_on elsewhere during the new hands_on time; another
- * live visit of the same patient overlapping [start, end). Overlap is start < :end AND end > :start.
+ * live visit of the same patient overlapping [start, end). Overlap is start < :end AND end > :start,
+ * with the lower bound start > :start − MAX_VISIT_MINUTES so each part reads a window of its
+ * (chair | provider | patient, start_utc) index. Written as SQL text (through Knex's raw): it runs on
+ * every booking and move, and building the three-part union with the query builder cost more CPU
+ * than the statement itself.
  */
 export async function findClashes(db: Db, clash: ClashQuery): Promise<Clashes> {
   const start = new Date(clash.startMs)
   const end = new Date(clash.endMs)
+  const earliest = earliestOverlappingStart(clash.startMs)
   const except = clash.exceptVisitId
+  const bindings: Array<number | Date> = []
   // The whole visit's times for the chair, not the one segment, so the message names the visit in the way.
-  const room = db('visit_segments').join('visits', 'visits.id', 'visit_segments.visit_id')
-    .where('visit_segments.operatory_id', clash.operatoryId)
-    .where('visit_segments.start_utc', '<', end).where('visit_segments.end_utc', '>', start)
-    .orderBy('visit_segments.start_utc').limit(1)
-    .select(db.raw("'operatory' AS resource"), { visitId: 'visit_segments.visit_id', startUtc: 'visits.start_utc', endUtc: 'visits.end_utc' })
-  if (except !== null) room.whereNot('visit_segments.visit_id', except)
-  const patient = db('visits').where({ patient_id: clash.patientId }).whereNotIn('state', ['cancelled', 'missed'])
-    .where('start_utc', '<', end).where('end_utc', '>', start)
-    .orderBy('start_utc').limit(1)
-    .select(db.raw("'patient' AS resource"), { visitId: 'id', startUtc: 'start_utc', endUtc: 'end_utc' })
-  if (except !== null) patient.whereNot({ id: except })
-  const parts = [room, patient]
+  let sql = `(SELECT 'operatory' AS resource, visit_segments.visit_id AS visitId, visits.start_utc AS startUtc, visits.end_utc AS endUtc
+    FROM visit_segments JOIN visits ON visits.id = visit_segments.visit_id
+    WHERE visit_segments.operatory_id = ? AND visit_segments.start_utc < ? AND visit_segments.start_utc > ? AND visit_segments.end_utc > ?`
+  bindings.push(clash.operatoryId, end, earliest, start)
+  if (except !== null) { sql += ' AND visit_segments.visit_id <> ?'; bindings.push(except) }
+  sql += ` ORDER BY visit_segments.start_utc LIMIT 1)
+  UNION ALL (SELECT 'patient' AS resource, id AS visitId, start_utc AS startUtc, end_utc AS endUtc FROM visits
+    WHERE patient_id = ? AND state NOT IN ('cancelled', 'missed') AND start_utc < ? AND start_utc > ? AND end_utc > ?`
+  bindings.push(clash.patientId, end, earliest, start)
+  if (except !== null) { sql += ' AND id <> ?'; bindings.push(except) }
+  sql += ' ORDER BY start_utc LIMIT 1)'
   if (clash.handsOn.length) {
-    const provider = db('visit_segments').where({ provider_id: clash.providerId, kind: 'hands_on' })
-      .where((overlaps) => {
-        for (const interval of clash.handsOn) {
-          overlaps.orWhere((one) => one.where('start_utc', '<', new Date(interval.endMs)).where('end_utc', '>', new Date(interval.startMs)))
-        }
-      })
-      .orderBy('start_utc').limit(1)
-      .select(db.raw("'provider' AS resource"), { visitId: 'visit_id', startUtc: 'start_utc', endUtc: 'end_utc' })
-    if (except !== null) provider.whereNot({ visit_id: except })
-    parts.push(provider)
+    const overlaps = clash.handsOn.map(() => '(start_utc < ? AND start_utc > ? AND end_utc > ?)').join(' OR ')
+    sql += ` UNION ALL (SELECT 'provider' AS resource, visit_id AS visitId, start_utc AS startUtc, end_utc AS endUtc FROM visit_segments
+    WHERE provider_id = ? AND kind = 'hands_on' AND (${overlaps})`
+    bindings.push(clash.providerId)
+    for (const interval of clash.handsOn) bindings.push(new Date(interval.endMs), earliestOverlappingStart(interval.startMs), new Date(interval.startMs))
+    if (except !== null) { sql += ' AND visit_id <> ?'; bindings.push(except) }
+    sql += ' ORDER BY start_utc LIMIT 1)'
   }
-  const rows = await db.unionAll(parts, true) as Array<SegmentClash & { resource: keyof Clashes }>
+  const [rows] = await db.raw(sql, bindings) as [Array<SegmentClash & { resource: keyof Clashes }>]
   const found: Clashes = {}
   for (const { resource, ...row } of rows) found[resource] = row
   return found
@@ -221,7 +224,7 @@ export async function listVisits(db: Db, filter: VisitListFilter): Promise<{ row
     .join('providers', 'providers.id', 'visits.provider_id')
     .join('users', 'users.id', 'providers.user_id')
     .join('sites', 'sites.id', 'visits.site_id')
-    .where('visits.start_utc', '<', new Date(filter.toMs)).where('visits.end_utc', '>', new Date(filter.fromMs))
+    .where('visits.start_utc', '<', new Date(filter.toMs)).where('visits.start_utc', '>', earliestOverlappingStart(filter.fromMs)).where('visits.end_utc', '>', new Date(filter.fromMs))
     .orderBy(['visits.start_utc', 'visits.id'])
     .select('visits.*', 'patients.first_name as patient_first_name', 'patients.last_name as patient_last_name', 'patients.phone as patient_phone', 'patients.alert_text as patient_alert', 'users.name as provider_name', 'sites.tooth_notation as site_tooth_notation')
   if (filter.siteId !== undefined) query.where('visits.site_id', filter.siteId)
@@ -253,7 +256,7 @@ export async function openVisitsOfProvider(db: Db, providerId: number, fromMs: n
   return db('visits')
     .join('sites', 'sites.id', 'visits.site_id')
     .where('visits.provider_id', providerId)
-    .where('visits.end_utc', '>', new Date(fromMs))
+    .where('visits.start_utc', '>', earliestOverlappingStart(fromMs)).where('visits.end_utc', '>', new Date(fromMs))
     .whereNotIn('visits.state', ['finished', 'missed', 'cancelled'])
     .orderBy(['visits.start_utc', 'visits.id'])
     .select('visits.id', 'visits.start_utc', 'sites.name as site_name', 'sites.time_zone', 'sites.clock', 'sites.date_order')

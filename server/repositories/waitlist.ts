@@ -1,5 +1,6 @@
 // Waitlist entries and the offers made to them (issue 17 §2).
 import type { Db } from '../utils/db'
+import { earliestOverlappingStart } from '#shared/domain/input-bounds'
 import type { OfferState, WaitlistEntryDto, WaitlistState } from '#shared/types/waitlist'
 import type { PartOfDay } from '#shared/types/openings'
 import type { Channel } from '#shared/domain/sms-channels'
@@ -81,11 +82,6 @@ export async function closeEntry(db: Db, id: number, state: 'booked' | 'closed',
   return changed > 0
 }
 
-/** A booking of this patient closes their open entries (any plan): they have their time now. */
-export async function openEntryIdsOfPatient(db: Db, patientId: number): Promise<number[]> {
-  return (await db('waitlist_entries').where({ patient_id: patientId, state: 'open' }).pluck('id')) as number[]
-}
-
 export interface OfferRow {
   id: number
   entry_id: number
@@ -132,7 +128,7 @@ export async function setOfferState(db: Db, id: number, from: OfferState, to: Of
 /** The other open offers of the same chair time, once one was accepted. */
 export async function markOthersTaken(db: Db, offer: OfferRow): Promise<number[]> {
   const ids = (await db('offers').where({ site_id: offer.site_id, operatory_id: offer.operatory_id, state: 'sent' })
-    .where('start_utc', '<', offer.end_utc).where('end_utc', '>', offer.start_utc).whereNot('id', offer.id).pluck('id')) as number[]
+    .where('start_utc', '<', offer.end_utc).where('start_utc', '>', earliestOverlappingStart(offer.start_utc.getTime())).where('end_utc', '>', offer.start_utc).whereNot('id', offer.id).pluck('id')) as number[]
   if (ids.length) await db('offers').whereIn('id', ids).where('state', 'sent').update({ state: 'taken', answered_at: new Date() })
   return ids
 }
@@ -140,7 +136,7 @@ export async function markOthersTaken(db: Db, offer: OfferRow): Promise<number[]
 /** Entries with an open offer for this chair time (the gap panel says "offered"). */
 export async function entriesOfferedAt(db: Db, siteId: number, operatoryId: number | null, fromMs: number, toMs: number): Promise<Map<number, Channel[]>> {
   const offers = (await db('offers').where({ site_id: siteId, state: 'sent' }).where((chair) => { if (operatoryId !== null) void chair.where('operatory_id', operatoryId) })
-    .where('start_utc', '<', new Date(toMs)).where('end_utc', '>', new Date(fromMs)).where('expires_at', '>', new Date()).select('id', 'entry_id')) as Array<{ id: number; entry_id: number }>
+    .where('start_utc', '<', new Date(toMs)).where('start_utc', '>', earliestOverlappingStart(fromMs)).where('end_utc', '>', new Date(fromMs)).where('expires_at', '>', new Date()).select('id', 'entry_id')) as Array<{ id: number; entry_id: number }>
   const offered = new Map<number, Channel[]>(offers.map((offer) => [offer.entry_id, []]))
   if (!offers.length) return offered
   // The channels each open offer went by: its outbox rows (payload.offerId), one per channel.

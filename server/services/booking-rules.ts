@@ -82,18 +82,18 @@ async function assertPeopleAndRoom(db: Db, request: BookingRequest) {
   if (!room.active) throw badRequest('operatoryId', `${room.name} is not in use`)
   const missing = request.templates.find((template) => !room.capabilities.includes(template.capability))
   if (missing) throw badRequest('operatoryId', `${room.name} is not equipped for ${missing.capability} (${missing.name})`)
-  const { provider, patient, textPatient } = await findBookingParties(db, request.providerId, request.patientId)
+  const { provider, patient, textPatient, openWaitlistEntryIds } = await findBookingParties(db, request.providerId, request.patientId)
   if (!provider || !provider.active) throw badRequest('providerId', 'is not an active provider')
   const unskilled = request.templates.find((template) => !provider.capabilities.includes(template.category))
   if (unskilled) throw badRequest('providerId', `${provider.name} does not do ${unskilled.category} procedures (${unskilled.name})`)
   if (!patient) throw badRequest('patientId', 'no such patient (or the record was merged into another)')
-  return { room, provider, patient, textPatient }
+  return { room, provider, patient, textPatient, openWaitlistEntryIds }
 }
 
 /** Throws 400/409 unless the visit fits: room and provider exist and fit, time is open and free. */
-/** Also the patient as the outbox's channel choice reads them (`textReachFrom`), from the same row. */
-export async function assertBookable(db: Db, request: BookingRequest): Promise<{ patient: PatientDto; textPatient?: TextPatient }> {
-  const { room, provider, patient, textPatient } = await assertPeopleAndRoom(db, request)
+/** Also the patient as the outbox's channel choice reads them (`textReachFrom`), and their open waitlist entries, from the same row. */
+export async function assertBookable(db: Db, request: BookingRequest): Promise<{ patient: PatientDto; textPatient?: TextPatient; openWaitlistEntryIds: number[] }> {
+  const { room, provider, patient, textPatient, openWaitlistEntryIds } = await assertPeopleAndRoom(db, request)
   const { plan, startMs, calendar } = request
   const endMs = visitEnd(plan, startMs)
   const style = calendar.display
@@ -124,5 +124,5 @@ export async function assertBookable(db: Db, request: BookingRequest): Promise<{
   if (clashes.operatory) throw clashError('operatory', room.id, room.name, clashes.operatory, style, 'is already taken')
   if (clashes.provider) throw clashError('provider', provider.id, provider.name, clashes.provider, style, 'is already working with another patient')
   if (clashes.patient) throw clashError('patient', request.patientId, 'This patient', clashes.patient, style, 'already has a visit')
-  return { patient, textPatient }
+  return { patient, textPatient, openWaitlistEntryIds }
 }

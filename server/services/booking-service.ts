@@ -130,7 +130,7 @@ export async function bookInTransaction(trx: Db, input: BookVisitInput, userId: 
   const calendar = await bookingCalendar(trx, input.siteId)
   const { plan, templates } = await planItems(trx, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
   assertStartAllowed(startMs, calendar)
-  const { patient, textPatient } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null })
+  const { patient, textPatient, openWaitlistEntryIds } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null })
   const newVisit = {
     siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
     startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId,
@@ -140,7 +140,7 @@ export async function bookInTransaction(trx: Db, input: BookVisitInput, userId: 
   await replaceSegments(trx, id, segments, { isNew: true })
   await writeAudit(trx, { userId, action: 'visit_booked', entity: 'visit', entityId: id, after: input })
   await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient, reach: textReachFrom(textPatient) })
-  await closeWaitlistOnBooking(trx, input.patientId, id, templates, userId)
+  await closeWaitlistOnBooking(trx, openWaitlistEntryIds, id, templates, userId)
   await markRecallsOnBooking(trx, input.patientId, id, templates)
   return newVisitDto(id, newVisit, segments)
 }

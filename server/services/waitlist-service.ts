@@ -21,7 +21,7 @@ import { findPatient } from '../repositories/patients'
 import { findVisitRow } from '../repositories/visits'
 import { writeAudit } from '../repositories/audit-log'
 import { offerChannels } from './sms/channels'
-import { closeEntry, entriesOfferedAt, findEntry, insertEntry, listEntries, openEntriesForSite, openEntryIdsOfPatient } from '../repositories/waitlist'
+import { closeEntry, entriesOfferedAt, findEntry, insertEntry, listEntries, openEntriesForSite } from '../repositories/waitlist'
 import { planItems, type ResolvedPlan } from './plan-service'
 
 const HOUR_MS = 3_600_000
@@ -66,10 +66,11 @@ function samePlan(entry: WaitlistEntryDto, templates: readonly StoredTemplate[])
 
 /**
  * Inside a booking transaction: the patient's open entries for the same procedures are closed as
- * booked (whoever booked, the front desk or the patient through an offer).
+ * booked (whoever booked, the front desk or the patient through an offer). `openEntryIds` are the
+ * patient's open entries as the booking read them with the patient (findBookingParties), after locking the patient.
  */
-export async function closeWaitlistOnBooking(trx: Db, patientId: number, visitId: number, templates: readonly StoredTemplate[], userId: number | null): Promise<void> {
-  for (const entryId of await openEntryIdsOfPatient(trx, patientId)) {
+export async function closeWaitlistOnBooking(trx: Db, openEntryIds: readonly number[], visitId: number, templates: readonly StoredTemplate[], userId: number | null): Promise<void> {
+  for (const entryId of openEntryIds) {
     const entry = await findEntry(trx, entryId)
     if (!entry || !samePlan(entry, templates)) continue
     if (await closeEntry(trx, entryId, 'booked', { visitId })) {

@@ -16,6 +16,7 @@
 // A `numbing` segment appears only where the chair would otherwise wait; onset that passes while
 // other work is under way is not shown twice.
 import { classifyCavity } from './black-class'
+import { MAX_VISIT_MINUTES } from './input-bounds'
 import { DomainValidationError } from './errors'
 import { parseSurfaces } from './surfaces'
 import { formatTooth, parseTooth, quadrantLabel, toothLabel } from './teeth'
@@ -423,6 +424,9 @@ export function planVisit(items: PlanItemInput[], options: PlanOptions): VisitPl
   const rawMinutes = timeline.now
   const chairMinutes = roundUp(rawMinutes, options.unitMinutes)
   timeline.add('reset', `Rounded up to the ${options.unitMinutes}-minute booking step`, chairMinutes - rawMinutes)
+  if (chairMinutes > MAX_VISIT_MINUTES) {
+    fail('items', `These procedures need ${chairMinutes} minutes in the chair; one visit is at most ${MAX_VISIT_MINUTES} minutes (8 hours), so book them as two visits`)
+  }
 
   const totals = {
     chairMinutes,

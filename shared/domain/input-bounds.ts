@@ -15,6 +15,24 @@ export const MAX_ID = 2_147_483_647
 
 const DAY_MS = 86_400_000
 
+/**
+ * The longest visit, in chair minutes (8 hours, a working day): planVisit refuses a longer plan, a
+ * length set by hand may not exceed it, and a template whose steps alone add up to more is refused.
+ * Every segment lies inside its visit, so nothing booked starts more than this before it ends. Overlap
+ * reads use that as a lower bound (`start_utc > from − MAX_VISIT_MINUTES`, see earliestOverlappingStart),
+ * so they scan a window of the (chair | provider | patient, start_utc) indexes, not each chair's history.
+ */
+export const MAX_VISIT_MINUTES = 480
+
+/**
+ * The lower bound an overlap read adds to `start_utc < :to AND end_utc > :from`: a visit or segment
+ * overlapping [fromMs, …) started after fromMs − MAX_VISIT_MINUTES (it lasts at most that long).
+ */
+export function earliestOverlappingStart(fromMs: number): Date {
+  return new Date(fromMs - MAX_VISIT_MINUTES * 60_000)
+}
+
+
 /** The last date (YYYY-MM-DD) a caller may send: today in UTC plus DATE_BOUNDS.yearsAhead years. */
 export function latestAllowedDate(now: Date = new Date()): string {
   const latest = new Date(Date.UTC(now.getUTCFullYear() + DATE_BOUNDS.yearsAhead, now.getUTCMonth(), now.getUTCDate()))

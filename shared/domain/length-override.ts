@@ -2,6 +2,7 @@
 // The work itself is never squeezed: only the room reset at the end grows or shrinks.
 import type { VisitPlan } from '../types/chair-time'
 import { DomainValidationError } from './errors'
+import { MAX_VISIT_MINUTES } from './input-bounds'
 
 const FIELD = 'lengthOverride.chairMinutes'
 
@@ -13,6 +14,7 @@ export function minimumChairMinutes(plan: VisitPlan): number {
 
 export function withChairMinutes(plan: VisitPlan, chairMinutes: number, reason: string): VisitPlan {
   if (!Number.isInteger(chairMinutes) || chairMinutes <= 0) throw new DomainValidationError(FIELD, 'must be a whole number of minutes')
+  if (chairMinutes > MAX_VISIT_MINUTES) throw new DomainValidationError(FIELD, `must be at most ${MAX_VISIT_MINUTES} minutes (8 hours), the longest visit`)
   if (chairMinutes % plan.unitMinutes !== 0) throw new DomainValidationError(FIELD, `must be a multiple of the site's ${plan.unitMinutes}-minute unit`)
   const floor = minimumChairMinutes(plan)
   if (chairMinutes < floor) throw new DomainValidationError(FIELD, `must be at least ${floor} minutes: the procedures themselves take that long`)

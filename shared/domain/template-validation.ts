@@ -16,6 +16,7 @@ import type {
   TemplateIssue,
   TemplateStep,
 } from '../types/chair-time'
+import { MAX_VISIT_MINUTES } from './input-bounds'
 
 /** A generous ceiling that still catches a typed-in 600 meant as 60. */
 export const MAX_STEP_MINUTES = 480
@@ -83,6 +84,10 @@ function stepsIssues(steps: readonly TemplateStep[]): TemplateIssue[] {
   if (!Array.isArray(steps) || steps.length === 0) return [{ field: 'steps', reason: 'A template needs at least one step' }]
   const issues = steps.flatMap((step, index) => stepIssues(step, index))
   if (issues.length > 0) return issues
+  const oneToothMinutes = steps.reduce((sum, step) => sum + step.baseMinutes, 0)
+  if (oneToothMinutes > MAX_VISIT_MINUTES) {
+    return [{ field: 'steps', reason: `The steps add up to ${oneToothMinutes} minutes for a single tooth and surface; one visit is at most ${MAX_VISIT_MINUTES} minutes (8 hours)` }]
+  }
   const treatSteps = steps.filter((step) => stepRole(step) === 'treat')
   if (treatSteps.length === 0) return [{ field: 'steps', reason: 'A template needs at least one treatment step' }]
   if (treatSteps.every((step) => step.baseMinutes === 0)) {

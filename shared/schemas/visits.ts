@@ -2,7 +2,7 @@ import { DATE_ORDERS } from '../types/display'
 import { z } from 'zod'
 import { ChairTimeItemSchema } from './templates'
 import { VISIT_STATES } from '../domain/visit-states'
-import { inclusiveDays, MAX_ID, MAX_WINDOW_DAYS } from '../domain/input-bounds'
+import { inclusiveDays, MAX_ID, MAX_VISIT_MINUTES, MAX_WINDOW_DAYS } from '../domain/input-bounds'
 import { dateInBounds, IdSchema, instantInBounds, plainText } from './common'
 import { calendarDate } from './local-time'
 import { PatientFieldsSchema } from './patients'
@@ -35,7 +35,7 @@ export const MoveVisitSchema = z.object({
   note: note.optional(),
   /** The length set by hand; the plan decides it otherwise. */
   lengthOverride: z.object({
-    chairMinutes: z.number({ error: 'must be a number of minutes' }).int('must be whole minutes').min(5, 'must be at least 5').max(480, 'must be at most 480'),
+    chairMinutes: z.number({ error: 'must be a number of minutes' }).int('must be whole minutes').min(5, 'must be at least 5').max(MAX_VISIT_MINUTES, `must be at most ${MAX_VISIT_MINUTES} (8 hours), the longest visit`),
     reason: plainText(z.string({ error: 'is required' }).trim().min(3, 'say why the length changes').max(200, 'is too long')),
   }).optional(),
 })

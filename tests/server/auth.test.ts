@@ -93,6 +93,34 @@ describe('sessions', () => {
     expect((await client.get('/api/me')).status).toBe(401)
   })
 
+  // The session guard keeps unsealed cookies for half a minute (server/utils/session-cache.ts); the
+  // database check still runs on every request, so these cookies are in that cache when they are refused.
+  it('refuses a cookie replayed after sign-out although its session was just read (cached)', async () => {
+    const user = await createTestUser()
+    const client = new ApiClient()
+    await client.signIn(user.email, user.password)
+    const stolen = client.cookie
+    const replay = new ApiClient()
+    replay.cookie = stolen
+    expect((await replay.get('/api/me')).status).toBe(200)
+    expect((await replay.get('/api/me')).status).toBe(200)
+    expect((await client.post('/api/auth/logout')).status).toBe(200)
+    expect((await replay.get('/api/me')).status).toBe(401)
+  })
+
+  it('refuses a cached session once its version changes in the database (signed out elsewhere), and a new sign-in works', async () => {
+    const user = await createTestUser()
+    const client = new ApiClient()
+    await client.signIn(user.email, user.password)
+    expect((await client.get('/api/me')).status).toBe(200)
+    expect((await client.get('/api/me')).status).toBe(200)
+    await testDb()('users').where({ id: user.id }).increment('session_version', 1)
+    expect((await client.get('/api/me')).status).toBe(401)
+    const again = new ApiClient()
+    await again.signIn(user.email, user.password)
+    expect((await again.get('/api/me')).status).toBe(200)
+  })
+
   it('refuses a session idle for longer than the idle timeout', async () => {
     // A second app process with a 2-second idle timeout, so the test need not wait 30 minutes.
     const server = await startAppServer({ NUXT_AUTH_IDLE_MINUTES: String(2 / 60) })

@@ -109,6 +109,41 @@ describe('visit starts', () => {
   })
 })
 
+describe('the longest visit, 8 hours (MAX_VISIT_MINUTES; the overlap reads rely on it)', () => {
+  // Eight large molar fillings: 550 minutes of chair time.
+  const eightFillings = ['2', '3', '14', '15', '18', '19', '30', '31'].map((tooth) => ({ templateCode: 'COMP-POST', tooth, surfaces: 'MODB' }))
+
+  it('POST /api/visits with a longer plan is a 400 naming items, saying why in plain words', async () => {
+    const response = await admin.post('/api/visits', {
+      patientId: annex.patientIds[0], siteId: annex.siteId, operatoryId: annex.operatoryIds[0], providerId: annex.providerIds[0],
+      startUtc: `${weekdayAhead(5, MONDAY, annex.timeZone)}T14:00:00Z`, items: eightFillings,
+    })
+    expect400(response, 'items')
+    expect(response.body.data.reason).toMatch(/need 550 minutes in the chair; one visit is at most 480 minutes \(8 hours\), so book them as two visits/)
+  })
+
+  it('an openings search for it is a 400 naming items', async () => {
+    const from = weekdayAhead(5, MONDAY, annex.timeZone)
+    expect400(await admin.post('/api/openings', { items: eightFillings, siteIds: [annex.siteId], from, to: from }), 'items')
+  })
+
+  it('a length set by hand past it is a 400 naming lengthOverride.chairMinutes', async () => {
+    expect400(await admin.patch(`/api/visits/${visit.id}`, { rowVersion: visit.rowVersion, lengthOverride: { chairMinutes: 485, reason: 'very long sedation' } }), 'lengthOverride.chairMinutes')
+  })
+
+  it('a template whose steps alone add up to more is a 400 naming steps', async () => {
+    const step = (label: string, kind: string, role: string, baseMinutes: number) => ({ label, kind, role, baseMinutes, perExtraSurfaceMinutes: 0, perExtraToothMinutes: 0 })
+    const timing = { injectMinutes: 2, onsetMinutes: 3 }
+    const response = await admin.post('/api/templates', {
+      code: 'LONG-1', name: 'Too long for one visit', category: 'restorative', capability: 'restorative',
+      steps: [step('Seat', 'assist', 'seat', 10), step('Restore', 'hands_on', 'treat', 300), step('Finish', 'hands_on', 'treat', 200), step('Reset room', 'reset', 'turnover', 10)],
+      anaesthesia: { required: false, maxillary: { technique: 'infiltration', infiltration: timing, block: timing }, mandibular: { technique: 'block', infiltration: timing, block: timing } },
+    })
+    expect400(response, 'steps')
+    expect(response.body.data.reason).toMatch(/add up to 520 minutes .* at most 480 minutes/)
+  })
+})
+
 describe('id bounds', () => {
   it('POST /api/patients with preferredSiteId 2147483647 is a 400 naming the field (no such site)', async () => {
     expect400(await admin.post('/api/patients', { firstName: 'Ida', lastName: 'Bound', dateOfBirth: '1990-05-05', preferredSiteId: 2147483647 }), 'preferredSiteId')

@@ -3,6 +3,8 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { planVisit } from '../../../../shared/domain/chair-time'
+import { DomainValidationError } from '../../../../shared/domain/errors'
+import { MAX_VISIT_MINUTES } from '../../../../shared/domain/input-bounds'
 import { validSurfacesFor } from '../../../../shared/domain/surfaces'
 import { allTeeth, formatTooth, toothFromIso } from '../../../../shared/domain/teeth'
 import type {
@@ -109,11 +111,40 @@ function quadrantsOf(plan: VisitPlan, index: number): Set<Quadrant> {
   return new Set(teethOf(plan, index).map((t) => t.quadrant))
 }
 
+/** planVisit, or a skipped case when the random plan is longer than one visit may be (that refusal has its own property below). */
+function planWithin(items: PlanItemInput[], options: { unitMinutes: BookingUnitMinutes }): VisitPlan {
+  try {
+    return planVisit(items, options)
+  } catch (error) {
+    if (error instanceof DomainValidationError && error.field === 'items' && error.reason.includes(`at most ${MAX_VISIT_MINUTES} minutes`)) fc.pre(false)
+    throw error
+  }
+}
+
 describe('planVisit properties', () => {
+  it(`refuses a plan longer than ${MAX_VISIT_MINUTES} minutes naming items, and every plan it accepts is at most that`, () => {
+    let refused = 0
+    fc.assert(
+      fc.property(itemsArb, unitArb, (items, unitMinutes) => {
+        try {
+          expect(planVisit(items, { unitMinutes }).chairMinutes).toBeLessThanOrEqual(MAX_VISIT_MINUTES)
+        } catch (error) {
+          if (!(error instanceof DomainValidationError)) throw error
+          expect(error.field).toBe('items')
+          expect(error.reason).toMatch(/book them as two visits/)
+          refused += 1
+        }
+      }),
+      { numRuns: 300 },
+    )
+    // The random templates reach past the limit often enough for the refusal to be exercised.
+    expect(refused).toBeGreaterThan(0)
+  })
+
   it('segments run contiguously from 0 to chairMinutes, none empty', () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        const plan = planVisit(items, { unitMinutes })
+        const plan = planWithin(items, { unitMinutes })
         expect(plan.segments[0]?.startMinute).toBe(0)
         plan.segments.forEach((segment, i) => {
           expect(segment.endMinute).toBeGreaterThan(segment.startMinute)
@@ -127,7 +158,7 @@ describe('planVisit properties', () => {
   it('chairMinutes is the smallest multiple of the unit at or above rawMinutes', () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        const plan = planVisit(items, { unitMinutes })
+        const plan = planWithin(items, { unitMinutes })
         expect(plan.chairMinutes % unitMinutes).toBe(0)
         expect(plan.chairMinutes).toBeGreaterThanOrEqual(plan.rawMinutes)
         expect(plan.chairMinutes - plan.rawMinutes).toBeLessThan(unitMinutes)
@@ -138,7 +169,7 @@ describe('planVisit properties', () => {
   it('totals add up, and provider minutes never exceed chair minutes', () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        const plan = planVisit(items, { unitMinutes })
+        const plan = planWithin(items, { unitMinutes })
         expect(plan.providerMinutes).toBeLessThanOrEqual(plan.chairMinutes)
         expect(plan.providerMinutes).toBe(segmentMinutes(plan, 'hands_on'))
         expect(plan.assistantMinutes).toBe(segmentMinutes(plan, 'assist'))
@@ -154,14 +185,14 @@ describe('planVisit properties', () => {
         const index = items.findIndex((item) => item.tooth !== undefined)
         const target = items[index]
         if (!target?.tooth) return
-        const tooth = teethOf(planVisit(items, { unitMinutes }), index)[0]
+        const tooth = teethOf(planWithin(items, { unitMinutes }), index)[0]
         if (!tooth) return
         const missing = validSurfacesFor(tooth).filter((s) => !(target.surfaces ?? '').includes(s))
         const added = missing[pick % Math.max(1, missing.length)]
         if (!added) return
-        const before = planVisit(items, { unitMinutes })
+        const before = planWithin(items, { unitMinutes })
         const grown = items.map((item, i) => (i === index ? { ...item, surfaces: `${item.surfaces ?? ''}${added}` } : item))
-        const after = planVisit(grown, { unitMinutes })
+        const after = planWithin(grown, { unitMinutes })
         expect(after.rawMinutes).toBeGreaterThanOrEqual(before.rawMinutes)
         expect(after.chairMinutes).toBeGreaterThanOrEqual(before.chairMinutes)
       }),
@@ -171,7 +202,7 @@ describe('planVisit properties', () => {
   it('a numbing segment is never hands-on work: it waits for a quadrant and ends when that quadrant is ready', () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        const plan = planVisit(items, { unitMinutes })
+        const plan = planWithin(items, { unitMinutes })
         plan.segments.forEach((segment, i) => {
           if (segment.kind !== 'numbing') return
           const planned = plan.anaesthesia.find((a) => a.quadrant === segment.quadrant)
@@ -192,7 +223,7 @@ describe('planVisit properties', () => {
   it('work in a quadrant starts only after its injection and onset', () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        const plan = planVisit(items, { unitMinutes })
+        const plan = planWithin(items, { unitMinutes })
         for (const planned of plan.anaesthesia) {
           expect(planned.readyAt).toBe(planned.injectAt + planned.injectMinutes + planned.onsetMinutes)
           if (planned.injectMinutes > 0) {
@@ -216,7 +247,7 @@ describe('planVisit properties', () => {
   it("uses the template's mandibular block onset for mandibular teeth when its settings say block", () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        const plan = planVisit(items, { unitMinutes })
+        const plan = planWithin(items, { unitMinutes })
         items.forEach((item, index) => {
           const { anaesthesia } = item.template
           if (item.anaesthesia !== undefined || !anaesthesia.required || anaesthesia.mandibular.technique !== 'block') return
@@ -235,7 +266,7 @@ describe('planVisit properties', () => {
   it('onset waits overlap each other and other work: the chair never waits longer than the longest onset', () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        const plan = planVisit(items, { unitMinutes })
+        const plan = planWithin(items, { unitMinutes })
         const longestOnset = Math.max(0, ...plan.anaesthesia.map((a) => a.onsetMinutes))
         expect(plan.numbingMinutes).toBeLessThanOrEqual(longestOnset)
       }),
@@ -245,8 +276,8 @@ describe('planVisit properties', () => {
   it('the order items are listed in does not change the raw chair time', () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        const forward = planVisit(items, { unitMinutes })
-        const backward = planVisit([...items].reverse(), { unitMinutes })
+        const forward = planWithin(items, { unitMinutes })
+        const backward = planWithin([...items].reverse(), { unitMinutes })
         expect(backward.rawMinutes).toBe(forward.rawMinutes)
       }),
     )
@@ -261,7 +292,7 @@ describe('planVisit properties', () => {
     })
     fc.assert(
       fc.property(smallItemsArb, (items) => {
-        const plan = planVisit(items, { unitMinutes: 5 })
+        const plan = planWithin(items, { unitMinutes: 5 })
         const core = plan.segments.filter((s) => s.itemIndex !== undefined || s.quadrant !== undefined)
         const engineSpan = (core.at(-1)?.endMinute ?? 0) - (core[0]?.startMinute ?? 0)
         expect(engineSpan).toBe(bruteForceSpan(plan))
@@ -273,7 +304,7 @@ describe('planVisit properties', () => {
   it('is deterministic', () => {
     fc.assert(
       fc.property(itemsArb, unitArb, (items, unitMinutes) => {
-        expect(planVisit(items, { unitMinutes })).toEqual(planVisit(items, { unitMinutes }))
+        expect(planWithin(items, { unitMinutes })).toEqual(planWithin(items, { unitMinutes }))
       }),
     )
   })
