@@ -46,12 +46,12 @@ beforeAll(async () => {
   await db('user_sites').insert({ user_id: dentist.user_id, site_id: tight.siteId })
   // A third annex that e-mails its patients: in each chair that day, a visit between two half-hour
   // stretches (too short to book alone), so Balance suggests moving it to join them.
-  tidy = await createMailAnnex({ patients: 6 })
+  tidy = await createMailAnnex({ patients: 6, providers: 2 })
   for (const [room, operatoryId] of tidy.operatoryIds.entries()) {
     let startUtc = utcAt(`${day}T09:00`, tidy.timeZone)
     for (let index = 0; index < 3; index += 1) {
       const patientIndex = room * 3 + index
-      const visit = await manager.post('/api/visits', { siteId: tidy.siteId, operatoryId, providerId: tidy.providerIds[0], patientId: tidy.patientIds[patientIndex], startUtc, items: FILLING })
+      const visit = await manager.post('/api/visits', { siteId: tidy.siteId, operatoryId, providerId: tidy.providerIds[room], patientId: tidy.patientIds[patientIndex], startUtc, items: FILLING })
       expect(visit.status, JSON.stringify(visit.body)).toBe(201)
       if (index === 1) {
         const patient = await db('patients').where({ id: tidy.patientIds[patientIndex] }).first('first_name', 'last_name')
