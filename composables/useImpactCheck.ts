@@ -11,6 +11,8 @@ export interface ImpactAsk {
   heading: string
   visits: StrandedVisitDto[]
   confirmLabel: string
+  /** What the change does, one line each (e.g. both halves of a rota move), shown above the visits. */
+  details?: string[]
 }
 
 export interface ImpactRequest {
@@ -37,12 +39,17 @@ export function useImpactCheck() {
       : { method: request.method, body: { ...request.body, dryRun: true } })
     const visits = preview.strandedVisits
     if (visits.length === 0 && !request.destructive) return true
-    ask.value = {
+    return askFirst({
       title: request.title,
       heading: visits.length ? strandedHeading(visits.length, request.loses) : request.destructive!,
       visits,
       confirmLabel: visits.length ? request.confirmLabel ?? 'Save and put them on the Rebook list' : request.title,
-    }
+    })
+  }
+
+  /** Asks in the same dialog when the screen made the preview itself (Balance's rota move, a move offer): true to go ahead. */
+  function askFirst(next: ImpactAsk): Promise<boolean> {
+    ask.value = next
     return new Promise<boolean>((resolve) => { answer = resolve })
   }
 
@@ -52,5 +59,5 @@ export function useImpactCheck() {
     answer = null
   }
 
-  return { ask, confirmChange, respond }
+  return { ask, askFirst, confirmChange, respond }
 }

@@ -15,6 +15,8 @@ export interface DrawerSlot {
 export interface DrawerPrefill {
   patientId: number
   items: DraftItem[]
+  /** The provider of a found opening (Balance's suggestions): chosen when on the list. */
+  providerId?: number
 }
 
 /** Where a notice can take the user: a site's day with one visit highlighted. */

@@ -52,8 +52,9 @@ async function recallOfToken(db: Db, token: string): Promise<{ recall: PageRecal
 /**
  * The plan of a recall: the procedure of that kind the patient last had (their latest finished visit
  * with a template of the kind's category still in use), else the first template in use of that category.
+ * Balance's recall suggestions use the same plan.
  */
-async function recallPlanOf(db: Db, recall: PageRecall): Promise<{ items: Array<{ templateCode: string }>; what: string } | null> {
+export async function recallPlanOf(db: Db, recall: Pick<PageRecall, 'patientId' | 'kind'>): Promise<{ items: Array<{ templateCode: string }>; what: string } | null> {
   const category = RECALL_TEMPLATE_CATEGORY[recall.kind]
   const inUse = (await listCurrentTemplates(db)).filter((entry) => entry.category === category)
   const lastHad = (await recentFinishedTemplateCodes(db, recall.patientId)).map((code) => inUse.find((entry) => entry.code === code)).find(Boolean)

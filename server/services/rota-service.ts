@@ -112,36 +112,42 @@ export function requireManages(user: SessionUser, provider: { name: string; site
 
 /** Time off for every site touches all of the provider's sites, so it needs access to each. */
 export function createShiftException(user: SessionUser, exception: ShiftExceptionBody, dryRun = false): Promise<ImpactResult<ShiftExceptionDto>> {
-  return changeWithImpact({ userId: user.id, dryRun, cause: exception.kind === 'time_off' ? 'time off' : 'extra day' }, async (trx, impact) => {
-    const provider = await requireProvider(trx, exception.providerId)
-    requireManages(user, provider)
-    if (exception.siteId !== null) {
-      requireSiteAccess(user, exception.siteId)
-      // Time off or an extra day only at a site the provider works at.
-      await requireWorksAt(trx, exception.providerId, exception.siteId)
-    } else {
-      for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
-    }
-    if (exception.kind === 'extra' && exception.siteId !== null) {
-      // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
-      // day, which refuses rather than risks a clash.
-      await lockProvider(trx, exception.providerId)
-      // Whole-day time off at another site over every date of the extra day frees the provider there
-      // (Balance's rota suggestion: a day off at a quiet site, then an extra day at a tight one).
-      const away = (await listShiftExceptions(trx, { providerId: exception.providerId, from: exception.startDate, to: exception.endDate }))
-        .filter((off) => off.kind === 'time_off' && off.localStart === null && off.startDate <= exception.startDate && off.endDate >= exception.endDate)
-      const awaySiteIds = away.some((off) => off.siteId === null) ? 'all' as const : new Set(away.map((off) => off.siteId!))
-      await refuseCrossSiteClash(trx, {
-        providerId: exception.providerId, siteId: exception.siteId, rrule: 'FREQ=DAILY',
-        validFrom: exception.startDate, validUntil: exception.endDate,
-        localStart: exception.localStart ?? '00:00', localEnd: exception.localEnd ?? '24:00', note: '',
-      }, 0, awaySiteIds)
-    }
-    await impact.watch({ ...(exception.siteId === null ? {} : { siteIds: [exception.siteId] }), providerId: exception.providerId })
-    const id = await insertShiftException(trx, exception)
-    await writeAudit(trx, { userId: user.id, action: 'shift_exception_created', entity: 'shift_exception', entityId: id, after: exception })
-    return (await findShiftException(trx, id))!
-  })
+  return changeWithImpact({ userId: user.id, dryRun, cause: exception.kind === 'time_off' ? 'time off' : 'extra day' }, (trx, impact) => addShiftException(trx, impact, user, exception))
+}
+
+/**
+ * Time off or an extra day inside a change-impact transaction: checked, clash-refused, watched and
+ * written with its audit row. Balance's rota move (rota-move-service.ts) writes two in one transaction.
+ */
+export async function addShiftException(trx: Db, impact: ImpactWatch, user: SessionUser, exception: ShiftExceptionBody): Promise<ShiftExceptionDto> {
+  const provider = await requireProvider(trx, exception.providerId)
+  requireManages(user, provider)
+  if (exception.siteId !== null) {
+    requireSiteAccess(user, exception.siteId)
+    // Time off or an extra day only at a site the provider works at.
+    await requireWorksAt(trx, exception.providerId, exception.siteId)
+  } else {
+    for (const siteId of provider.siteIds) requireSiteAccess(user, siteId)
+  }
+  if (exception.kind === 'extra' && exception.siteId !== null) {
+    // An extra day is a shift too: never at two sites at once. Without hours it is taken as the whole
+    // day, which refuses rather than risks a clash.
+    await lockProvider(trx, exception.providerId)
+    // Whole-day time off at another site over every date of the extra day frees the provider there
+    // (Balance's rota move: a day off at a quiet site and an extra day at a tight one).
+    const away = (await listShiftExceptions(trx, { providerId: exception.providerId, from: exception.startDate, to: exception.endDate }))
+      .filter((off) => off.kind === 'time_off' && off.localStart === null && off.startDate <= exception.startDate && off.endDate >= exception.endDate)
+    const awaySiteIds = away.some((off) => off.siteId === null) ? 'all' as const : new Set(away.map((off) => off.siteId!))
+    await refuseCrossSiteClash(trx, {
+      providerId: exception.providerId, siteId: exception.siteId, rrule: 'FREQ=DAILY',
+      validFrom: exception.startDate, validUntil: exception.endDate,
+      localStart: exception.localStart ?? '00:00', localEnd: exception.localEnd ?? '24:00', note: '',
+    }, 0, awaySiteIds)
+  }
+  await impact.watch({ ...(exception.siteId === null ? {} : { siteIds: [exception.siteId] }), providerId: exception.providerId })
+  const id = await insertShiftException(trx, exception)
+  await writeAudit(trx, { userId: user.id, action: 'shift_exception_created', entity: 'shift_exception', entityId: id, after: exception })
+  return (await findShiftException(trx, id))!
 }
 
 /** Time off for every site touches all of the provider's sites, so withdrawing it needs access to each. */

@@ -6,6 +6,7 @@ import type { StoredTemplate } from '#shared/types/templates'
 import type { Opening, OpeningsSite } from '#shared/types/openings'
 import type { FreedWindowDto, WaitlistEntryDto, WaitlistMatchDto, WaitlistMatchesDto, WaitlistState } from '#shared/types/waitlist'
 import type { NewWaitlistEntryInput, WaitlistGapQuery } from '#shared/schemas/waitlist'
+import type { ChairTimeRequest } from '#shared/schemas/templates'
 import { expandAvailabilityMs } from '#shared/domain/rota'
 import { matchWaitlist, openingsInGap, type FreedGap, type WaitlistCandidate } from '#shared/domain/waitlist-match'
 import { addedProviderTime } from '#shared/domain/freed-time'
@@ -124,26 +125,56 @@ async function gapContext(db: Db, named: NamedGap): Promise<GapContext> {
   return { gap: { ...named, timeZone: calendar.site.timeZone }, calendar, providers, site }
 }
 
+type Busy = Awaited<ReturnType<typeof busySegments>>
+
+async function gapBusy(db: Db, ctx: GapContext): Promise<Busy> {
+  return busySegments(db, ctx.site.operatories.map((room) => room.id), ctx.site.providers.map((provider) => provider.id), ctx.gap.startMs - 12 * HOUR_MS, ctx.gap.endMs + 12 * HOUR_MS)
+}
+
+/** Every start of a plan inside the gap (the engine restricted to its chair and window), or null when the plan cannot be made. */
+async function openingsOfPlan(db: Db, ctx: GapContext, busy: Busy, items: ChairTimeRequest['items'], nowMs: number): Promise<{ resolved: ResolvedPlan; openings: Opening[] } | null> {
+  let resolved: ResolvedPlan
+  try {
+    resolved = await planItems(db, items, ctx.calendar.bookingUnitMinutes as BookingUnitMinutes)
+  } catch {
+    return null
+  }
+  const first = resolved.templates[0]!
+  return {
+    resolved,
+    openings: openingsInGap({
+      plan: resolved.plan, capability: first.capability, category: first.category, sites: [ctx.site], busy, nowMs, minimumNoticeMinutes: ctx.calendar.minimumNoticeMinutes,
+    }, ctx.gap),
+  }
+}
+
+/**
+ * For Balance's recall suggestions: every start of each plan inside a named gap (its chair and window),
+ * the same restricted engine search the waitlist matching makes, with the providers' names. Plans
+ * that cannot be made are left out.
+ */
+export async function planOpeningsInGap(db: Db, named: NamedGap, plans: ReadonlyArray<ChairTimeRequest['items']>): Promise<{ providers: ProviderRow[]; found: Array<{ resolved: ResolvedPlan; openings: Opening[] } | null> }> {
+  const ctx = await gapContext(db, named)
+  const busy = await gapBusy(db, ctx)
+  const nowMs = scheduleNowMs()
+  const found: Array<{ resolved: ResolvedPlan; openings: Opening[] } | null> = []
+  for (const items of plans) found.push(await openingsOfPlan(db, ctx, busy, items, nowMs))
+  return { providers: ctx.providers, found }
+}
+
 /** Entries that fit the gap, ranked, with the earliest start each can take. */
 async function matchesIn(db: Db, ctx: GapContext, onlyEntryIds?: ReadonlySet<number>): Promise<Array<{ entry: WaitlistEntryDto; opening: Opening }>> {
   const { gap } = ctx
   const entries = (await openEntriesForSite(db, gap.siteId, localDateAt(gap.startMs, gap.timeZone), localDateAt(gap.endMs - 1, gap.timeZone)))
     .filter((entry) => !onlyEntryIds || onlyEntryIds.has(entry.id))
   if (!entries.length) return []
-  const busy = await busySegments(db, ctx.site.operatories.map((room) => room.id), ctx.site.providers.map((provider) => provider.id), gap.startMs - 12 * HOUR_MS, gap.endMs + 12 * HOUR_MS)
+  const busy = await gapBusy(db, ctx)
   const nowMs = scheduleNowMs()
   const openingsByPlan = new Map<string, Opening[]>()
   for (const planKey of new Set(entries.map((entry) => JSON.stringify(entry.items)))) {
-    let resolved: ResolvedPlan
-    try {
-      resolved = await planItems(db, JSON.parse(planKey), ctx.calendar.bookingUnitMinutes as BookingUnitMinutes)
-    } catch {
-      continue // a template taken out of use since: the entry no longer fits anything
-    }
-    const first = resolved.templates[0]!
-    openingsByPlan.set(planKey, openingsInGap({
-      plan: resolved.plan, capability: first.capability, category: first.category, sites: [ctx.site], busy, nowMs, minimumNoticeMinutes: ctx.calendar.minimumNoticeMinutes,
-    }, gap))
+    // A template taken out of use since: the entry no longer fits anything.
+    const found = await openingsOfPlan(db, ctx, busy, JSON.parse(planKey), nowMs)
+    if (found) openingsByPlan.set(planKey, found.openings)
   }
   const candidates: WaitlistCandidate[] = entries.map((entry) => ({
     id: entry.id, siteIds: entry.siteIds, fromDate: entry.from, toDate: entry.to, partOfDay: entry.partOfDay, noticeMinutes: entry.noticeMinutes,

@@ -13,6 +13,7 @@
 import type { EpochInterval } from '../types/rota'
 import type { BalanceBand } from './balance'
 import { clipIntervals, intersectIntervals, mergeIntervals, subtractIntervals, totalDurationMs } from './intervals'
+import { localTime } from '../utils/local-date'
 
 const MINUTE_MS = 60_000
 
@@ -105,6 +106,32 @@ export function rotaMoves(days: readonly SiteDay[], sitesOfProvider: ReadonlyMap
       return count < limit
     })
     .map(({ leavesColleague: _, ...move }) => move)
+}
+
+/** Where the day lands at the receiving site: epoch instants and the same on that site's clock. */
+export interface ReceivingHours extends EpochInterval {
+  localStart: string
+  localEnd: string
+}
+
+/**
+ * The hours of a moved rota day at the receiving site (our own rule; common practice, no source):
+ * the SAME INSTANTS the provider was to work at the quiet site (so a day moved between time zones
+ * keeps its real hours: 08:00-16:00 in Los Angeles becomes 09:00-17:00 in Denver, never the wall
+ * clock copied, which would start the provider an hour earlier), clamped to the receiving site's
+ * opening hours on that local date (first opening to last closing, so a lunch break does not split
+ * the day) and to that date itself. Null when nothing is left: the site is closed that date or
+ * opens only outside those hours. `open` is the receiving site's opening hours that date
+ * (`siteOpeningOn`).
+ */
+export function receivingHours(input: { worked: EpochInterval; open: readonly EpochInterval[]; day: EpochInterval; zone: string }): ReceivingHours | null {
+  if (!input.open.length) return null
+  const startMs = Math.max(input.worked.startMs, Math.min(...input.open.map((range) => range.startMs)), input.day.startMs)
+  const endMs = Math.min(input.worked.endMs, Math.max(...input.open.map((range) => range.endMs)), input.day.endMs)
+  if (endMs <= startMs) return null
+  const clock = (ms: number) => localTime(new Date(ms).toISOString(), input.zone)
+  // The end of the local day is written '24:00', as the Rota writes it.
+  return { startMs, endMs, localStart: clock(startMs), localEnd: endMs === input.day.endMs ? '24:00' : clock(endMs) }
 }
 
 export interface PlacedVisit extends EpochInterval {

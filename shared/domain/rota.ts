@@ -89,6 +89,11 @@ function openingIntervalsOn(site: SiteCalendar, date: LocalDate): EpochInterval[
   return ranges.map((range) => localRangeToEpoch(date, range.start, range.end, site.timeZone))
 }
 
+/** The site's opening hours on one local date as UTC intervals; none on a closed date. */
+export function siteOpeningOn(site: SiteCalendar, date: LocalDate): EpochInterval[] {
+  return isSiteClosedOn(site, date) ? [] : openingIntervalsOn(site, date)
+}
+
 function openingIntervals(site: SiteCalendar, dates: readonly LocalDate[], closed: ReadonlySet<LocalDate>): EpochInterval[] {
   return dates.filter((date) => !closed.has(date)).flatMap((date) => openingIntervalsOn(site, date))
 }

@@ -24,3 +24,22 @@ export const BalanceQuerySchema = z
     if (query.quietBelow >= query.tightFrom) ctx.addIssue({ code: 'custom', path: ['quietBelow'], message: 'must be below tightFrom' })
   })
 export type BalanceQuery = z.infer<typeof BalanceQuerySchema>
+
+/**
+ * POST /api/balance/rota-moves: Balance's rota move in one step, a provider's day moved from a quiet
+ * site to a tight one (whole-day time off at `fromSiteId`, an extra day at `toSiteId` on the same
+ * local date). `dryRun: true` previews what it strands; the hours at the receiving site are computed
+ * by the server (`receivingHours`), never sent.
+ */
+export const RotaMoveSchema = z
+  .object({
+    providerId: IdSchema,
+    date: LocalDateSchema,
+    fromSiteId: IdSchema,
+    toSiteId: IdSchema,
+    dryRun: z.boolean({ error: 'must be true or false' }).optional(),
+  })
+  .superRefine((move, ctx) => {
+    if (move.toSiteId === move.fromSiteId) ctx.addIssue({ code: 'custom', path: ['toSiteId'], message: 'must be another site than fromSiteId' })
+  })
+export type RotaMoveInput = z.infer<typeof RotaMoveSchema>

@@ -6,6 +6,7 @@ import type { SuggestionKind } from '../domain/balance-suggestions'
 import type { RecallKind } from '../domain/recall'
 import type { Channel } from '../domain/sms-channels'
 import type { ChairTimeRequest } from '../schemas/templates'
+import type { StrandedVisitDto } from './rebook'
 
 export interface NamedUse extends UseFigures {
   id: number
@@ -72,9 +73,14 @@ export interface WaitlistFitSuggestion extends SuggestionBase {
   offered: boolean
 }
 
-/** An overdue recall, with the quiet chair time to offer it. */
+/**
+ * An overdue recall whose plan has a real opening in quiet chair time: the openings engine restricted to
+ * the quiet chair's free window (chair capability, a provider on shift who does the procedure, the
+ * whole length including any numbing wait).
+ */
 export interface RecallFitSuggestion extends SuggestionBase {
   kind: 'recall_fit'
+  /** The quiet window the opening lies in. */
   gap: SuggestedGap
   recallId: number
   patientId: number
@@ -82,9 +88,21 @@ export interface RecallFitSuggestion extends SuggestionBase {
   recallKind: RecallKind
   dueDate: string
   canMail: boolean
+  /** The recall's plan (the recall page's: what the patient last had of that kind), as the drawer takes it. */
+  items: Array<{ templateCode: string }>
+  planLabel: string
+  /** The opening: chair, provider and start; "Book in the drawer" opens exactly this. */
+  operatoryId: number
+  providerId: number
+  providerName: string
+  startUtc: string
+  endUtc: string
+  /** The chair time the plan holds, and the part of it that is a numbing wait (practice defaults). */
+  chairMinutes: number
+  numbingMinutes: number
 }
 
-/** A provider who could spend a quiet day at a site whose chairs are tight: time off at one, an extra day at the other. */
+/** A provider who could spend a quiet day at a site whose chairs are tight: moved in one step (POST /api/balance/rota-moves). */
 export interface RotaMoveSuggestion extends SuggestionBase {
   kind: 'rota_move'
   providerId: number
@@ -95,9 +113,12 @@ export interface RotaMoveSuggestion extends SuggestionBase {
   toSiteId: number
   toSiteName: string
   toShare: number
-  /** The provider's hours at the quiet site that day ('HH:mm'), for the extra day. */
+  /** The provider's hours at the quiet site that day, on its clock ('HH:mm'). */
   localStart: string
   localEnd: string
+  /** The same day at the tight site, on ITS clock (`receivingHours`: the same instants within its opening hours). */
+  toLocalStart: string
+  toLocalEnd: string
 }
 
 /** A visit that could slide to join two short free stretches of its chair; only with the patient's agreement. */
@@ -123,3 +144,28 @@ export interface BalanceSuggestionsResponse {
   to: string
   suggestions: BalanceSuggestion[]
 }
+
+/** What a rota move does (POST /api/balance/rota-moves): whole-day time off at one site, an extra day at the other. */
+export interface RotaMovePlan {
+  providerId: number
+  providerName: string
+  /** The local date, the same at both sites. */
+  date: string
+  fromSiteId: number
+  fromSiteName: string
+  /** The provider's hours at the quiet site, on its clock. */
+  fromLocalStart: string
+  fromLocalEnd: string
+  toSiteId: number
+  toSiteName: string
+  /** The extra day at the receiving site, on its own clock (`receivingHours`). */
+  toLocalStart: string
+  toLocalEnd: string
+  startUtc: string
+  endUtc: string
+}
+
+/** The preview (`dryRun`) writes nothing; the save (201) wrote both rota changes in one transaction. */
+export type RotaMoveAnswer =
+  | { dryRun: true; move: RotaMovePlan; strandedVisits: StrandedVisitDto[] }
+  | { dryRun: false; move: RotaMovePlan; strandedVisits: StrandedVisitDto[]; timeOffId: number; extraId: number }

@@ -1,8 +1,10 @@
 // Balance that suggests (issue 17 §3) in real Chromium, at 1440×900 and 1024×768: a quiet day at a
 // test annex shows its waiting patient as a suggestion with the chair-use chart and its table; the
-// offer goes out from the suggestion; the rota suggestion is previewed in the impact dialog and not
-// saved; "Book in the drawer" opens the Chairboard's drawer with the patient chosen. axe-core with the
-// WCAG 2.2 A/AA tags finds nothing unlisted on the page (WCAG 2.2, W3C Recommendation).
+// offer goes out from the suggestion; the rota move is previewed as a whole (day off and extra day)
+// in the impact dialog, saved nothing when cancelled and both changes at once when confirmed; "Book
+// in the drawer" opens the Chairboard's drawer with the patient chosen; a consolidate suggestion's
+// "Send move offer", once confirmed, sends the patient the offer, which arrives at the mail catcher.
+// axe-core with the WCAG 2.2 A/AA tags finds nothing unlisted on the page (WCAG 2.2, W3C Recommendation).
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest'
@@ -11,6 +13,8 @@ import { runAxe, unlisted, type AllowedViolation } from '../helpers/axe'
 import { signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
 import { createAnnex, FILLING, utcAt, type Annex } from '../helpers/booking-fixtures'
+import { createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
+import { waitForOutboxMail } from '../helpers/mail'
 import { weekdayAhead, FRIDAY } from '../helpers/dates'
 
 const ALLOWED = JSON.parse(readFileSync(join(process.cwd(), 'tests', 'browser', 'axe-allow-list.json'), 'utf8')) as AllowedViolation[]
@@ -19,6 +23,9 @@ let tight: Annex
 let day: string
 let patientName: string
 let quietName: string
+let tidy: MailAnnex
+/** Per chair of the tidy annex: the visit between two half-hour stretches, and its patient's name. */
+const middles: Array<{ visitId: number; patientName: string; email: string }> = []
 
 beforeAll(async () => {
   const manager = await signedInAs('manager@fernhollow.test')
@@ -37,7 +44,23 @@ beforeAll(async () => {
   expect(booked.status).toBe(201)
   const dentist = await db('providers').where({ id: quiet.providerIds[0] }).first('user_id')
   await db('user_sites').insert({ user_id: dentist.user_id, site_id: tight.siteId })
-})
+  // A third annex that e-mails its patients: in each chair that day, a visit between two half-hour
+  // stretches (too short to book alone), so Balance suggests moving it to join them.
+  tidy = await createMailAnnex({ patients: 6, providers: 2 })
+  for (const [room, operatoryId] of tidy.operatoryIds.entries()) {
+    let startUtc = utcAt(`${day}T09:00`, tidy.timeZone)
+    for (let index = 0; index < 3; index += 1) {
+      const patientIndex = room * 3 + index
+      const visit = await manager.post('/api/visits', { siteId: tidy.siteId, operatoryId, providerId: tidy.providerIds[room], patientId: tidy.patientIds[patientIndex], startUtc, items: FILLING })
+      expect(visit.status, JSON.stringify(visit.body)).toBe(201)
+      if (index === 1) {
+        const patient = await db('patients').where({ id: tidy.patientIds[patientIndex] }).first('first_name', 'last_name')
+        middles.push({ visitId: visit.body.id, patientName: `${patient.first_name} ${patient.last_name}`, email: tidy.emails[patientIndex]! })
+      }
+      startUtc = new Date(Date.parse(visit.body.endUtc) + 30 * 60_000).toISOString()
+    }
+  }
+}, 60_000)
 afterAll(closeTestDb)
 
 async function openQuietDay(browser: BrowserSession) {
@@ -82,15 +105,20 @@ for (const viewport of [{ width: 1440, height: 900 }, { width: 1024, height: 768
       expect(unlisted(await runAxe(page), '/balance', ALLOWED)).toEqual([])
     })
 
-    it('previews the rota day off in the impact dialog and saves nothing when cancelled', async () => {
+    it('previews the whole rota move in the impact dialog and saves nothing when cancelled', async () => {
       const { page } = browser
       const rota = page.getByTestId('balance-suggestion').filter({ hasText: 'works at both' }).filter({ hasText: quietName }).first()
-      await rota.getByTestId('suggestion-preview-rota').click()
+      expect(await rota.textContent()).toContain('(all day)')
+      await rota.getByTestId('suggestion-move-rota').click()
       const dialog = page.getByTestId('impact-dialog')
       await dialog.waitFor()
-      expect(await dialog.textContent()).toContain('No booked visit would lose them')
-      expect(await rota.textContent()).toContain('(all day)')
+      // One preview of both halves: the day off here and the extra day there, and what the move strands.
+      const details = await dialog.getByTestId('impact-details').textContent()
+      expect(details).toContain(`Day off at ${quietName}`)
+      expect(details).toMatch(/Extra day at Test annex .*: all day on its clock/)
+      expect(await dialog.getByTestId('impact-heading').textContent()).toMatch(/^No booked visit would lose /)
       await screenshot(page, `balance-rota-preview-${viewport.width}`)
+      expect(unlisted(await runAxe(page), '/balance (rota move dialog)', ALLOWED)).toEqual([])
       await dialog.getByRole('button', { name: 'Cancel the change' }).click()
       await expect.poll(() => rota.getByTestId('suggestion-outcome').textContent()).toBe('Nothing changed.')
       expect(await testDb()('shift_exceptions').where({ provider_id: quiet.providerIds[0], start_date: day }).count({ n: '*' }).first()).toEqual({ n: 0 })
@@ -115,21 +143,38 @@ for (const viewport of [{ width: 1440, height: 900 }, { width: 1024, height: 768
       }
     })
 
-    it.runIf(viewport.width === 1024)('saves the day off, then the extra day at the tight site, each asked before it is written', async () => {
+    it('sends a move offer from a consolidate suggestion once confirmed; the e-mail arrives', async () => {
       const { page } = browser
       await showQuietDay(browser)
-      const rota = page.getByTestId('balance-suggestion').filter({ hasText: 'works at both' }).filter({ hasText: quietName }).first()
-      await rota.getByTestId('suggestion-preview-rota').click()
-      await page.getByTestId('impact-dialog').getByTestId('impact-confirm').click()
-      await expect.poll(() => rota.getByTestId('suggestion-outcome').textContent()).toMatch(/^Day off saved\. Next: the extra day at /)
-      await rota.getByTestId('suggestion-extra-day').click()
+      const middle = middles[viewport.width === 1440 ? 0 : 1]!
+      const suggestion = page.getByTestId('balance-suggestion').filter({ hasText: middle.patientName })
+      await suggestion.waitFor({ timeout: 30_000 })
+      expect(await suggestion.getAttribute('data-kind')).toBe('consolidate')
+      await suggestion.getByTestId('suggestion-move-offer').click()
       const dialog = page.getByTestId('impact-dialog')
       await dialog.waitFor()
-      expect(await dialog.textContent()).toContain('(all day)?')
-      await screenshot(page, 'balance-rota-extra-day')
+      expect(await dialog.textContent()).toContain('The visit stays where it is unless they accept.')
+      await screenshot(page, `balance-move-offer-confirm-${viewport.width}`)
+      await dialog.getByTestId('impact-confirm').click()
+      await expect.poll(() => suggestion.getByTestId('suggestion-outcome').textContent(), { timeout: 15_000 }).toMatch(new RegExp(`^Move offer sent to ${middle.patientName} by (e-mail|e-mail and text)`))
+      await screenshot(page, `balance-move-offer-sent-${viewport.width}`)
+      const row = await testDb()('outbox').where({ kind: 'move_offer', visit_id: middle.visitId, channel: 'email' }).first('id')
+      const mail = await waitForOutboxMail(middle.email, row.id)
+      expect(mail.parsed.text ?? '').toMatch(/See both times and answer: \S+/)
+    })
+
+    it.runIf(viewport.width === 1024)('moves the rota day in one step: one preview, one confirmation, both changes saved', async () => {
+      const { page } = browser
+      const rota = page.getByTestId('balance-suggestion').filter({ hasText: 'works at both' }).filter({ hasText: quietName }).first()
+      await rota.getByTestId('suggestion-move-rota').click()
+      const dialog = page.getByTestId('impact-dialog')
+      await dialog.waitFor()
       await dialog.getByTestId('impact-confirm').click()
       await expect.poll(async () => (await testDb()('shift_exceptions').where({ provider_id: quiet.providerIds[0], start_date: day }).select('kind', 'site_id')).map((row) => `${row.kind}@${row.site_id}`).sort())
         .toEqual([`extra@${tight.siteId}`, `time_off@${quiet.siteId}`])
+      // The saved move takes its suggestion away; the answer stays at the top of the list.
+      await expect.poll(() => page.getByRole('status').filter({ hasText: /^Moved: .* works at Test annex .* that day, all day\./ }).count(), { timeout: 15_000 }).toBe(1)
+      await screenshot(page, 'balance-rota-moved-1024')
     })
   })
 }

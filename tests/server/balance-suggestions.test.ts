@@ -17,7 +17,7 @@ let day: string
 
 beforeAll(async () => {
   manager = await signedInAs('manager@fernhollow.test')
-  quiet = await createAnnex({ rooms: 1, providers: 1, patients: 6 })
+  quiet = await createAnnex({ rooms: 1, providers: 1, patients: 7 })
   tight = await createAnnex({ rooms: 1, providers: 1, patients: 2 })
   day = weekdayAhead(9, THURSDAY, quiet.timeZone)
 })
@@ -62,6 +62,7 @@ describe('freed time refilled on Balance', () => {
 describe('Balance suggestions', () => {
   let entryId: number
   let recallId: number
+  let examRecallId: number
   let middle: { id: number; startUtc: string }
 
   beforeAll(async () => {
@@ -74,6 +75,9 @@ describe('Balance suggestions', () => {
     // A patient of the quiet annex whose cleaning was due ten days ago.
     await db('patients').where({ id: quiet.patientIds[4] }).update({ preferred_site_id: quiet.siteId, email: 'recall.patient@example.test', email_consent: true })
     recallId = (await db('recalls').insert({ patient_id: quiet.patientIds[4], kind: 'cleaning', due_date: daysFromToday(-10, quiet.timeZone), updated_at: new Date() }))[0]!
+    // Another whose exam was due twenty days ago (no e-mail).
+    await db('patients').where({ id: quiet.patientIds[6] }).update({ preferred_site_id: quiet.siteId })
+    examRecallId = (await db('recalls').insert({ patient_id: quiet.patientIds[6], kind: 'exam', due_date: daysFromToday(-20, quiet.timeZone), updated_at: new Date() }))[0]!
     // The tight annex's chair holds one visit that day; the quiet annex's dentist works there too.
     await book(tight, 0, `${day}T10:00`)
     const quietDentist = await db('providers').where({ id: quiet.providerIds[0] }).first('user_id')
@@ -100,7 +104,10 @@ describe('Balance suggestions', () => {
     // The waitlist matches a gap of at most 12 hours, so the quiet day's 24 open hours are offered 12 at a time.
     expect(Date.parse(waitlist.gap.endUtc) - Date.parse(waitlist.gap.startUtc)).toBe(12 * H)
 
-    expect(mine.find((item: { kind: string }) => item.kind === 'recall_fit')).toMatchObject({ recallId, patientId: quiet.patientIds[4], recallKind: 'cleaning', canMail: true, date: day })
+    // The annex's dentist does no cleanings: only the exam recall has a real opening.
+    const recalls = mine.filter((item: { kind: string }) => item.kind === 'recall_fit')
+    expect(recalls.map((item: { recallId: number }) => item.recallId)).toEqual([examRecallId])
+    expect(recalls[0]).toMatchObject({ patientId: quiet.patientIds[6], recallKind: 'exam', canMail: false, date: day, operatoryId: quiet.operatoryIds[0], providerId: quiet.providerIds[0] })
 
     const rota = mine.find((item: { kind: string }) => item.kind === 'rota_move')
     expect(rota).toMatchObject({ date: day, providerId: quiet.providerIds[0], fromSiteId: quiet.siteId, toSiteId: tight.siteId, fromShare: 0, localStart: '00:00', localEnd: '24:00' })
@@ -156,6 +163,36 @@ describe('Balance suggestions', () => {
     expect(refused.body.data).toMatchObject({ otherSiteId: quiet.siteId })
     expect((await manager.post('/api/shift-exceptions', body)).status).toBe(201)
     expect((await manager.post('/api/shift-exceptions', extra)).status).toBe(201)
+  })
+
+  it('suggests an overdue recall only where its plan has a real opening, and that opening books', async () => {
+    // A day with nothing booked or off at the quiet annex; "quiet below 10 %" so one exam keeps it quiet.
+    const date = plusDays(day, 2)
+    const ask = () => manager.get(`/api/balance/suggestions?from=${date}&to=${date}&siteId=${quiet.siteId}&quietBelow=0.1&tightFrom=0.5`)
+    const recallsIn = (body: { suggestions: Array<{ kind: string }> }) => body.suggestions.filter((item) => item.kind === 'recall_fit') as Array<Record<string, any>>
+    const first = recallsIn((await ask()).body)
+    // The cleaning recall (hygiene) has no provider who does cleanings: no suggestion for it.
+    expect(first.map((item) => item.recallId)).toEqual([examRecallId])
+    const fit = first[0]!
+    expect(fit.items).toHaveLength(1)
+    expect(fit.items[0].templateCode).toMatch(/^EXAM-/)
+    expect(Date.parse(fit.endUtc) - Date.parse(fit.startUtc)).toBe(fit.chairMinutes * 60_000)
+    expect(Date.parse(fit.startUtc)).toBeGreaterThanOrEqual(Date.parse(fit.gap.startUtc))
+    expect(Date.parse(fit.startUtc)).toBeLessThan(Date.parse(fit.gap.endUtc))
+    // The one click books exactly this opening: chair, provider, time and plan.
+    const booked = await manager.post('/api/visits', { siteId: quiet.siteId, operatoryId: fit.operatoryId, providerId: fit.providerId, patientId: fit.patientId, startUtc: fit.startUtc, items: fit.items })
+    expect(booked.status, JSON.stringify(booked.body)).toBe(201)
+    expect(booked.body.endUtc).toBe(fit.endUtc)
+
+    // Once the dentist does cleanings too, the cleaning recall fits, at a time the exam does not hold.
+    const stored = (await testDb()('providers').where({ id: quiet.providerIds[0] }).first('capabilities')).capabilities
+    const capabilities: string[] = typeof stored === 'string' ? JSON.parse(stored) : stored
+    await testDb()('providers').where({ id: quiet.providerIds[0] }).update({ capabilities: JSON.stringify([...capabilities, 'hygiene']) })
+    const second = recallsIn((await ask()).body)
+    expect(second.map((item) => item.recallId)).toEqual([recallId])
+    expect(second[0]!.items[0].templateCode).toMatch(/^CLEAN-/)
+    expect(Date.parse(second[0]!.startUtc) >= Date.parse(fit.endUtc) || Date.parse(second[0]!.endUtc) <= Date.parse(fit.startUtc)).toBe(true)
+    await testDb()('providers').where({ id: quiet.providerIds[0] }).update({ capabilities: JSON.stringify(capabilities) })
   })
 
   it('answers 400 naming the field, 401 signed out, 403 for the front desk', async () => {

@@ -1,7 +1,8 @@
 // What Balance suggests (issue 17 §3): quiet gaps, rota moves, consolidation moves. Our own rules
 // (common practice, no source). Fixed instants: pure functions.
 import { describe, expect, it } from 'vitest'
-import { consolidationMoves, quietGaps, rotaMoves, type PlacedVisit, type SiteDay } from '../../../../shared/domain/balance-suggestions'
+import { consolidationMoves, quietGaps, receivingHours, rotaMoves, type PlacedVisit, type SiteDay } from '../../../../shared/domain/balance-suggestions'
+import { localRangeToEpoch } from '../../../../shared/domain/rota'
 
 const M = 60_000
 const DAY = Date.UTC(2027, 2, 10, 8) // 08:00 on the day
@@ -79,5 +80,31 @@ describe('consolidationMoves', () => {
     expect(run([visit(1, 0, 60), visit(2, 90, 120, false), visit(3, 150, 480)])).toEqual([])
     expect(run([visit(1, 0, 60), visit(2, 130, 160), visit(3, 170, 480)])).toEqual([]) // 70 minutes before: bookable already
     expect(run([visit(1, 0, 60), visit(2, 80, 110), visit(3, 130, 480)])).toEqual([]) // 20 + 20 is still too short
+  })
+})
+
+describe('receivingHours', () => {
+  // A summer date: Los Angeles is UTC-7, Denver UTC-6 (both on daylight time; IANA tz data).
+  const date = '2027-07-14'
+  const denverDay = localRangeToEpoch(date, '00:00', '24:00', 'America/Denver')
+
+  it('keeps the same instants on the receiving site\'s clock, clamped to its opening hours', () => {
+    const worked = localRangeToEpoch(date, '08:00', '16:00', 'America/Los_Angeles')
+    const open = [localRangeToEpoch(date, '08:00', '12:00', 'America/Denver'), localRangeToEpoch(date, '13:00', '16:30', 'America/Denver')]
+    const hours = receivingHours({ worked, open, day: denverDay, zone: 'America/Denver' })
+    // 08:00–16:00 in Los Angeles is 09:00–17:00 in Denver; Denver closes at 16:30 (the lunch hour does not split the day).
+    expect(hours).toMatchObject({ localStart: '09:00', localEnd: '16:30', startMs: worked.startMs })
+  })
+
+  it('clamps a whole day to the receiving date, ending it at 24:00', () => {
+    const worked = localRangeToEpoch(date, '00:00', '24:00', 'America/Los_Angeles')
+    const hours = receivingHours({ worked, open: [denverDay], day: denverDay, zone: 'America/Denver' })
+    expect(hours).toMatchObject({ localStart: '01:00', localEnd: '24:00', endMs: denverDay.endMs })
+  })
+
+  it('answers null when the site is closed that date or open only outside those hours', () => {
+    const worked = localRangeToEpoch(date, '08:00', '10:00', 'America/Los_Angeles')
+    expect(receivingHours({ worked, open: [], day: denverDay, zone: 'America/Denver' })).toBeNull()
+    expect(receivingHours({ worked, open: [localRangeToEpoch(date, '14:00', '18:00', 'America/Denver')], day: denverDay, zone: 'America/Denver' })).toBeNull()
   })
 })
