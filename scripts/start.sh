@@ -23,4 +23,5 @@ cat <<TXT
   MariaDB: $DB_HOST:$DB_PORT (stop it with: npm run db:stop)
 
 TXT
-exec node .output/server/index.mjs
+read -ra node_flags <<< "$APP_NODE_FLAGS"
+exec node "${node_flags[@]}" .output/server/index.mjs

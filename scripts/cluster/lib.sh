@@ -210,8 +210,9 @@ start_app() {
   local n="$1" port; port="$(app_port "$n")"
   app_running "$n" && return 0
   log "starting app process $n on 127.0.0.1:$port"
+  local node_flags; read -ra node_flags <<< "${APP_NODE_FLAGS:-}"
   HOST=127.0.0.1 PORT="$port" NITRO_PORT="$port" NITRO_HOST=127.0.0.1 \
-    setsid nohup node "$CLUSTER_ROOT/.output/server/index.mjs" >"$CLUSTER_DIR/app$n.log" 2>&1 < /dev/null &
+    setsid nohup node "${node_flags[@]}" "$CLUSTER_ROOT/.output/server/index.mjs" >"$CLUSTER_DIR/app$n.log" 2>&1 < /dev/null &
   echo $! > "$CLUSTER_DIR/app$n.pid"
   for _ in $(seq 1 120); do
     [ "$(http_status "http://127.0.0.1:$port/api/me")" = "401" ] && return 0

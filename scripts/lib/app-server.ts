@@ -46,7 +46,9 @@ export async function startAppServer(extraEnv: Record<string, string> = {}, node
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
   let log = ''
-  const child = spawn(process.execPath, [...nodeArgs, resolve('.output/server/index.mjs')], {
+  // The same Node flags as npm start (APP_NODE_FLAGS, scripts/lib/env.sh), then the caller's own.
+  const appFlags = (process.env.APP_NODE_FLAGS ?? '').split(/\s+/).filter(Boolean)
+  const child = spawn(process.execPath, [...appFlags, ...nodeArgs, resolve('.output/server/index.mjs')], {
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), NITRO_PORT: String(port), NUXT_MAIL_PUBLIC_URL: url, ...extraEnv },
     stdio: ['ignore', 'pipe', 'pipe'],
   })

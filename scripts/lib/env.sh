@@ -18,6 +18,10 @@ export SMS_DIR="${SMS_DIR:-$DATA_DIR/sms}"
 export HOST="${HOST:-127.0.0.1}"
 export PORT="${PORT:-3000}"
 export NUXT_TELEMETRY_DISABLED=1
+# How the app's Node process runs wherever it is started (npm start, the test and benchmark servers,
+# the cluster): the JavaScript heap bounded, so resident memory stays under 250 MB at group scale
+# (README, Performance). Set APP_NODE_FLAGS='' to run with Node's defaults.
+export APP_NODE_FLAGS="${APP_NODE_FLAGS---max-old-space-size=192}"
 
 mkdir -p "$DATA_DIR"
 

@@ -179,6 +179,8 @@ export async function groupScaleDatabase(options: { database?: string; adminData
     await admin.destroy()
   }
   const db = createDb({ ...dbSettingsFromEnv(), database, poolMax: options.poolMax })
+  // A kept group gets the migrations added since it was built (an index, say), like any database.
+  if (built === 'reused') await db.migrate.latest(migratorConfig)
   const sites = (await db('sites').where('slug', 'like', 'group-%').orderBy('id').select('id', 'slug', 'time_zone')).map((site) => {
     const spec = groupSiteSpecs().find((candidate) => candidate.slug === site.slug)!
     return { id: site.id as number, slug: site.slug as string, region: spec.region, zone: site.time_zone as string }

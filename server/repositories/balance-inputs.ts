@@ -1,36 +1,66 @@
 // What Balance reads beyond chair time (issue 17 §3): the visits that gave their time back and the
 // bookings that took it again (refilled time), and the visits of a site's chairs with the patient's
 // contact details and their providers' hands-on time (consolidation suggestions).
+import type { Knex } from 'knex'
 import type { Db } from '../utils/db'
 import { earliestOverlappingStart } from '#shared/domain/input-bounds'
 import type { FreedVisit, LaterVisit } from '#shared/domain/balance-refill'
 import type { ProviderBusy } from '#shared/domain/balance-suggestions'
 
+/** A site and its range of instants (its own local dates' edges). */
+export interface SiteSpan { siteId: number; fromMs: number; toMs: number }
+
+/** Visits of each site starting inside its own span: an OR of (site_id, start_utc) ranges, one index range each. */
+export function startingInSiteSpans(query: Knex.QueryBuilder, spans: readonly SiteSpan[]): void {
+  for (const span of spans) {
+    query.orWhere((one) => one.where('visits.site_id', span.siteId)
+      .where('visits.start_utc', '>=', new Date(span.fromMs)).where('visits.start_utc', '<', new Date(span.toMs)))
+  }
+}
+
+/** Rows sorted into their sites (`site_id`), each turned into what the caller needs. */
+export function bySite<Row extends { site_id: number }, T>(rows: readonly Row[], map: (row: Row) => T): Map<number, T[]> {
+  const sites = new Map<number, T[]>()
+  for (const row of rows) {
+    const list = sites.get(row.site_id)
+    if (list) list.push(map(row))
+    else sites.set(row.site_id, [map(row)])
+  }
+  return sites
+}
+
 /**
- * Cancelled and missed visits of the site starting in [fromMs, toMs), with when their time was freed:
+ * Cancelled and missed visits of each site starting in its span, with when their time was freed:
  * a cancellation's `visit_cancelled` audit row (the last one), else the last state change.
  */
-export async function freedVisits(db: Db, siteId: number, fromMs: number, toMs: number): Promise<FreedVisit[]> {
+export async function freedVisits(db: Db, spans: readonly SiteSpan[]): Promise<Map<number, FreedVisit[]>> {
+  if (!spans.length) return new Map()
   const cancelledAt = db('audit_log').max('audit_log.created_at')
     .where({ 'audit_log.entity': 'visit', 'audit_log.action': 'visit_cancelled' })
     .whereRaw('audit_log.entity_id = CAST(visits.id AS CHAR)')
-  const rows: Array<{ id: number; operatory_id: number; start_utc: Date; end_utc: Date; state: string; state_changed_at: Date | null; cancelled_at: Date | string | null }> = await db('visits')
-    .where('visits.site_id', siteId).whereIn('visits.state', ['cancelled', 'missed'])
-    .where('visits.start_utc', '>=', new Date(fromMs)).where('visits.start_utc', '<', new Date(toMs))
-    .select('visits.id', 'visits.operatory_id', 'visits.start_utc', 'visits.end_utc', 'visits.state', 'visits.state_changed_at', db.raw('(?) AS cancelled_at', [cancelledAt]))
-  return rows.map((row) => {
+  const rows: Array<{ site_id: number; id: number; operatory_id: number; start_utc: Date; end_utc: Date; state: string; state_changed_at: Date | null; cancelled_at: Date | string | null }> = await db('visits')
+    .whereIn('visits.state', ['cancelled', 'missed'])
+    .where((any) => startingInSiteSpans(any, spans))
+    .select('visits.site_id', 'visits.id', 'visits.operatory_id', 'visits.start_utc', 'visits.end_utc', 'visits.state', 'visits.state_changed_at', db.raw('(?) AS cancelled_at', [cancelledAt]))
+  return bySite(rows, (row) => {
     const changedAt = row.state === 'cancelled' && row.cancelled_at ? new Date(row.cancelled_at) : row.state_changed_at
     return { visitId: row.id, operatoryId: row.operatory_id, startMs: row.start_utc.getTime(), endMs: row.end_utc.getTime(), freedAtMs: (changedAt ?? row.start_utc).getTime() }
   })
 }
 
-/** Visits not cancelled in the site's chairs overlapping [fromMs, toMs), with when each was booked. */
-export async function bookedVisits(db: Db, siteId: number, fromMs: number, toMs: number): Promise<LaterVisit[]> {
-  const rows: Array<{ id: number; operatory_id: number; start_utc: Date; end_utc: Date; created_at: Date }> = await db('visits')
-    .where('site_id', siteId).whereNot('state', 'cancelled')
-    .where('start_utc', '<', new Date(toMs)).where('start_utc', '>', earliestOverlappingStart(fromMs)).where('end_utc', '>', new Date(fromMs))
-    .select('id', 'operatory_id', 'start_utc', 'end_utc', 'created_at')
-  return rows.map((row) => ({ visitId: row.id, operatoryId: row.operatory_id, startMs: row.start_utc.getTime(), endMs: row.end_utc.getTime(), createdAtMs: row.created_at.getTime() }))
+/** Visits not cancelled in each site's chairs overlapping its span, with when each was booked. */
+export async function bookedVisits(db: Db, spans: readonly SiteSpan[]): Promise<Map<number, LaterVisit[]>> {
+  if (!spans.length) return new Map()
+  const rows: Array<{ site_id: number; id: number; operatory_id: number; start_utc: Date; end_utc: Date; created_at: Date }> = await db('visits')
+    .whereNot('state', 'cancelled')
+    .where((any) => {
+      for (const span of spans) {
+        any.orWhere((one) => one.where('site_id', span.siteId)
+          .where('start_utc', '<', new Date(span.toMs)).where('start_utc', '>', earliestOverlappingStart(span.fromMs)).where('end_utc', '>', new Date(span.fromMs)))
+      }
+    })
+    .select('site_id', 'id', 'operatory_id', 'start_utc', 'end_utc', 'created_at')
+  return bySite(rows, (row) => ({ visitId: row.id, operatoryId: row.operatory_id, startMs: row.start_utc.getTime(), endMs: row.end_utc.getTime(), createdAtMs: row.created_at.getTime() }))
 }
 
 export interface ChairVisit {

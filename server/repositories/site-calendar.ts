@@ -73,16 +73,9 @@ export interface CalendarReadOptions {
   forBooking?: boolean
 }
 
-/**
- * The site row is read fresh every time; the rest comes from the per-process cache when current.
- * Inside any other transaction the rows may be its own uncommitted writes: those are never cached.
- */
-export async function loadSiteCalendar(db: Db, siteId: number, options: CalendarReadOptions = {}): Promise<SiteCalendarInputs | undefined> {
-  const query = db('sites').where({ id: siteId }).first()
-  if (options.forBooking) query.forShare()
-  const site = await query as SiteRow | undefined
-  if (!site) return undefined
-  const tables = await calendarTables(db, site, !db.isTransaction || Boolean(options.forBooking))
+/** A site row and its (cached when allowed) tables as the calendar inputs. */
+async function calendarOf(db: Db, site: SiteRow, cacheable: boolean): Promise<SiteCalendarInputs> {
+  const tables = await calendarTables(db, site, cacheable)
   const settings = parseJson<Record<string, unknown>>(site.settings, {})
   return {
     site: {
@@ -96,6 +89,27 @@ export async function loadSiteCalendar(db: Db, siteId: number, options: Calendar
     display: { timeZone: site.time_zone, clock: site.clock, dateOrder: site.date_order },
     ...tables,
   }
+}
+
+/**
+ * The site row is read fresh every time; the rest comes from the per-process cache when current.
+ * Inside any other transaction the rows may be its own uncommitted writes: those are never cached.
+ */
+export async function loadSiteCalendar(db: Db, siteId: number, options: CalendarReadOptions = {}): Promise<SiteCalendarInputs | undefined> {
+  const query = db('sites').where({ id: siteId }).first()
+  if (options.forBooking) query.forShare()
+  const site = await query as SiteRow | undefined
+  if (!site) return undefined
+  return calendarOf(db, site, !db.isTransaction || Boolean(options.forBooking))
+}
+
+/** Several sites' calendars (Balance across sites): their rows in one read, in the order asked; unknown ids are left out. */
+export async function loadSiteCalendars(db: Db, siteIds: readonly number[]): Promise<SiteCalendarInputs[]> {
+  if (!siteIds.length) return []
+  const rows = await db('sites').whereIn('id', siteIds) as SiteRow[]
+  const byId = new Map(rows.map((row) => [row.id, row]))
+  const found = siteIds.map((id) => byId.get(id)).filter((row): row is SiteRow => row !== undefined)
+  return Promise.all(found.map((site) => calendarOf(db, site, !db.isTransaction)))
 }
 
 /** Providers who may work at the calendar's site: a shift there, or an extra day there (issue 17: new provider time). */

@@ -22,7 +22,7 @@ import { useDb } from '../utils/db'
 import { scheduleNowMs } from '../utils/clock'
 import { listProviders } from '../repositories/providers'
 import { liveChairVisits, providersHandsOn } from '../repositories/balance-inputs'
-import { siteFigures, sitesInScope } from './balance-service'
+import { sitesFigures, sitesInScope, type SiteFigures } from './balance-service'
 import { planOpeningsInGap, waitlistMatches } from './waitlist-service'
 import { listRecalls } from './recall-service'
 import { recallPlanOf } from './recall-page-service'
@@ -35,14 +35,15 @@ const MIN_GAP_MINUTES = 30
 /** The waitlist matches a gap of at most 12 hours (WaitlistGapQuerySchema). */
 const MAX_GAP_MS = 12 * HOUR_MS
 
-type Figures = Awaited<ReturnType<typeof siteFigures>>
+type Figures = SiteFigures
 
 export async function balanceSuggestions(user: SessionUser, query: BalanceQuery): Promise<BalanceSuggestionsResponse> {
   const db = useDb()
   const sites = await sitesInScope(db, user, query.siteId)
   const thresholds = { quietBelow: query.quietBelow, tightFrom: query.tightFrom }
   const nowMs = scheduleNowMs()
-  const all = await Promise.all(sites.map(async (site) => ({ site, figures: await siteFigures(db, site.id, query, thresholds) })))
+  const figuresOf = new Map((await sitesFigures(db, sites.map((site) => site.id), query, thresholds)).map((figures) => [figures.calendar.site.id, figures]))
+  const all = sites.map((site) => ({ site, figures: figuresOf.get(site.id)! }))
   const suggestions: BalanceSuggestion[] = []
   for (const { site, figures } of all) {
     const gaps = quietGaps({

@@ -58,12 +58,19 @@ export function refillFigures(freed: readonly FreedVisit[], later: readonly Late
   let freedVisits = 0
   let refilledVisits = 0
   const delays: number[] = []
+  // Later visits sorted into their chairs once, so each freed span looks only at its own chair's.
+  const laterIn = new Map<number, LaterVisit[]>()
+  for (const other of later) {
+    const chair = laterIn.get(other.operatoryId)
+    if (chair) chair.push(other)
+    else laterIn.set(other.operatoryId, [other])
+  }
   for (const visit of freed) {
     const span: EpochInterval = { startMs: Math.max(visit.startMs, visit.freedAtMs), endMs: visit.endMs }
     if (span.endMs <= span.startMs) continue
     freedVisits += 1
     freedMs += span.endMs - span.startMs
-    const refills = later.filter((other) => other.visitId !== visit.visitId && other.operatoryId === visit.operatoryId
+    const refills = (laterIn.get(visit.operatoryId) ?? []).filter((other) => other.visitId !== visit.visitId
       && other.createdAtMs > visit.freedAtMs && other.startMs < span.endMs && other.endMs > span.startMs)
     if (!refills.length) continue
     refilledVisits += 1

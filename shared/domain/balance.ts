@@ -87,6 +87,24 @@ function usedWithin(available: readonly EpochInterval[], used: EpochInterval[]):
   return totalDurationMs(intersectIntervals(available, mergeIntervals(used)))
 }
 
+/** The items under each key, in one pass (items whose key is undefined are left out). */
+function bucketBy<T, K>(items: readonly T[], keyOf: (item: T) => K | undefined): Map<K, T[]> {
+  const buckets = new Map<K, T[]>()
+  for (const item of items) {
+    const key = keyOf(item)
+    if (key === undefined) continue
+    const bucket = buckets.get(key)
+    if (bucket) bucket.push(item)
+    else buckets.set(key, [item])
+  }
+  return buckets
+}
+
+/**
+ * Linear in the segments: they are sorted into chairs and providers once, each chair's held time
+ * is merged once and cut into days, instead of every chair and day filtering every segment.
+ * tests/unit/shared/domain/balance.properties.test.ts checks it against the first, plain version.
+ */
 export function siteBalance(input: BalanceInput, thresholds: BalanceThresholds = DEFAULT_BALANCE_THRESHOLDS): SiteBalance {
   const range = { startMs: input.fromMs, endMs: input.toMs }
   const shiftTime = mergeIntervals(input.providers.flatMap((provider) => provider.intervals))
@@ -94,11 +112,17 @@ export function siteBalance(input: BalanceInput, thresholds: BalanceThresholds =
   const unstaffedSpans = unstaffed.map((day) => ({ startMs: day.startMs, endMs: day.endMs }))
   const clip = (intervals: readonly EpochInterval[]) => clipIntervals(mergeIntervals(intervals), range.startMs, range.endMs)
   const openTime = (intervals: readonly EpochInterval[]) => subtractIntervals(clip(intervals), unstaffedSpans)
+  const heldBy = bucketBy(input.segments, (segment) => segment.operatoryId)
+  const workingBy = bucketBy(input.segments, (segment) => (segment.kind === 'hands_on' && segment.providerId !== null ? segment.providerId : undefined))
+  const chairs = input.operatories.map(({ operatoryId, intervals }) => {
+    const openAllDay = mergeIntervals(intervals)
+    const held = mergeIntervals(heldBy.get(operatoryId) ?? [])
+    // Open and held: cut into days below (the same time as cutting the open time first).
+    return { operatoryId, openAllDay, held, openHeld: intersectIntervals(openAllDay, held), open: openTime(intervals) }
+  })
   let chairsAvailable = 0
   let chairsUsed = 0
-  const operatories = input.operatories.map(({ operatoryId, intervals }) => {
-    const open = openTime(intervals)
-    const held = input.segments.filter((segment) => segment.operatoryId === operatoryId)
+  const operatories = chairs.map(({ operatoryId, open, held }) => {
     const availableMs = totalDurationMs(open)
     const usedMs = usedWithin(open, held)
     chairsAvailable += availableMs
@@ -107,21 +131,20 @@ export function siteBalance(input: BalanceInput, thresholds: BalanceThresholds =
   })
   const providers = input.providers.map(({ providerId, intervals }) => {
     const onShift = clip(intervals)
-    const working = input.segments.filter((segment) => segment.providerId === providerId && segment.kind === 'hands_on')
-    return { providerId, ...figures(totalDurationMs(onShift), usedWithin(onShift, working), thresholds) }
+    return { providerId, ...figures(totalDurationMs(onShift), usedWithin(onShift, workingBy.get(providerId) ?? []), thresholds) }
   })
   const days = (input.days ?? []).map((day) => {
+    const nobodyOnShift = unstaffed.includes(day)
+    if (nobodyOnShift) return { date: day.date, ...figures(0, 0, thresholds), nobodyOnShift }
+    const startMs = Math.max(day.startMs, range.startMs)
+    const endMs = Math.min(day.endMs, range.endMs)
     let availableMs = 0
     let usedMs = 0
-    for (const { operatoryId, intervals } of input.operatories) {
-      const open = clipIntervals(mergeIntervals(intervals), Math.max(day.startMs, range.startMs), Math.min(day.endMs, range.endMs))
-      availableMs += totalDurationMs(open)
-      usedMs += usedWithin(open, input.segments.filter((segment) => segment.operatoryId === operatoryId))
+    for (const chair of chairs) {
+      availableMs += totalDurationMs(clipIntervals(chair.openAllDay, startMs, endMs))
+      usedMs += totalDurationMs(clipIntervals(chair.openHeld, startMs, endMs))
     }
-    const nobodyOnShift = unstaffed.includes(day)
-    return nobodyOnShift
-      ? { date: day.date, ...figures(0, 0, thresholds), nobodyOnShift }
-      : { date: day.date, ...figures(availableMs, usedMs, thresholds), nobodyOnShift }
+    return { date: day.date, ...figures(availableMs, usedMs, thresholds), nobodyOnShift }
   })
   return { operatories, providers, chairs: figures(chairsAvailable, chairsUsed, thresholds), days }
 }
