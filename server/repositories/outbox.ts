@@ -53,6 +53,8 @@ export interface OutboxPayload {
   to?: string
   /** An answer to STOP goes out although the patient has just opted out. */
   optOutNotice?: boolean
+  /** An answer to a reply to an offer text: that text's outbox row (one answer per offer text). */
+  aboutText?: number
 }
 
 export interface NewOutboxMessage {
@@ -170,6 +172,8 @@ interface ListedRow extends OutboxRow {
   guardian_email: string | null
   guardian_phone: string | null
   visit_time_zone: string | null
+  /** The visit's start, or a waitlist offer's offered time: the date the recipient rule reads. */
+  recipient_on_utc: Date | null
 }
 
 export interface OutboxFilter {
@@ -183,23 +187,28 @@ export interface OutboxFilter {
   limit: number
 }
 
+// A waitlist offer's rows have no visit: their patient is the offer's waitlist entry's, and the date
+// whose recipient rule applies is the offered time's, at the offer's site (as `noticeMail` and `noticeText` send).
 function listQuery(db: Db) {
   return db('outbox')
     .leftJoin('visits', 'visits.id', 'outbox.visit_id')
-    .leftJoin('patients', 'patients.id', 'visits.patient_id')
-    .leftJoin('sites as visit_sites', 'visit_sites.id', 'visits.site_id')
+    .leftJoin('offers', (on) => on.on('offers.id', '=', db.raw("JSON_VALUE(outbox.payload, '$.offerId')")).andOnVal('outbox.kind', '=', 'offer'))
+    .leftJoin('waitlist_entries as offer_entries', 'offer_entries.id', 'offers.entry_id')
+    .leftJoin('patients', 'patients.id', db.raw('COALESCE(visits.patient_id, offer_entries.patient_id)'))
+    .leftJoin('sites as visit_sites', 'visit_sites.id', db.raw('COALESCE(visits.site_id, offers.site_id)'))
     .select('outbox.*', 'patients.first_name', 'patients.last_name', 'patients.email', 'patients.phone', 'visits.start_utc',
-      'patients.date_of_birth', 'patients.guardian_name', 'patients.guardian_email', 'patients.guardian_phone', 'visit_sites.time_zone as visit_time_zone')
+      'patients.date_of_birth', 'patients.guardian_name', 'patients.guardian_email', 'patients.guardian_phone', 'visit_sites.time_zone as visit_time_zone',
+      db.raw('COALESCE(visits.start_utc, offers.start_utc) as recipient_on_utc'))
 }
 
 /** Who the row is addressed to: the patient, or a minor's guardian (shared/domain/message-recipient.ts); null when nobody. */
 function recipientText(row: ListedRow): string | null {
   const channel = row.channel === 'sms' ? 'sms' : 'email'
-  if (row.first_name === null || !row.start_utc || !row.visit_time_zone) return channel === 'sms' ? row.phone : row.email
+  if (row.first_name === null || !row.recipient_on_utc || !row.visit_time_zone) return channel === 'sms' ? row.phone : row.email
   const chosen = recipientOf({
     firstName: row.first_name, lastName: row.last_name ?? '', dateOfBirth: row.date_of_birth, email: row.email, phone: row.phone,
     guardianName: row.guardian_name, guardianEmail: row.guardian_email, guardianPhone: row.guardian_phone,
-  }, channel, localDateAt(row.start_utc.getTime(), row.visit_time_zone))
+  }, channel, localDateAt(row.recipient_on_utc.getTime(), row.visit_time_zone))
   if ('skip' in chosen) return null
   return chosen.onBehalfOf ? `${chosen.to} (guardian: ${chosen.name})` : chosen.to
 }

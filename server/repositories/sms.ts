@@ -102,6 +102,27 @@ export async function lastTextingSite(db: Db, patientIds: number[]): Promise<num
   return row ? row.site_id : null
 }
 
+/** The latest text sent to a number: its outbox row's kind, site and visit (none for a waitlist offer). */
+export interface LastText { outboxId: number; kind: string; siteId: number | null; visitId: number | null }
+
+/**
+ * The latest text that went to this number (E.164, as `rendered.to` keeps it), our answers to replies
+ * aside: what a reply from the number most likely answers. Reads the sent texts (see README: a stored
+ * recipient column would index it).
+ */
+export async function lastTextTo(db: Db, number: string): Promise<LastText | undefined> {
+  const row = await db('outbox').where({ channel: 'sms' }).whereNot('kind', 'reply_confirmation').whereNotNull('sent_at')
+    .whereRaw("JSON_VALUE(rendered, '$.to') = ?", [number]).orderBy('id', 'desc').first('id', 'kind', 'site_id', 'visit_id')
+  return row ? { outboxId: row.id, kind: row.kind, siteId: row.site_id, visitId: row.visit_id } : undefined
+}
+
+/** Whether a reply to this text (outbox id) was already answered by a text (payload `aboutText`). */
+export async function hasAnswerAbout(db: Db, outboxId: number): Promise<boolean> {
+  const row = await db('outbox').where({ kind: 'reply_confirmation', channel: 'sms' })
+    .whereRaw("JSON_VALUE(payload, '$.aboutText') = ?", [outboxId]).first('id')
+  return Boolean(row)
+}
+
 export interface TextSite {
   id: number
   name: string
@@ -204,9 +225,9 @@ function replyQuery(db: Db) {
     .select('sms_replies.*', 'patients.first_name', 'patients.last_name', 'visits.start_utc')
 }
 
-/** Replies no keyword answered and the front desk has not marked answered, newest first. */
+/** Replies no keyword answered (replies to an offer text among them) and the front desk has not marked answered, newest first. */
 export async function listUnansweredReplies(db: Db, filter: { siteIds: number[] | 'all'; siteId?: number }): Promise<SmsReplyDto[]> {
-  const query = replyQuery(db).whereIn('sms_replies.outcome', ['unanswered', 'no_visit']).whereNull('sms_replies.answered_at')
+  const query = replyQuery(db).whereIn('sms_replies.outcome', ['unanswered', 'no_visit', 'offer_reply']).whereNull('sms_replies.answered_at')
     .whereNotNull('sms_replies.site_id').orderBy('sms_replies.id', 'desc').limit(200)
   if (filter.siteIds !== 'all') query.whereIn('sms_replies.site_id', filter.siteIds)
   if (filter.siteId !== undefined) query.where('sms_replies.site_id', filter.siteId)

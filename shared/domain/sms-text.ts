@@ -63,7 +63,7 @@ export function moveOfferText(facts: MoveOfferTextFacts): string {
   return `${facts.siteName}: ${hello}could ${whose} on ${facts.from} move to ${facts.when}? It stays as booked unless you accept by ${facts.until}: ${facts.link}`
 }
 
-export type ReplyOutcome = 'confirmed' | 'already_confirmed' | 'cancel_requested' | 'cancelled' | 'opted_out' | 'opted_in' | 'unanswered' | 'no_visit'
+export type ReplyOutcome = 'confirmed' | 'already_confirmed' | 'cancel_requested' | 'cancelled' | 'opted_out' | 'opted_in' | 'unanswered' | 'no_visit' | 'offer_reply'
 
 /** The short answer to a patient's reply. */
 export function replyConfirmationText(outcome: ReplyOutcome, facts: { siteName: string; sitePhone: string; when: string | null }): string {
@@ -84,6 +84,9 @@ export function replyConfirmationText(outcome: ReplyOutcome, facts: { siteName: 
       return `${facts.siteName}: we found no visit waiting for your answer. Please call ${facts.sitePhone}.`
     case 'unanswered':
       return `${facts.siteName}: thank you, the front desk has your message.`
+    case 'offer_reply':
+      // A reply to a waitlist offer or a move offer: only its link answers it (no keyword does).
+      return `${facts.siteName}: thank you, the front desk has your message. To answer our offer, please use the link in our text.`
   }
 }
 

@@ -16,3 +16,12 @@ export function freshNumber(line?: string): { written: string; e164: string } {
   const last = line ?? String(Math.floor(Math.random() * 98)).padStart(2, '0')
   return { written: `(${area}) 555-01${last}`, e164: `+1${area}55501${last}` }
 }
+
+/** A patient's reply, delivered by the fake to the app's inbound webhook signed as the real service signs (as scripts/sms-inject.ts). */
+export async function injectReply(appUrl: string, from: string, body: string): Promise<{ sid: string; webhookStatus: number }> {
+  const response = await fetch(`${FAKE()}/_fake/inbound`, {
+    method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ from, body, url: `${appUrl.replace(/\/+$/, '')}/api/sms/inbound` }),
+  })
+  if (response.status !== 200) throw new Error(`the SMS fake refused the reply: ${response.status} ${await response.text()}`)
+  return (await response.json()) as { sid: string; webhookStatus: number }
+}

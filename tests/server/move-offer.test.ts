@@ -4,7 +4,7 @@
 // moves the visit through the booking service's move (the same locks and overlap checks), so a time
 // taken meanwhile is a 409 and the visit stays; declining or expiry leave the visit untouched.
 // Private annexes only (createMailAnnex): no demo weeks used. Dates from today.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { DateTime } from 'luxon'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
@@ -14,7 +14,7 @@ import { createStaff, startIn, STAFF_PASSWORD } from '../helpers/midday'
 import { waitForOutboxMail } from '../helpers/mail'
 import { signOfferToken } from '../../server/utils/offer-token'
 import { formatDateTime } from '../../shared/utils/display-time'
-import { fakeMessages, freshNumber } from '../helpers/sms'
+import { fakeMessages, freshNumber, injectReply } from '../helpers/sms'
 
 let annex: MailAnnex
 let desk: ApiClient
@@ -269,5 +269,39 @@ describe('by text as well (texts of issue 18)', () => {
     expect(refused.status).toBe(409)
     expect(JSON.stringify(refused.body)).toMatch(/No move offer sent: no e-mail or text can reach them: .*no guardian e-mail address.*; .*no guardian mobile number/)
     expect(await testDb()('move_offers').where({ visit_id: third.visit.id }).count({ n: '*' })).toEqual([{ n: 0 }])
+  })
+
+  it('a "C" after a move offer text confirms and moves nothing: the reply shows in the visit\'s thread and the site\'s unanswered texts, pointed to the link once; STOP still opts out', async () => {
+    const patientId = annex.patientIds[2]!
+    const number = freshNumber()
+    await testDb()('patients').where({ id: patientId }).update({ phone: number.written, sms_consent: true, sms_opted_out_at: null })
+    const { visit, proposed } = await visitWithProposal(2, 72)
+    const sent = await send(visit.id, proposed)
+    expect(sent.status, JSON.stringify(sent.body)).toBe(201)
+    await sentText(visit.id, number.e164)
+    const before = await testDb()('visits').where({ patient_id: patientId }).orderBy('id').select('id', 'state', 'start_utc', 'confirmed_at', 'cancel_requested_at')
+
+    for (const body of ['C', 'Yes']) {
+      const reply = await injectReply(inject('baseURL'), number.e164, body)
+      expect(reply.webhookStatus).toBe(200)
+      expect(await testDb()('sms_replies').where({ message_sid: reply.sid }).first()).toMatchObject({ outcome: 'offer_reply', site_id: annex.siteId, visit_id: visit.id })
+    }
+    // No visit of the patient confirmed, moved or asked to be cancelled; the offer still open.
+    expect(await testDb()('visits').where({ patient_id: patientId }).orderBy('id').select('id', 'state', 'start_utc', 'confirmed_at', 'cancel_requested_at')).toEqual(before)
+    expect((await testDb()('move_offers').where({ id: sent.body.moveOfferId }).first('state')).state).toBe('sent')
+    const thread = await desk.get(`/api/visits/${visit.id}/texts`)
+    expect((thread.body.entries as Array<{ direction: string; text: string; state: string }>).filter((entry) => entry.direction === 'in').map((entry) => [entry.text, entry.state])).toEqual([['C', 'offer_reply'], ['Yes', 'offer_reply']])
+    const listed = (await desk.get(`/api/sms/unanswered?siteId=${annex.siteId}`)).body as Array<{ visitId: number; body: string }>
+    expect(listed.filter((row) => row.visitId === visit.id).map((row) => row.body)).toEqual(['Yes', 'C'])
+    const pointer = async () => (await fakeMessages(number.e164)).filter((message) => message.body.includes('please use the link in our text'))
+    await expect.poll(async () => (await pointer()).length, { timeout: 20_000, interval: 200 }).toBe(1)
+    expect(await testDb()('audit_log').where({ entity: 'visit', entity_id: String(visit.id) }).whereIn('action', ['visit_confirmed', 'visit_cancel_requested', 'visit_cancelled']).count({ n: '*' })).toEqual([{ n: 0 }])
+
+    await injectReply(inject('baseURL'), number.e164, 'stop')
+    expect((await testDb()('patients').where({ id: patientId }).first('sms_opted_out_at')).sms_opted_out_at).not.toBeNull()
+    await expect.poll(async () => (await fakeMessages(number.e164)).some((message) => message.body.includes('you will get no more texts from us')), { timeout: 20_000, interval: 200 }).toBe(true)
+    // The Outbox names the patient for the move offer's rows too.
+    const rows = (await admin.get(`/api/outbox?siteId=${annex.siteId}&visitId=${visit.id}&limit=50`)).body as Array<{ kind: string; channel: string; recipient: string | null }>
+    expect(rows.filter((row) => row.kind === 'move_offer').map((row) => [row.channel, row.recipient]).sort()).toEqual([['email', annex.emails[2]], ['sms', number.written]])
   })
 })

@@ -10,10 +10,9 @@ import { startAppServer, type RunningServer } from '../helpers/app-server'
 import { closeTestDb, testDb } from '../helpers/db'
 import { bookingFor, createMailAnnex, type MailAnnex } from '../helpers/mail-fixtures'
 import { atAhead, MONDAY, TUESDAY, WEDNESDAY } from '../helpers/dates'
-import { fakeMessages, freshNumber } from '../helpers/sms'
+import { fakeMessages, freshNumber, injectReply } from '../helpers/sms'
 
 const ZONE = 'America/Los_Angeles'
-const FAKE = process.env.NUXT_SMS_FAKE_URL!
 const TOKEN = process.env.NUXT_SMS_AUTH_TOKEN!
 const servers: RunningServer[] = []
 const ALL_TEXT = { invitation: ['email', 'sms'], update: ['email', 'sms'], cancellation: ['email', 'sms'], reminder: ['email', 'sms'], offer: ['email', 'sms'], move_offer: ['email', 'sms'] }
@@ -39,14 +38,6 @@ function laneEnv(lane: string): Record<string, string> {
 
 async function textRows(visitId: number) {
   return testDb()('outbox').where({ visit_id: visitId, channel: 'sms' }).orderBy('id')
-}
-
-async function injectReply(server: RunningServer, from: string, body: string): Promise<{ sid: string; webhookStatus: number }> {
-  const response = await fetch(`${FAKE}/_fake/inbound`, {
-    method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ from, body, url: `${server.url}/api/sms/inbound` }),
-  })
-  expect(response.status).toBe(200)
-  return (await response.json()) as { sid: string; webhookStatus: number }
 }
 
 /** Makes a visit's queued reminders due now (they were planned for days ahead). */
@@ -107,7 +98,7 @@ describe('texts through the fake', () => {
   it('C confirms the visit waiting for an answer, answers with a text and writes an audit row', async () => {
     const booked = await desk.post('/api/visits', bookingFor(annex, 1, atAhead(3, TUESDAY, '09:00', ZONE)))
     const id = booked.body.id as number
-    const answer = await injectReply(server, annex.numbers[1]!, 'c')
+    const answer = await injectReply(server.url, annex.numbers[1]!, 'c')
     expect(answer.webhookStatus).toBe(200)
     expect((await testDb()('visits').where({ id }).first()).state).toBe('confirmed')
     const reply = await testDb()('sms_replies').where({ message_sid: answer.sid }).first()
@@ -120,7 +111,7 @@ describe('texts through the fake', () => {
   it('X raises a cancel request under the site\'s policy (request)', async () => {
     const booked = await desk.post('/api/visits', bookingFor(annex, 2, atAhead(3, WEDNESDAY, '09:00', ZONE)))
     const id = booked.body.id as number
-    const answer = await injectReply(server, annex.numbers[2]!, 'X')
+    const answer = await injectReply(server.url, annex.numbers[2]!, 'X')
     expect(answer.webhookStatus).toBe(200)
     const visit = await testDb()('visits').where({ id }).first()
     expect(visit.state).toBe('booked')
@@ -133,7 +124,7 @@ describe('texts through the fake', () => {
   it('STOP stops further texts (a later reminder is skipped, logged); START resumes', async () => {
     const booked = await desk.post('/api/visits', bookingFor(annex, 3, atAhead(4, MONDAY, '09:00', ZONE)))
     const id = booked.body.id as number
-    await injectReply(server, annex.numbers[3]!, 'STOP')
+    await injectReply(server.url, annex.numbers[3]!, 'STOP')
     expect((await testDb()('patients').where({ id: annex.patientIds[3] }).first()).sms_opted_out_at).not.toBeNull()
     await expect.poll(async () => (await fakeMessages(annex.numbers[3]!)).some((message) => /no more texts/.test(message.body)), { timeout: 20_000, interval: 200 }).toBe(true)
     const [stopped] = await reminderDueNow(id)
@@ -142,7 +133,7 @@ describe('texts through the fake', () => {
     const sentBefore = (await fakeMessages(annex.numbers[3]!)).filter((message) => /reminder/.test(message.body)).length
     expect(sentBefore).toBe(0)
 
-    await injectReply(server, annex.numbers[3]!, 'Start')
+    await injectReply(server.url, annex.numbers[3]!, 'Start')
     expect((await testDb()('patients').where({ id: annex.patientIds[3] }).first()).sms_opted_out_at).toBeNull()
     const [resumed] = await reminderDueNow(id)
     await expect.poll(async () => (await testDb()('outbox').where({ id: resumed }).first()).state, { timeout: 20_000, interval: 200 }).toBe('sent')
@@ -153,7 +144,7 @@ describe('texts through the fake', () => {
   it('lists an unknown reply to the front desk and shows it in the visit\'s thread', async () => {
     const booked = await desk.post('/api/visits', bookingFor(annex, 4, atAhead(4, TUESDAY, '09:00', ZONE)))
     const id = booked.body.id as number
-    await injectReply(server, annex.numbers[4]!, 'Can I come an hour later?')
+    await injectReply(server.url, annex.numbers[4]!, 'Can I come an hour later?')
     const listed = await desk.get(`/api/sms/unanswered?siteId=${annex.siteId}`)
     expect(listed.status).toBe(200)
     const reply = listed.body.find((entry: { body: string }) => entry.body === 'Can I come an hour later?')

@@ -4,7 +4,7 @@
 // the patient, or a minor's guardian, agreed to: real SMTP into the catcher, real HTTP to the SMS fake);
 // the first patient to accept gets the time through the booking transaction, everyone else hears "this
 // time has just been taken". Private annexes only (createMailAnnex): no demo weeks used.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { DateTime } from 'luxon'
 import { ApiClient, signedInAs } from '../helpers/api-client'
 import { closeTestDb, testDb } from '../helpers/db'
@@ -14,7 +14,7 @@ import { startIn } from '../helpers/midday'
 import { signOfferToken } from '../../server/utils/offer-token'
 import { formatDateTime } from '../../shared/utils/display-time'
 import { waitForOutboxMail } from '../helpers/mail'
-import { fakeMessages, freshNumber } from '../helpers/sms'
+import { fakeMessages, freshNumber, injectReply } from '../helpers/sms'
 
 let annex: MailAnnex
 let admin: ApiClient
@@ -276,6 +276,12 @@ describe('offers by text as well (issue 17 §2, texts of issue 18)', () => {
     expect(guardianText).toContain(`Hello Rosa Quill, a dental visit time has come free for ${child.first_name}`)
     await waitForOutboxMail(guardianEmail, (await offerRows(minorOffer.offerId)).find((row) => row.channel === 'email')!.id)
     expect(await fakeMessages(numbers.child.e164)).toEqual([])
+    // The Outbox names the guardian as the recipient of both the minor's offer rows (shared/domain/message-recipient.ts).
+    const minorIds = (await offerRows(minorOffer.offerId)).map((row) => row.id)
+    const listed = (await admin.get(`/api/outbox?siteId=${annex.siteId}&limit=200`)).body as Array<{ id: number; channel: string; recipient: string | null }>
+    expect(listed.filter((row) => minorIds.includes(row.id)).map((row) => [row.channel, row.recipient]).sort()).toEqual([
+      ['email', `${guardianEmail} (guardian: Rosa Quill)`], ['sms', `${numbers.guardian.written} (guardian: Rosa Quill)`],
+    ])
 
     // The texted link opens the offer page; accepting from it books the time, once.
     const page = await fetch(textLink![1]!)
@@ -293,6 +299,53 @@ describe('offers by text as well (issue 17 §2, texts of issue 18)', () => {
     expect(late.status).toBe(409)
     const booked = await testDb()('visits').where({ site_id: annex.siteId, start_utc: new Date(visit.startUtc) }).whereNot('state', 'cancelled').select('patient_id')
     expect(booked).toEqual([{ patient_id: both }])
+    await closeAll()
+  })
+
+  it('a reply to an offer text lands in the offering site\'s unanswered texts, is pointed to the link once, confirms no visit; STOP still opts out; the Outbox names who each offer row went to', async () => {
+    const patientId = annex.patientIds[9]!
+    const number = freshNumber()
+    await testDb()('patients').where({ id: patientId }).update({ phone: number.written, sms_consent: true, sms_opted_out_at: null })
+    // A visit of theirs waiting for an answer: a "C" meant for the offer must not confirm it.
+    const own = await book(9, startIn(30 * 60), 1)
+    const freed = await book(33, startIn(54 * 60), 1)
+    await admin.post(`/api/visits/${freed.id}/cancel`, { reason: 'Moved away' })
+    const entry = await wait(9)
+    const sent = await admin.post('/api/waitlist/offers', { visitId: freed.id, entryIds: [entry.id] })
+    expect(sent.status, JSON.stringify(sent.body)).toBe(200)
+    const offerId = (sent.body.sent as Array<{ offerId: number }>)[0]!.offerId
+    await sentText(offerId, number.e164)
+
+    const reply = await injectReply(inject('baseURL'), number.e164, 'C')
+    expect(reply.webhookStatus).toBe(200)
+    const kept = await testDb()('sms_replies').where({ message_sid: reply.sid }).first()
+    expect(kept).toMatchObject({ outcome: 'offer_reply', site_id: annex.siteId, visit_id: null, patient_id: patientId })
+    expect((await testDb()('visits').where({ id: own.id }).first('state')).state).toBe('booked')
+    expect((await testDb()('offers').where({ id: offerId }).first('state')).state).toBe('sent')
+    // The front desk of the offering site sees it.
+    const listed = await admin.get(`/api/sms/unanswered?siteId=${annex.siteId}`)
+    expect((listed.body as Array<{ id: number; body: string }>).find((row) => row.id === kept.id)).toMatchObject({ body: 'C' })
+    // One answer, pointing to the link; a second reply is listed but not answered again.
+    const pointer = async () => (await fakeMessages(number.e164)).filter((message) => message.body.includes('please use the link in our text'))
+    await expect.poll(async () => (await pointer()).length, { timeout: 20_000, interval: 200 }).toBe(1)
+    expect((await pointer())[0]!.body).toMatch(/^Test annex[^:]*: thank you, the front desk has your message\. To answer our offer, please use the link in our text\.$/)
+    const second = await injectReply(inject('baseURL'), number.e164, 'Is it with the same dentist?')
+    expect((await testDb()('sms_replies').where({ message_sid: second.sid }).first()).outcome).toBe('offer_reply')
+    expect(await testDb()('outbox').where({ kind: 'reply_confirmation' }).whereRaw("JSON_VALUE(payload, '$.replyId') = ?", [
+      (await testDb()('sms_replies').where({ message_sid: second.sid }).first('id')).id]).count({ n: '*' })).toEqual([{ n: 0 }])
+
+    // STOP still opts the number out, with its one notice.
+    await injectReply(inject('baseURL'), number.e164, 'STOP')
+    expect((await testDb()('patients').where({ id: patientId }).first('sms_opted_out_at')).sms_opted_out_at).not.toBeNull()
+    await expect.poll(async () => (await fakeMessages(number.e164)).some((message) => message.body.includes('you will get no more texts from us')), { timeout: 20_000, interval: 200 }).toBe(true)
+
+    // The Outbox names the patient each offer row went to, e-mail and text (no visit on these rows).
+    const rows = (await admin.get(`/api/outbox?siteId=${annex.siteId}&limit=200`)).body as Array<{ id: number; channel: string; recipient: string | null; patientName: string | null }>
+    const ids = (await offerRows(offerId)).map((row) => row.id)
+    const patient = await testDb()('patients').where({ id: patientId }).first('first_name', 'last_name', 'email')
+    expect(rows.filter((row) => ids.includes(row.id)).map((row) => [row.channel, row.recipient, row.patientName]).sort()).toEqual([
+      ['email', patient.email, `${patient.first_name} ${patient.last_name}`], ['sms', number.written, `${patient.first_name} ${patient.last_name}`],
+    ])
     await closeAll()
   })
 })

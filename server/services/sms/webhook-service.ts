@@ -2,16 +2,19 @@
 // a text's delivery status, and a patient's reply. A reply is matched by number to the patient's
 // next visit waiting for an answer: C/YES/Y confirms it, X/CANCEL/N asks to cancel it (the site's
 // patientCancel policy decides whether at once), STOP and the carrier words opt the number out,
-// START/UNSTOP back in, anything else is listed for the front desk. Each reply is kept, audited and
-// answered with a short text (queued in the outbox, so it is logged and shown in the thread).
+// START/UNSTOP back in, anything else is listed for the front desk. A reply from a number whose latest
+// text was a waitlist offer or a move offer answers that offer, not a visit: no keyword but STOP/START
+// acts on it, it is listed to the site that sent the offer (a move offer's reply also in its visit's
+// thread), and the patient is pointed to the offer's link, once per offer text. Each reply is kept,
+// audited and answered with a short text (queued in the outbox, so it is logged and shown in the thread).
 import type { Db } from '../../utils/db'
 import { inTransaction } from '../../utils/db-retry'
 import { writeAudit } from '../../repositories/audit-log'
 import { enqueueMessage, enqueueMessages, type OutboxRow } from '../../repositories/outbox'
 import { loadMailContext } from '../../repositories/mail-context'
 import {
-  findTextBySid, findTextSite, hasMailInvitation, insertReply, lastTextingSite, nextAnsweringVisit,
-  patientsWithNumberEnding, recordTextStatus, setTextOptOut, updateReply, type AwaitingVisit, type TextPatient,
+  findTextBySid, findTextSite, hasAnswerAbout, hasMailInvitation, insertReply, lastTextingSite, lastTextTo, nextAnsweringVisit,
+  patientsWithNumberEnding, recordTextStatus, setTextOptOut, updateReply, type AwaitingVisit, type LastText, type TextPatient,
 } from '../../repositories/sms'
 import { nationalDigitsOf, toE164 } from '#shared/domain/sms-phone'
 import { replyKeywordOf, type ReplyKeyword } from '#shared/domain/sms-replies'
@@ -56,18 +59,28 @@ interface ReplyPlan {
   outcome: ReplyOutcome | 'unknown_number'
   visit: AwaitingVisit | undefined
   siteId: number | null
+  /** A reply to an offer text: that text (its outbox row) and, for a move offer, its visit. */
+  offerText?: LastText
 }
 
-async function actOnReply(trx: Db, keyword: ReplyKeyword | null, patients: TextPatient[]): Promise<ReplyPlan> {
+/** Texts a reply cannot answer by keyword: their own link answers them (issue 17 §2, §3). */
+const OFFER_KINDS = new Set(['offer', 'move_offer'])
+
+async function actOnReply(trx: Db, keyword: ReplyKeyword | null, patients: TextPatient[], from: string): Promise<ReplyPlan> {
   const ids = patients.map((patient) => patient.id)
   if (!ids.length) return { outcome: 'unknown_number', visit: undefined, siteId: null }
   const now = new Date()
-  const fallbackSite = async (visit?: AwaitingVisit) => visit?.siteId ?? (await lastTextingSite(trx, ids))
+  const latest = await lastTextTo(trx, from)
+  const fallbackSite = async (visit?: AwaitingVisit) => visit?.siteId ?? latest?.siteId ?? (await lastTextingSite(trx, ids))
   if (keyword === 'stop' || keyword === 'start') {
     // The number opts out (or back in): every patient record with it.
     await setTextOptOut(trx, ids, keyword === 'stop' ? now : null)
     const visit = await nextAnsweringVisit(trx, ids, 'any', now)
     return { outcome: keyword === 'stop' ? 'opted_out' : 'opted_in', visit, siteId: await fallbackSite(visit) }
+  }
+  if (latest && OFFER_KINDS.has(latest.kind) && latest.siteId !== null) {
+    // "C" after an offer text must not confirm some other visit: the offer's link answers the offer.
+    return { outcome: 'offer_reply', visit: undefined, siteId: latest.siteId, offerText: latest }
   }
   if (keyword === 'confirm' || keyword === 'cancel') {
     const visit = await nextAnsweringVisit(trx, ids, keyword, now)
@@ -88,14 +101,16 @@ async function actOnReply(trx: Db, keyword: ReplyKeyword | null, patients: TextP
 
 async function answerText(trx: Db, plan: ReplyPlan, to: string, replyId: number): Promise<void> {
   if (plan.siteId === null) return
+  // One pointer to the link per offer text: further replies are listed for the front desk, unanswered by text.
+  if (plan.offerText && (await hasAnswerAbout(trx, plan.offerText.outboxId))) return
   const site = await findTextSite(trx, plan.siteId)
   if (!site) return
   const context = plan.visit ? await loadMailContext(trx, plan.visit.id) : undefined
   const when = context ? visitFacts(context).shortWhen : null
   const body = replyConfirmationText(plan.outcome as ReplyOutcome, { siteName: site.name, sitePhone: site.phone, when })
   await enqueueMessage(trx, {
-    kind: 'reply_confirmation', channel: 'sms', visitId: plan.visit?.id ?? null, siteId: site.id, dueAt: new Date(),
-    payload: { body, to, replyId, ...(plan.outcome === 'opted_out' ? { optOutNotice: true } : {}) },
+    kind: 'reply_confirmation', channel: 'sms', visitId: plan.visit?.id ?? plan.offerText?.visitId ?? null, siteId: site.id, dueAt: new Date(),
+    payload: { body, to, replyId, ...(plan.outcome === 'opted_out' ? { optOutNotice: true } : {}), ...(plan.offerText ? { aboutText: plan.offerText.outboxId } : {}) },
   })
 }
 
@@ -113,12 +128,14 @@ export async function receiveReply(params: Record<string, string>): Promise<void
     // Kept first: a webhook the service delivers twice is acted on once.
     const replyId = await insertReply(trx, { messageSid: sid, fromNumber: from, body, patientId: patients[0]?.id ?? null, visitId: null, siteId: null, outcome: 'received' })
     if (replyId === null) return
-    const plan = await actOnReply(trx, keyword, patients)
+    const plan = await actOnReply(trx, keyword, patients, from)
     const patientId = plan.visit?.patientId ?? patients[0]?.id ?? null
-    await updateReply(trx, replyId, { outcome: plan.outcome, visitId: plan.visit?.id ?? null, siteId: plan.siteId, patientId })
+    // A move offer's reply shows in its visit's thread too; a waitlist offer has no visit.
+    const visitId = plan.visit?.id ?? plan.offerText?.visitId ?? null
+    await updateReply(trx, replyId, { outcome: plan.outcome, visitId, siteId: plan.siteId, patientId })
     await writeAudit(trx, {
-      userId: null, action: 'text_reply_received', entity: plan.visit ? 'visit' : 'patient', entityId: plan.visit?.id ?? patientId,
-      after: { replyId, keyword, outcome: plan.outcome },
+      userId: null, action: 'text_reply_received', entity: visitId ? 'visit' : 'patient', entityId: visitId ?? patientId,
+      after: { replyId, keyword, outcome: plan.outcome, ...(plan.offerText ? { aboutText: plan.offerText.outboxId, aboutKind: plan.offerText.kind } : {}) },
     })
     if (plan.outcome !== 'unknown_number') await answerText(trx, plan, from, replyId)
   })

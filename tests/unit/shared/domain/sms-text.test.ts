@@ -41,4 +41,11 @@ describe('wording', () => {
     expect(replyConfirmationText('opted_out', { siteName: 'Test Site', sitePhone: '555-0100', when: null })).toContain('START')
     expect(replyConfirmationText('opted_in', { siteName: 'Test Site', sitePhone: '555-0100', when: null })).toContain('STOP')
   })
+
+  it('points a reply to an offer text to the offer\'s link, in one short text (160 GSM-7 characters: one segment, 3GPP TS 23.040 §9.2.3.24)', () => {
+    const answer = replyConfirmationText('offer_reply', { siteName: 'Fernhollow Dental East', sitePhone: '555-0100', when: null })
+    expect(answer).toBe('Fernhollow Dental East: thank you, the front desk has your message. To answer our offer, please use the link in our text.')
+    expect(answer.length).toBeLessThanOrEqual(160)
+    expect(answer).not.toMatch(/\b(C|YES|X)\b/)
+  })
 })
