@@ -28,6 +28,7 @@ import { BlockSchema, ShiftExceptionSchema, ShiftSchema } from '../../shared/sch
 import { TemplateSchema } from '../../shared/schemas/templates'
 import { NewWaitlistEntrySchema, SendOffersSchema } from '../../shared/schemas/waitlist'
 import { RecallMailSchema } from '../../shared/schemas/recall'
+import { RotaMoveSchema } from '../../shared/schemas/balance'
 
 const SEED = process.env.FUZZ_SEED ? Number(process.env.FUZZ_SEED) : Math.floor(Math.random() * 2 ** 31)
 const MIN_REQUESTS = 10_000
@@ -79,6 +80,7 @@ const CREATE_GUARDS: Record<string, ZodType> = {
   'POST /api/waitlist': NewWaitlistEntrySchema,
   'POST /api/waitlist/offers': SendOffersSchema,
   'POST /api/recalls/mail': RecallMailSchema,
+  'POST /api/balance/rota-moves': RotaMoveSchema,
 }
 /** Writes that change nothing stored: any body may go. The inbound-mail webhook refuses every post
  * without the shared secret's signature (401), and the SMS service's webhooks change nothing without
