@@ -54,6 +54,9 @@ export function createDb(settings: DbSettings): Knex {
       // mysql2 takes a list of types here (its ConnectionOptions); knex's own typing says boolean.
       dateStrings: ['DATE'] as unknown as boolean,
       supportBigNumbers: true,
+      // Lets server/repositories/round-trip.ts send a transaction's fixed statements together. Every
+      // statement is still built by Knex with bound values; no SQL text is ever built from input.
+      multipleStatements: true,
       charset: 'utf8mb4',
     },
     pool: {

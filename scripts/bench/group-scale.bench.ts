@@ -36,6 +36,7 @@ const API_RUNS = 30
 const DAYS = 30
 const HOME_DATABASE = dbSettingsFromEnv().database
 const fmt = (value: number) => value.toFixed(1)
+const fmt2 = (value: number) => value.toFixed(2)
 const PARTS = new Set((process.env.GROUP_BENCH_PARTS ?? 'engine,api,booking').split(',').map((part) => part.trim()))
 
 const group = await groupScaleDatabase({ adminDatabase: HOME_DATABASE, poolMax: CLIENTS + 2 })
@@ -176,14 +177,18 @@ try {
       return {}
     })).then(() => ({}))
     await me()
-    const floor = await withCpu({ app: appPid }, total, me)
+    // The floor moves with the shared machine (1.0 to 1.7 ms between runs here): measured three
+    // times, the median is the divisor and the range is printed beside it.
+    const floors: number[] = []
+    for (let round = 0; round < 3; round += 1) floors.push((await withCpu({ app: appPid }, total, me)).cpuMs.app!)
+    const floor = { cpuMs: { app: percentile(floors, 0.5) } }
     console.log(`Booking at group scale, one app process, single MariaDB: ${CLIENTS} clients × ${BOOKINGS_PER_CLIENT} non-conflicting bookings (after ${WARM_UP_PER_CLIENT} warm-up each)`)
     console.log(`  raw mysql2 ceiling  : ${fmt(ceiling.perSecond)} bookings/s (p50 ${fmt(ceiling.p50)} ms, p95 ${fmt(ceiling.p95)} ms)`)
     console.log(`  HTTP through the app: ${fmt(http.perSecond)} bookings/s (p50 ${fmt(http.p50)} ms, p95 ${fmt(http.p95)} ms, ${http.failures} not 201)`)
     console.log(`  app / ceiling       : ${fmt((http.perSecond / ceiling.perSecond) * 100)} %`)
     console.log(`  CPU ms per booking, ceiling: ${cpuLine(ceiling.cpuMs)}`)
     console.log(`  CPU ms per booking, HTTP   : ${cpuLine(http.cpuMs)}`)
-    console.log(`  CPU ms per signed-in GET /api/me (the floor): ${cpuLine(floor.cpuMs)}`)
+    console.log(`  CPU ms per signed-in GET /api/me (the floor): ${cpuLine(floor.cpuMs)} (median of 3; ${fmt2(Math.min(...floors))} to ${fmt2(Math.max(...floors))})`)
     console.log(`  app CPU per booking / floor: ×${(http.cpuMs.app! / floor.cpuMs.app!).toFixed(1)} (target ≤ 2.5)`)
   }
   console.log('  machine shared: load average at end', readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' '))

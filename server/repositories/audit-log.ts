@@ -1,6 +1,7 @@
 // Who did what, when, with the state before and after.
 import type { Db } from '../utils/db'
 import type { AuditEntryDto } from '#shared/types/audit'
+import { writeOnly, type Statement } from './round-trip'
 
 export interface AuditEntry {
   userId: number | null
@@ -12,8 +13,8 @@ export interface AuditEntry {
   ip?: string | null
 }
 
-export async function writeAudit(db: Db, entry: AuditEntry): Promise<void> {
-  await db('audit_log').insert({
+function auditRow(entry: AuditEntry) {
+  return {
     user_id: entry.userId,
     action: entry.action,
     entity: entry.entity,
@@ -21,7 +22,16 @@ export async function writeAudit(db: Db, entry: AuditEntry): Promise<void> {
     before: entry.before === undefined ? null : JSON.stringify(entry.before),
     after: entry.after === undefined ? null : JSON.stringify(entry.after),
     ip: entry.ip ?? null,
-  })
+  }
+}
+
+export async function writeAudit(db: Db, entry: AuditEntry): Promise<void> {
+  await db('audit_log').insert(auditRow(entry))
+}
+
+/** The same write as a statement, to go with others in one round trip. */
+export function auditStatement(db: Db, entry: AuditEntry): Statement<void> {
+  return writeOnly(db('audit_log').insert(auditRow(entry)))
 }
 
 export interface AuditFilter {

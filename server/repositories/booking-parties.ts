@@ -4,6 +4,7 @@ import type { PatientDto } from '#shared/types/visits'
 import type { ProviderKind } from '#shared/types/people'
 import { ROLE_GROUPS } from '#shared/utils/access'
 import { parseJson } from './json'
+import { inOneTrip, rowsOf, statement, type Statement } from './round-trip'
 import { toPatientDto, type PatientRow } from './patients'
 import { toTextPatient, type TextPatient, type TextPatientRow } from './sms'
 
@@ -30,8 +31,16 @@ interface PartyColumns {
  * outbox's channel choice reads it (numbers, consents, opt-out), so the booking need not read it again;
  * `openWaitlistEntryIds` the patient's open waitlist entries, which a booking may close (same reason).
  */
-export async function findBookingParties(db: Db, providerId: number, patientId: number): Promise<{ provider?: ProviderDetails; patient?: PatientDto; textPatient?: TextPatient; openWaitlistEntryIds: number[] }> {
-  const [rows] = await db.raw(`
+export type BookingParties = { provider?: ProviderDetails; patient?: PatientDto; textPatient?: TextPatient; openWaitlistEntryIds: number[] }
+
+export async function findBookingParties(db: Db, providerId: number, patientId: number): Promise<BookingParties> {
+  const [parties] = await inOneTrip(db, [bookingPartiesStatement(db, providerId, patientId)])
+  return parties
+}
+
+/** The same read as a statement, to go with a booking's other first reads in one round trip. */
+export function bookingPartiesStatement(db: Db, providerId: number, patientId: number): Statement<BookingParties> {
+  const query = db.raw(`
     SELECT patients.*, provider.*,
       (SELECT GROUP_CONCAT(waitlist_entries.id ORDER BY waitlist_entries.id) FROM waitlist_entries
         WHERE waitlist_entries.patient_id = patients.id AND waitlist_entries.state = 'open') AS open_waitlist_entry_ids
@@ -42,7 +51,10 @@ export async function findBookingParties(db: Db, providerId: number, patientId: 
       FROM providers JOIN users ON users.id = providers.user_id WHERE providers.id = ? AND users.role IN (?, ?)
     ) AS provider ON TRUE
     WHERE patients.id = ?`, [providerId, ...ROLE_GROUPS.providers, patientId])
-  const row = (rows as Array<PatientRow & PartyColumns>)[0]
+  return statement(query, (answer) => partiesFrom(db, providerId, rowsOf<PatientRow & PartyColumns>(answer)[0]))
+}
+
+async function partiesFrom(db: Db, providerId: number, row: (PatientRow & PartyColumns) | undefined): Promise<BookingParties> {
   if (!row) {
     const provider = await findProviderDetails(db, providerId)
     return { provider, openWaitlistEntryIds: [] }

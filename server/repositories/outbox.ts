@@ -8,6 +8,7 @@ import type { Db } from '../utils/db'
 import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
 import { parseJson } from './json'
 import type { Channel } from '#shared/domain/sms-channels'
+import { allOf, writeOnly, type Statement } from './round-trip'
 
 export type { OutboxKind } from '#shared/types/outbox'
 
@@ -69,19 +70,25 @@ export interface NewOutboxMessage {
 }
 
 /** Several messages in one insert (a visit's invitation and its reminders). */
-export async function enqueueMessages(db: Db, messages: NewOutboxMessage[]): Promise<void> {
-  if (!messages.length) return
-  await db('outbox').insert(messages.map((message) => ({
+function outboxRow(message: NewOutboxMessage) {
+  return {
     kind: message.kind, channel: message.channel ?? 'email', visit_id: message.visitId, site_id: message.siteId,
     due_at: message.dueAt, payload: JSON.stringify(message.payload),
-  })))
+  }
+}
+
+export async function enqueueMessages(db: Db, messages: NewOutboxMessage[]): Promise<void> {
+  if (!messages.length) return
+  await db('outbox').insert(messages.map(outboxRow))
+}
+
+/** The same write as statements (none for no messages), to go with others in one round trip. */
+export function enqueueStatement(db: Db, messages: NewOutboxMessage[]): Statement<unknown> {
+  return allOf(messages.length ? [writeOnly(db('outbox').insert(messages.map(outboxRow)))] : [])
 }
 
 export async function enqueueMessage(db: Db, message: NewOutboxMessage): Promise<number> {
-  const [id] = await db('outbox').insert({
-    kind: message.kind, channel: message.channel ?? 'email', visit_id: message.visitId, site_id: message.siteId,
-    due_at: message.dueAt, payload: JSON.stringify(message.payload),
-  })
+  const [id] = await db('outbox').insert(outboxRow(message))
   return id as number
 }
 

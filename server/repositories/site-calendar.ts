@@ -4,6 +4,7 @@ import type { ExpandAvailabilityInput, OpeningHours } from '#shared/types/rota'
 import type { ClockStyle, DateOrder, DisplayStyle } from '#shared/types/display'
 import { siteSettingsOf } from '#shared/domain/site-settings'
 import { parseJson } from './json'
+import { inOneTrip, rowsOf, statement, type Statement } from './round-trip'
 
 export type SiteCalendarInputs = Omit<ExpandAvailabilityInput, 'fromUtc' | 'toUtc'> & {
   bookingUnitMinutes: number
@@ -96,11 +97,18 @@ async function calendarOf(db: Db, site: SiteRow, cacheable: boolean): Promise<Si
  * Inside any other transaction the rows may be its own uncommitted writes: those are never cached.
  */
 export async function loadSiteCalendar(db: Db, siteId: number, options: CalendarReadOptions = {}): Promise<SiteCalendarInputs | undefined> {
+  const [calendar] = await inOneTrip(db, [siteCalendarStatement(db, siteId, options)])
+  return calendar
+}
+
+/** The same read as a statement, to go with others in one round trip (the booking's first). */
+export function siteCalendarStatement(db: Db, siteId: number, options: CalendarReadOptions = {}): Statement<SiteCalendarInputs | undefined> {
   const query = db('sites').where({ id: siteId }).first()
   if (options.forBooking) query.forShare()
-  const site = await query as SiteRow | undefined
-  if (!site) return undefined
-  return calendarOf(db, site, !db.isTransaction || Boolean(options.forBooking))
+  return statement(query, (answer) => {
+    const site = rowsOf<SiteRow>(answer)[0]
+    return site ? calendarOf(db, site, !db.isTransaction || Boolean(options.forBooking)) : undefined
+  })
 }
 
 /** Several sites' calendars (Balance across sites): their rows in one read, in the order asked; unknown ids are left out. */

@@ -3,6 +3,7 @@ import type { Db } from '../utils/db'
 import type { ChairTimeTemplate } from '#shared/types/chair-time'
 import type { StoredTemplate } from '#shared/types/templates'
 import { parseJson } from './json'
+import { rowsOf, statement, type Statement } from './round-trip'
 
 interface TemplateRow {
   id: number
@@ -68,6 +69,17 @@ export async function findTemplateById(db: Db, id: number): Promise<StoredTempla
 export async function findCurrentTemplateByCode(db: Db, code: string): Promise<StoredTemplate | undefined> {
   const row = await db<TemplateRow>('procedure_templates').where('code', code).where('is_current', true).first()
   return row ? toTemplate(row) : undefined
+}
+
+/** A plan item's template, by id or by code (its current version), as a statement for one round trip with others. */
+export function templateStatement(db: Db, ref: { id: number } | { code: string }): Statement<StoredTemplate | undefined> {
+  const query = 'id' in ref
+    ? db<TemplateRow>('procedure_templates').where({ id: ref.id }).first()
+    : db<TemplateRow>('procedure_templates').where('code', ref.code).where('is_current', true).first()
+  return statement(query, (answer) => {
+    const row = rowsOf<TemplateRow>(answer)[0]
+    return row ? toTemplate(row) : undefined
+  })
 }
 
 /** The given version of a code, or its current version when none is given (a visit's stored plan). */

@@ -7,6 +7,7 @@ import type { VisitPlan, StepKind } from '#shared/types/chair-time'
 import type { VisitState } from '#shared/domain/visit-states'
 import type { ClockStyle, DateOrder } from '#shared/types/display'
 import { parseJson } from './json'
+import { allOf, insertIdOf, rowsOf, statement, writeOnly, type Statement } from './round-trip'
 
 export interface VisitRow {
   id: number
@@ -64,22 +65,35 @@ export interface NewVisit {
   userId: number | null
 }
 
-export async function insertVisit(db: Db, visit: NewVisit): Promise<number> {
-  const [id] = await db('visits').insert({
+function visitRow(visit: NewVisit) {
+  return {
     site_id: visit.siteId, operatory_id: visit.operatoryId, provider_id: visit.providerId, patient_id: visit.patientId,
     start_utc: new Date(visit.startMs), end_utc: new Date(visit.endMs), plan: JSON.stringify(visit.plan), note: visit.note,
     ical_uid: visit.icalUid, created_by: visit.userId, updated_by: visit.userId,
-  })
-  return id as number
+  }
+}
+
+/** A new visit's insert as a statement answering its id, to go with others in one round trip. */
+export function insertVisitStatement(db: Db, visit: NewVisit): Statement<number> {
+  return statement(db('visits').insert(visitRow(visit)), insertIdOf)
+}
+
+function segmentRows(visitId: number, segments: NewSegment[]) {
+  return segments.map((segment) => ({
+    visit_id: visitId, kind: segment.kind, label: segment.label, operatory_id: segment.operatoryId,
+    provider_id: segment.providerId, start_utc: new Date(segment.startMs), end_utc: new Date(segment.endMs),
+  }))
 }
 
 export async function replaceSegments(db: Db, visitId: number, segments: NewSegment[], options: { isNew?: boolean } = {}): Promise<void> {
   if (!options.isNew) await db('visit_segments').where({ visit_id: visitId }).delete()
   if (!segments.length) return
-  await db('visit_segments').insert(segments.map((segment) => ({
-    visit_id: visitId, kind: segment.kind, label: segment.label, operatory_id: segment.operatoryId,
-    provider_id: segment.providerId, start_utc: new Date(segment.startMs), end_utc: new Date(segment.endMs),
-  })))
+  await db('visit_segments').insert(segmentRows(visitId, segments))
+}
+
+/** A new visit's segments as statements (none for no segments), to go with others in one round trip. */
+export function newSegmentsStatement(db: Db, visitId: number, segments: NewSegment[]): Statement<unknown> {
+  return allOf(segments.length ? [writeOnly(db('visit_segments').insert(segmentRows(visitId, segments)))] : [])
 }
 
 export async function findVisitRow(db: Db, id: number): Promise<VisitRow | undefined> {
@@ -157,15 +171,15 @@ export interface Clashes {
 }
 
 /**
- * The first clash of each kind, in one round trip: any live segment of another visit in the chair
+ * The first clash of each kind, in one statement: any live segment of another visit in the chair
  * overlapping [start, end); the provider hands_on elsewhere during the new hands_on time; another
  * live visit of the same patient overlapping [start, end). Overlap is start < :end AND end > :start,
  * with the lower bound start > :start − MAX_VISIT_MINUTES so each part reads a window of its
  * (chair | provider | patient, start_utc) index. Written as SQL text (through Knex's raw): it runs on
  * every booking and move, and building the three-part union with the query builder cost more CPU
- * than the statement itself.
+ * than the statement itself. A statement, so a booking's insert can follow it in the same round trip.
  */
-export async function findClashes(db: Db, clash: ClashQuery): Promise<Clashes> {
+export function clashStatement(db: Db, clash: ClashQuery): Statement<Clashes> {
   const start = new Date(clash.startMs)
   const end = new Date(clash.endMs)
   const earliest = earliestOverlappingStart(clash.startMs)
@@ -192,10 +206,11 @@ export async function findClashes(db: Db, clash: ClashQuery): Promise<Clashes> {
     if (except !== null) { sql += ' AND visit_id <> ?'; bindings.push(except) }
     sql += ' ORDER BY start_utc LIMIT 1)'
   }
-  const [rows] = await db.raw(sql, bindings) as [Array<SegmentClash & { resource: keyof Clashes }>]
-  const found: Clashes = {}
-  for (const { resource, ...row } of rows) found[resource] = row
-  return found
+  return statement(db.raw(sql, bindings), (answer) => {
+    const found: Clashes = {}
+    for (const { resource, ...row } of rowsOf<SegmentClash & { resource: keyof Clashes }>(answer)) found[resource] = row
+    return found
+  })
 }
 
 export interface VisitListFilter {

@@ -11,9 +11,12 @@ import type { Db } from '../utils/db'
 import { badRequest, conflict } from '../utils/errors'
 import { scheduleNowMs } from '../utils/clock'
 import type { SiteCalendarInputs } from '../repositories/site-calendar'
-import { findBookingParties } from '../repositories/booking-parties'
+import { findBookingParties, type BookingParties } from '../repositories/booking-parties'
 import type { TextPatient } from '../repositories/sms'
-import { findClashes, type NewSegment, type SegmentClash } from '../repositories/visits'
+import { clashStatement, type NewSegment, type SegmentClash } from '../repositories/visits'
+import { allOf, inOneTrip, type Statement } from '../repositories/round-trip'
+
+const nothingSent = allOf([]) as Statement<unknown>
 
 const MINUTE = 60_000
 const DAY = 86_400_000
@@ -28,6 +31,8 @@ export interface BookingRequest {
   startMs: number
   /** The visit being moved, so it does not collide with itself. */
   exceptVisitId: number | null
+  /** The provider and patient when the caller read them already (a booking's first round trip). */
+  parties?: BookingParties
 }
 
 export function visitEnd(plan: VisitPlan, startMs: number): number {
@@ -82,7 +87,7 @@ async function assertPeopleAndRoom(db: Db, request: BookingRequest) {
   if (!room.active) throw badRequest('operatoryId', `${room.name} is not in use`)
   const missing = request.templates.find((template) => !room.capabilities.includes(template.capability))
   if (missing) throw badRequest('operatoryId', `${room.name} is not equipped for ${missing.capability} (${missing.name})`)
-  const { provider, patient, textPatient, openWaitlistEntryIds } = await findBookingParties(db, request.providerId, request.patientId)
+  const { provider, patient, textPatient, openWaitlistEntryIds } = request.parties ?? await findBookingParties(db, request.providerId, request.patientId)
   if (!provider || !provider.active) throw badRequest('providerId', 'is not an active provider')
   const unskilled = request.templates.find((template) => !provider.capabilities.includes(template.category))
   if (unskilled) throw badRequest('providerId', `${provider.name} does not do ${unskilled.category} procedures (${unskilled.name})`)
@@ -90,9 +95,14 @@ async function assertPeopleAndRoom(db: Db, request: BookingRequest) {
   return { room, provider, patient, textPatient, openWaitlistEntryIds }
 }
 
-/** Throws 400/409 unless the visit fits: room and provider exist and fit, time is open and free. */
-/** Also the patient as the outbox's channel choice reads them (`textReachFrom`), and their open waitlist entries, from the same row. */
-export async function assertBookable(db: Db, request: BookingRequest): Promise<{ patient: PatientDto; textPatient?: TextPatient; openWaitlistEntryIds: number[] }> {
+/**
+ * Throws 400/409 unless the visit fits: room and provider exist and fit, time is open and free.
+ * Also the patient as the outbox's channel choice reads them (`textReachFrom`), and their open
+ * waitlist entries, from the same row. `sendAlong` (a new visit's insert) goes to MariaDB in the same
+ * round trip as the clash check, after it: when a clash is found this throws, and the caller's
+ * transaction rolls the insert back with everything else.
+ */
+export async function assertBookable<T = undefined>(db: Db, request: BookingRequest, sendAlong?: Statement<T>): Promise<{ patient: PatientDto; textPatient?: TextPatient; openWaitlistEntryIds: number[]; along: T }> {
   const { room, provider, patient, textPatient, openWaitlistEntryIds } = await assertPeopleAndRoom(db, request)
   const { plan, startMs, calendar } = request
   const endMs = visitEnd(plan, startMs)
@@ -118,11 +128,12 @@ export async function assertBookable(db: Db, request: BookingRequest): Promise<{
     throw unavailableError('provider', provider.id, provider.name, offShift.startMs, offShift.endMs, `${provider.name} is not on shift here (or is blocked) at ${formatDateTime(offShift.startMs, style)}.`)
   }
 
-  const clashes = await findClashes(db, {
+  const clash = clashStatement(db, {
     operatoryId: room.id, startMs, endMs, providerId: provider.id, handsOn, patientId: request.patientId, exceptVisitId: request.exceptVisitId,
   })
+  const [clashes, along] = await inOneTrip(db, [clash, sendAlong ?? nothingSent as Statement<T>])
   if (clashes.operatory) throw clashError('operatory', room.id, room.name, clashes.operatory, style, 'is already taken')
   if (clashes.provider) throw clashError('provider', provider.id, provider.name, clashes.provider, style, 'is already working with another patient')
   if (clashes.patient) throw clashError('patient', request.patientId, 'This patient', clashes.patient, style, 'already has a visit')
-  return { patient, textPatient, openWaitlistEntryIds }
+  return { patient, textPatient, openWaitlistEntryIds, along }
 }

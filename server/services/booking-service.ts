@@ -17,23 +17,25 @@ import { useDb, type Db } from '../utils/db'
 import { badRequest, conflict, isDuplicateKey, notFound, rethrowDomainError } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { inTransaction } from '../utils/db-retry'
-import { loadSiteCalendar, type SiteCalendarInputs } from '../repositories/site-calendar'
-import { findVisit, findVisitRow, insertVisit, newVisitDto, replaceSegments, updateVisitIfVersion, type VisitRow } from '../repositories/visits'
-import { lockForBooking } from '../repositories/booking-locks'
+import { loadSiteCalendar, siteCalendarStatement, type SiteCalendarInputs } from '../repositories/site-calendar'
+import { findVisit, findVisitRow, insertVisitStatement, newSegmentsStatement, newVisitDto, replaceSegments, updateVisitIfVersion, type VisitRow } from '../repositories/visits'
+import { lockForBooking, lockStatement } from '../repositories/booking-locks'
 import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
-import { enqueueMessages } from '../repositories/outbox'
+import { enqueueMessages, enqueueStatement, type NewOutboxMessage } from '../repositories/outbox'
+import { inOneTrip } from '../repositories/round-trip'
+import { bookingPartiesStatement } from '../repositories/booking-parties'
 import { dropQueuedReminders, reminderMessages } from './mail/reminders'
 import { seenChange, seenVisitOf, type SeenVisit } from '#shared/domain/patient-time'
 import { mailSettingsOf } from '#shared/domain/site-settings'
 import { onChannels, textReachFrom, type TextReach } from './sms/channels'
 import { findTextSite } from '../repositories/sms'
-import { writeAudit } from '../repositories/audit-log'
+import { auditStatement, writeAudit } from '../repositories/audit-log'
 import { findProviderIdOfUser } from '../repositories/providers'
 import { findSite } from '../repositories/sites'
 import { scheduleNowMs } from '../utils/clock'
 import { findTemplateByCode } from '../repositories/templates'
 import { parseJson } from '../repositories/json'
-import { planItems } from './plan-service'
+import { planFromTemplates, planItems, planTemplateStatement } from './plan-service'
 import { assertBookable, assertStartAllowed, placeSegments, visitEnd } from './booking-rules'
 import { dropStranded, settleStranded } from './impact-service'
 import { closeWaitlistOnBooking } from './waitlist-service'
@@ -66,18 +68,22 @@ interface VisitMail {
 /** The patient's invitation or update and the visit's reminders, in one insert, on each channel the
  * site uses for them and the patient can take (e-mail, text; the dispatcher checks again at send time). */
 async function queueVisitMail(db: Db, kind: 'invitation' | 'update', visit: VisitMail): Promise<void> {
+  await enqueueMessages(db, await visitMailMessages(db, kind, visit))
+}
+
+async function visitMailMessages(db: Db, kind: 'invitation' | 'update', visit: VisitMail): Promise<NewOutboxMessage[]> {
   // A change the patient cannot see (the chair, the provider, the room reset after they leave) sends
   // nothing, and the reminders planned for the same start stay.
   const change = visit.seen ? seenChange(visit.seen.before, visit.seen.after) : undefined
-  if (kind === 'update' && change === null) return
+  if (kind === 'update' && change === null) return []
   // Reminders not yet sent belong to the old time: planned again below.
   if (kind === 'update') await dropQueuedReminders(db, visit.visitId)
   const site = { id: visit.calendar.site.id, timeZone: visit.calendar.site.timeZone, settings: visit.calendar.settings }
   const payload = change && visit.seen ? { visitId: visit.visitId, change: { ...change, minutesBefore: visit.seen.before.minutes } } : { visitId: visit.visitId }
-  await enqueueMessages(db, await onChannels(db, visit.patient?.id, site.settings, [
+  return onChannels(db, visit.patient?.id, site.settings, [
     { kind, visitId: visit.visitId, siteId: site.id, dueAt: new Date(), payload },
     ...reminderMessages({ visitId: visit.visitId, startMs: visit.startMs, site }),
-  ], visit.reach))
+  ], visit.reach)
 }
 
 async function queueCancellationMail(db: Db, row: VisitRow): Promise<void> {
@@ -126,20 +132,32 @@ export async function bookVisit(input: BookVisitInput, user: SessionUser, idempo
  */
 export async function bookInTransaction(trx: Db, input: BookVisitInput, userId: number | null): Promise<VisitDto> {
   const startMs = startOf(input.startUtc)
-  await lockForBooking(trx, [input.operatoryId], [input.providerId], input.patientId)
-  const calendar = await bookingCalendar(trx, input.siteId)
-  const { plan, templates } = await planItems(trx, input.items, calendar.bookingUnitMinutes as BookingUnitMinutes)
+  // One round trip: the locks first, then what the checks read (issue 19 §3).
+  const [, calendar, found, parties] = await inOneTrip(trx, [
+    lockStatement(trx, [input.operatoryId], [input.providerId], input.patientId),
+    siteCalendarStatement(trx, input.siteId, { forBooking: true }),
+    planTemplateStatement(trx, input.items),
+    bookingPartiesStatement(trx, input.providerId, input.patientId),
+  ])
+  if (!calendar) throw badRequest('siteId', 'no such site')
+  const { plan, templates } = planFromTemplates(input.items, found, calendar.bookingUnitMinutes as BookingUnitMinutes)
   assertStartAllowed(startMs, calendar)
-  const { patient, textPatient, openWaitlistEntryIds } = await assertBookable(trx, { calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null })
   const newVisit = {
     siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
     startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId,
   }
-  const id = await insertVisit(trx, newVisit)
+  // The clash check and the visit's insert in one round trip (a clash throws and rolls the insert back).
+  const { patient, textPatient, openWaitlistEntryIds, along: id } = await assertBookable(trx, {
+    calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null, parties,
+  }, insertVisitStatement(trx, newVisit))
   const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
-  await replaceSegments(trx, id, segments, { isNew: true })
-  await writeAudit(trx, { userId, action: 'visit_booked', entity: 'visit', entityId: id, after: input })
-  await queueVisitMail(trx, 'invitation', { visitId: id, startMs, calendar, patient, reach: textReachFrom(textPatient) })
+  const messages = await visitMailMessages(trx, 'invitation', { visitId: id, startMs, calendar, patient, reach: textReachFrom(textPatient) })
+  // One round trip: the segments, the audit row and the patient's messages.
+  await inOneTrip(trx, [
+    newSegmentsStatement(trx, id, segments),
+    auditStatement(trx, { userId, action: 'visit_booked', entity: 'visit', entityId: id, after: input }),
+    enqueueStatement(trx, messages),
+  ])
   await closeWaitlistOnBooking(trx, openWaitlistEntryIds, id, templates, userId)
   await markRecallsOnBooking(trx, input.patientId, id, templates)
   return newVisitDto(id, newVisit, segments)

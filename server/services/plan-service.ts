@@ -5,25 +5,31 @@ import type { StoredTemplate } from '#shared/types/templates'
 import { planVisit } from '#shared/domain/chair-time'
 import type { Db } from '../utils/db'
 import { badRequest, rethrowDomainError } from '../utils/errors'
-import { findCurrentTemplateByCode, findTemplateById } from '../repositories/templates'
+import { templateStatement } from '../repositories/templates'
+import { allOf, inOneTrip, type Statement } from '../repositories/round-trip'
 
 export interface ResolvedPlan {
   plan: VisitPlan
   templates: StoredTemplate[]
 }
 
-async function templateForItem(db: Db, item: ChairTimeRequest['items'][number], index: number): Promise<StoredTemplate> {
-  const template = item.templateId !== undefined
-    ? await findTemplateById(db, item.templateId)
-    : await findCurrentTemplateByCode(db, item.templateCode!.toUpperCase())
+type PlanItemRequest = ChairTimeRequest['items'][number]
+
+/** The reads of each item's template, to go with a transaction's other first reads in one round trip. */
+export function planTemplateStatement(db: Db, items: readonly PlanItemRequest[]): Statement<Array<StoredTemplate | undefined>> {
+  return allOf(items.map((item) => templateStatement(db, item.templateId !== undefined ? { id: item.templateId } : { code: item.templateCode!.toUpperCase() })))
+}
+
+function usableTemplate(item: PlanItemRequest, index: number, template: StoredTemplate | undefined): StoredTemplate {
   const field = item.templateId !== undefined ? `items.${index}.templateId` : `items.${index}.templateCode`
   if (!template) throw badRequest(field, 'no such template')
   if (!template.active) throw badRequest(field, `${template.name} is no longer in use`)
   return template
 }
 
-export async function planItems(db: Db, items: ChairTimeRequest['items'], unitMinutes: BookingUnitMinutes): Promise<ResolvedPlan> {
-  const templates = await Promise.all(items.map((item, index) => templateForItem(db, item, index)))
+/** The plan from the items and the templates their statements read (400 naming the item when one is missing or retired). */
+export function planFromTemplates(items: readonly PlanItemRequest[], found: readonly (StoredTemplate | undefined)[], unitMinutes: BookingUnitMinutes): ResolvedPlan {
+  const templates = items.map((item, index) => usableTemplate(item, index, found[index]))
   const inputs: PlanItemInput[] = items.map((item, index) => ({
     template: templates[index]!, tooth: item.tooth, teeth: item.teeth, notation: item.notation,
     surfaces: item.surfaces, anaesthesia: item.anaesthesia,
@@ -33,4 +39,9 @@ export async function planItems(db: Db, items: ChairTimeRequest['items'], unitMi
   } catch (error) {
     rethrowDomainError(error)
   }
+}
+
+export async function planItems(db: Db, items: ChairTimeRequest['items'], unitMinutes: BookingUnitMinutes): Promise<ResolvedPlan> {
+  const [found] = await inOneTrip(db, [planTemplateStatement(db, items)])
+  return planFromTemplates(items, found, unitMinutes)
 }

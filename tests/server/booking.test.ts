@@ -73,6 +73,9 @@ describe('booking a visit', () => {
     const again = await manager.post('/api/visits', booking({ startUtc, patientId: quarry.patients[4], operatoryId: quarry.hygieneA, providerId: hygienist, items: [{ templateCode: 'SEAL', tooth: '3' }] }))
     expect(again.status).toBe(409)
     expect(again.body.data.conflict).toMatchObject({ resource: 'patient', id: quarry.patients[4] })
+    // The refused visit's insert went to MariaDB with the clash check (one round trip) and was rolled back.
+    const patientVisits = await testDb()('visits').where({ patient_id: quarry.patients[4], start_utc: new Date(startUtc) }).count({ count: '*' }).first()
+    expect(Number(patientVisits!.count)).toBe(1)
   })
 
   it.each([
