@@ -43,7 +43,8 @@ export async function sitesFigures(db: Db, siteIds: readonly number[], query: Pi
   })
   if (!sites.length) return []
   // Segments stay one read per site: a single read of every chair (an IN list of 400 at group scale)
-  // made MariaDB scan the whole table, 10 s against 2.4 s for the reads per site.
+  // made MariaDB scan the whole table, 10 s against 2.4 s for the reads per site. Sent together in one
+  // round trip they ran one after another on one connection (463 against 346 ms): they stay apart.
   const [segmentsOf, providers] = await Promise.all([
     Promise.all(sites.map((site) => busySegments(db, site.rooms.map((room) => room.id), [], site.fromMs, site.toMs))),
     providersByIds(db, [...new Set(sites.flatMap((site) => site.availability.providers.map((entry) => entry.providerId)))]),
