@@ -3,11 +3,12 @@
 import type { Db } from '../utils/db'
 import type { VisitOutcome } from '#shared/domain/visit-outcomes'
 import { bySite, startingInSiteSpans, type SiteSpan } from './balance-inputs'
+import { epochMs } from './epoch-ms'
 
 interface OutcomeRow {
   site_id: number
   state: VisitOutcome['state']
-  start_utc: Date
+  start_ms: number
   cancelled_at: Date | null
 }
 
@@ -22,6 +23,6 @@ export async function visitOutcomes(db: Db, spans: readonly SiteSpan[]): Promise
     .whereRaw('audit_log.entity_id = CAST(visits.id AS CHAR)')
   const rows: OutcomeRow[] = await db('visits')
     .where((any) => startingInSiteSpans(any, spans))
-    .select('visits.site_id', 'visits.state', 'visits.start_utc', db.raw(`CASE WHEN visits.state = 'cancelled' THEN (?) END AS cancelled_at`, [cancelledAt]))
-  return bySite(rows, (row) => ({ state: row.state, startMs: row.start_utc.getTime(), cancelledAtMs: row.cancelled_at ? new Date(row.cancelled_at).getTime() : null }))
+    .select('visits.site_id', 'visits.state', epochMs(db, 'visits.start_utc', 'start_ms'), db.raw(`CASE WHEN visits.state = 'cancelled' THEN (?) END AS cancelled_at`, [cancelledAt]))
+  return bySite(rows, (row) => ({ state: row.state, startMs: Number(row.start_ms), cancelledAtMs: row.cancelled_at ? new Date(row.cancelled_at).getTime() : null }))
 }

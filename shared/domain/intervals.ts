@@ -11,8 +11,23 @@ function isNonEmpty(interval: EpochInterval): boolean {
   return interval.endMs > interval.startMs
 }
 
-/** Sorts and joins overlapping or touching intervals; drops empty ones. */
+/** Already sorted, merged and free of empty intervals (what every function here returns). */
+function isMerged(intervals: readonly EpochInterval[]): boolean {
+  for (let index = 0; index < intervals.length; index += 1) {
+    const interval = intervals[index]!
+    if (interval.endMs <= interval.startMs) return false
+    if (index > 0 && interval.startMs <= intervals[index - 1]!.endMs) return false
+  }
+  return true
+}
+
+/**
+ * Sorts and joins overlapping or touching intervals; drops empty ones. Input that is already merged
+ * (the output of any function here, passed on) comes back as a new list of the same interval objects,
+ * without sorting: Balance merges such lists many times per site (issue 19 §3).
+ */
 export function mergeIntervals(intervals: readonly EpochInterval[]): EpochInterval[] {
+  if (isMerged(intervals)) return intervals.slice()
   const sorted = intervals.filter(isNonEmpty).sort(byStart)
   const merged: EpochInterval[] = []
   for (const next of sorted) {

@@ -32,6 +32,22 @@ describe('mergeIntervals', () => {
     mergeIntervals(input)
     expect(input).toEqual([iv(10, 20), iv(0, 15)])
   })
+
+  it('gives merged input back as a new list with the same intervals, and merges it again when it only touches', () => {
+    const merged = [iv(0, 10), iv(20, 30)]
+    const again = mergeIntervals(merged)
+    expect(again).toEqual(merged)
+    expect(again).not.toBe(merged)
+    expect(mergeIntervals([iv(0, 10), iv(10, 30)])).toEqual([iv(0, 30)])
+    expect(mergeIntervals([iv(0, 10), iv(5, 5)])).toEqual([iv(0, 10)])
+  })
+
+  it('merging twice gives what merging once gave (property check)', () => {
+    fc.assert(fc.property(arbList, (list) => {
+      const once = mergeIntervals(list)
+      expect(mergeIntervals(once)).toEqual(once)
+    }))
+  })
 })
 
 describe('subtractIntervals', () => {
