@@ -46,8 +46,25 @@ const pidIn = (file: string) => Number(readFileSync(file, 'utf8').trim())
 
 type Run = Awaited<ReturnType<typeof measure>>
 
+/**
+ * Until the app answers through its address three times in a row (at most 30 s): just after the
+ * cluster starts, HAProxy may still count an app process down from a health check made before it
+ * listened, and answer 503 (seen once here, at the first sign-in).
+ */
+async function untilServing(baseURL: string): Promise<void> {
+  const deadline = Date.now() + 30_000
+  let inRow = 0
+  while (inRow < 3) {
+    const status = await fetch(`${baseURL}/api/me`).then((answer) => answer.status, () => 0)
+    inRow = status === 401 ? inRow + 1 : 0
+    if (Date.now() > deadline) throw new Error(`${baseURL} did not answer GET /api/me with 401 within 30 s (last: ${status})`)
+    if (inRow < 3) await new Promise((wait) => setTimeout(wait, 300))
+  }
+}
+
 /** Warm-up, the ceiling, then HTTP bookings, each timed with the CPU of the given processes. */
 async function measure(baseURL: string, annex: BenchAnnex, database: string, connection: Parameters<typeof rawCeiling>[4], pids: { database: Record<string, number>; app: Record<string, number> }) {
+  await untilServing(baseURL)
   const cookies: string[] = []
   // One after another: sign-in counts attempts in flight per account and address.
   for (let client = 0; client < CLIENTS; client += 1) cookies.push(await signIn(baseURL, ADMIN.email, ADMIN.password))
