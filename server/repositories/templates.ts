@@ -3,7 +3,7 @@ import type { Db } from '../utils/db'
 import type { ChairTimeTemplate } from '#shared/types/chair-time'
 import type { StoredTemplate } from '#shared/types/templates'
 import { parseJson } from './json'
-import { rowsOf, statement, type Statement } from './round-trip'
+import { inOneTrip, rowsOf, statement, type Statement } from './round-trip'
 
 interface TemplateRow {
   id: number
@@ -62,13 +62,13 @@ export async function listCurrentTemplates(db: Db, options: { includeInactive?: 
 }
 
 export async function findTemplateById(db: Db, id: number): Promise<StoredTemplate | undefined> {
-  const row = await db<TemplateRow>('procedure_templates').where({ id }).first()
-  return row ? toTemplate(row) : undefined
+  const [template] = await inOneTrip(db, [templateStatement(db, { id })])
+  return template
 }
 
 export async function findCurrentTemplateByCode(db: Db, code: string): Promise<StoredTemplate | undefined> {
-  const row = await db<TemplateRow>('procedure_templates').where('code', code).where('is_current', true).first()
-  return row ? toTemplate(row) : undefined
+  const [template] = await inOneTrip(db, [templateStatement(db, { code })])
+  return template
 }
 
 /** A plan item's template, by id or by code (its current version), as a statement for one round trip with others. */
