@@ -1,5 +1,4 @@
 // Who did what, when, with the state before and after.
-import type { Knex } from 'knex'
 import type { Db } from '../utils/db'
 import type { AuditEntryDto } from '#shared/types/audit'
 import { writeOnly, type Statement } from './round-trip'
@@ -14,12 +13,12 @@ export interface AuditEntry {
   ip?: string | null
 }
 
-function auditRow(entry: AuditEntry, entityIdSql?: Knex.Raw) {
+function auditRow(entry: AuditEntry) {
   return {
     user_id: entry.userId,
     action: entry.action,
     entity: entry.entity,
-    entity_id: entityIdSql ?? (entry.entityId === undefined || entry.entityId === null ? null : String(entry.entityId)),
+    entity_id: entry.entityId === undefined || entry.entityId === null ? null : String(entry.entityId),
     before: entry.before === undefined ? null : JSON.stringify(entry.before),
     after: entry.after === undefined ? null : JSON.stringify(entry.after),
     ip: entry.ip ?? null,
@@ -30,9 +29,9 @@ export async function writeAudit(db: Db, entry: AuditEntry): Promise<void> {
   await db('audit_log').insert(auditRow(entry))
 }
 
-/** The same write as a statement, to go with others in one round trip; `entityIdSql` gives the id as SQL (a row inserted earlier in that trip). */
-export function auditStatement(db: Db, entry: AuditEntry, entityIdSql?: Knex.Raw): Statement<void> {
-  return writeOnly(db('audit_log').insert(auditRow(entry, entityIdSql)))
+/** The same write as a statement, to go with others in one round trip. */
+export function auditStatement(db: Db, entry: AuditEntry): Statement<void> {
+  return writeOnly(db('audit_log').insert(auditRow(entry)))
 }
 
 export interface AuditFilter {

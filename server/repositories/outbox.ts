@@ -4,7 +4,6 @@ import { recipientOf } from '#shared/domain/message-recipient'
 import { localDateAt } from '#shared/utils/local-date'
 import { hostname } from 'node:os'
 import { escapeLike } from './patients'
-import type { Knex } from 'knex'
 import type { Db } from '../utils/db'
 import type { OutboxKind, OutboxMessageDto, OutboxState, RenderedMessage } from '#shared/types/outbox'
 import { parseJson } from './json'
@@ -83,16 +82,9 @@ export async function enqueueMessages(db: Db, messages: NewOutboxMessage[]): Pro
   await db('outbox').insert(messages.map(outboxRow))
 }
 
-/**
- * The same write as a statement (nothing for no messages), to go with others in one round trip.
- * `visitIdSql` gives the visit's id as SQL (a visit inserted earlier in that trip): it is written to
- * `visit_id` and to the payload's `visitId`.
- */
-export function enqueueStatement(db: Db, messages: NewOutboxMessage[], visitIdSql?: Knex.Raw): Statement<unknown> {
-  const rows = messages.map((message) => visitIdSql
-    ? { ...outboxRow(message), visit_id: visitIdSql, payload: db.raw("JSON_SET(?, '$.visitId', ?)", [JSON.stringify(message.payload), visitIdSql]) }
-    : outboxRow(message))
-  return allOf(rows.length ? [writeOnly(db('outbox').insert(rows))] : [])
+/** The same write as statements (none for no messages), to go with others in one round trip. */
+export function enqueueStatement(db: Db, messages: NewOutboxMessage[]): Statement<unknown> {
+  return allOf(messages.length ? [writeOnly(db('outbox').insert(messages.map(outboxRow)))] : [])
 }
 
 export async function enqueueMessage(db: Db, message: NewOutboxMessage): Promise<number> {

@@ -33,14 +33,6 @@ export function allOf<T>(statements: readonly Statement<T>[]): Statement<T[]> {
   }
 }
 
-/** Several statements as one, answering what the first answers (writes that follow an insert, say). */
-export function followedBy<T>(first: Statement<T>, ...rest: readonly Statement<unknown>[]): Statement<T> {
-  return {
-    queries: [first, ...rest].flatMap((one) => one.queries),
-    read: (answers) => first.read(answers.slice(0, first.queries.length)),
-  }
-}
-
 /** The rows a read answered. */
 export function rowsOf<Row>(answer: unknown): Row[] {
   return answer as Row[]

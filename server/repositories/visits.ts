@@ -8,7 +8,6 @@ import type { VisitState } from '#shared/domain/visit-states'
 import type { ClockStyle, DateOrder } from '#shared/types/display'
 import { parseJson } from './json'
 import { allOf, insertIdOf, rowsOf, statement, writeOnly, type Statement } from './round-trip'
-import type { Knex } from 'knex'
 
 export interface VisitRow {
   id: number
@@ -76,24 +75,10 @@ function visitRow(visit: NewVisit) {
 
 /** A new visit's insert as a statement answering its id, to go with others in one round trip. */
 export function insertVisitStatement(db: Db, visit: NewVisit): Statement<number> {
-  return {
-    queries: [db('visits').insert(visitRow(visit)), db.raw(`SET ${NEW_VISIT_ID} = LAST_INSERT_ID()`)],
-    read: (answers) => insertIdOf(answers[0]),
-  }
+  return statement(db('visits').insert(visitRow(visit)), insertIdOf)
 }
 
-/** A session variable `insertVisitStatement` sets to the new visit's id, right after its insert. */
-const NEW_VISIT_ID = '@cuspline_new_visit_id'
-
-/**
- * The new visit's id as SQL, for the statements that follow `insertVisitStatement` in the same round
- * trip (its segments, audit row and messages), before the app has read the id.
- */
-export function newVisitIdSql(db: Db): Knex.Raw {
-  return db.raw(NEW_VISIT_ID)
-}
-
-function segmentRows(visitId: number | Knex.Raw, segments: NewSegment[]) {
+function segmentRows(visitId: number, segments: NewSegment[]) {
   return segments.map((segment) => ({
     visit_id: visitId, kind: segment.kind, label: segment.label, operatory_id: segment.operatoryId,
     provider_id: segment.providerId, start_utc: new Date(segment.startMs), end_utc: new Date(segment.endMs),
@@ -107,7 +92,7 @@ export async function replaceSegments(db: Db, visitId: number, segments: NewSegm
 }
 
 /** A new visit's segments as statements (none for no segments), to go with others in one round trip. */
-export function newSegmentsStatement(db: Db, visitId: number | Knex.Raw, segments: NewSegment[]): Statement<unknown> {
+export function newSegmentsStatement(db: Db, visitId: number, segments: NewSegment[]): Statement<unknown> {
   return allOf(segments.length ? [writeOnly(db('visit_segments').insert(segmentRows(visitId, segments)))] : [])
 }
 

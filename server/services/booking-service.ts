@@ -18,11 +18,11 @@ import { badRequest, conflict, isDuplicateKey, notFound, rethrowDomainError } fr
 import { requireSiteAccess } from '../utils/auth'
 import { inTransaction } from '../utils/db-retry'
 import { loadSiteCalendar, siteCalendarStatement, type SiteCalendarInputs } from '../repositories/site-calendar'
-import { findVisit, findVisitRow, insertVisitStatement, newSegmentsStatement, newVisitIdSql, newVisitDto, replaceSegments, updateVisitIfVersion, type VisitRow } from '../repositories/visits'
+import { findVisit, findVisitRow, insertVisitStatement, newSegmentsStatement, newVisitDto, replaceSegments, updateVisitIfVersion, type VisitRow } from '../repositories/visits'
 import { lockForBooking, lockStatement } from '../repositories/booking-locks'
 import { claimKey, findAnswer, storeAnswer } from '../repositories/idempotency'
 import { enqueueMessages, enqueueStatement, type NewOutboxMessage } from '../repositories/outbox'
-import { followedBy, inOneTrip } from '../repositories/round-trip'
+import { inOneTrip } from '../repositories/round-trip'
 import { bookingPartiesStatement } from '../repositories/booking-parties'
 import { dropQueuedReminders, reminderMessages } from './mail/reminders'
 import { seenChange, seenVisitOf, type SeenVisit } from '#shared/domain/patient-time'
@@ -146,21 +146,18 @@ export async function bookInTransaction(trx: Db, input: BookVisitInput, userId: 
     siteId: input.siteId, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId,
     startMs, endMs: visitEnd(plan, startMs), plan, note: input.note, icalUid: `${randomUUID()}@cuspline`, userId,
   }
-  const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
-  const { patient, textPatient, openWaitlistEntryIds } = parties
-  // The patient's messages before the visit has an id: the statements below write the new id into them.
-  const messages = await visitMailMessages(trx, 'invitation', { visitId: 0, startMs, calendar, patient, reach: textReachFrom(textPatient) })
-  const visitId = newVisitIdSql(trx)
-  // One round trip: the clash check, then the visit, its segments, the audit row and the messages,
-  // which name the visit by the id MariaDB just gave it. A clash throws and rolls all of them back.
-  const { along: id } = await assertBookable(trx, {
+  // The clash check and the visit's insert in one round trip (a clash throws and rolls the insert back).
+  const { patient, textPatient, openWaitlistEntryIds, along: id } = await assertBookable(trx, {
     calendar, plan, templates, operatoryId: input.operatoryId, providerId: input.providerId, patientId: input.patientId, startMs, exceptVisitId: null, parties,
-  }, followedBy(
-    insertVisitStatement(trx, newVisit),
-    newSegmentsStatement(trx, visitId, segments),
-    auditStatement(trx, { userId, action: 'visit_booked', entity: 'visit', after: input }, visitId),
-    enqueueStatement(trx, messages, visitId),
-  ))
+  }, insertVisitStatement(trx, newVisit))
+  const segments = placeSegments(plan, startMs, input.operatoryId, input.providerId)
+  const messages = await visitMailMessages(trx, 'invitation', { visitId: id, startMs, calendar, patient, reach: textReachFrom(textPatient) })
+  // One round trip: the segments, the audit row and the patient's messages.
+  await inOneTrip(trx, [
+    newSegmentsStatement(trx, id, segments),
+    auditStatement(trx, { userId, action: 'visit_booked', entity: 'visit', entityId: id, after: input }),
+    enqueueStatement(trx, messages),
+  ])
   await closeWaitlistOnBooking(trx, openWaitlistEntryIds, id, templates, userId)
   await markRecallsOnBooking(trx, input.patientId, id, templates)
   return newVisitDto(id, newVisit, segments)
