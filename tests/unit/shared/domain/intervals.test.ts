@@ -42,6 +42,19 @@ describe('mergeIntervals', () => {
     expect(mergeIntervals([iv(0, 10), iv(5, 5)])).toEqual([iv(0, 10)])
   })
 
+  it('joins input already in order of start without sorting it, dropping empty ones and not touching the input', () => {
+    const input = [iv(0, 10), iv(5, 5), iv(5, 20), iv(5, 8), iv(30, 40), iv(40, 45), iv(50, 49)]
+    expect(mergeIntervals(input)).toEqual([iv(0, 20), iv(30, 45)])
+    expect(input[0]).toEqual(iv(0, 10))
+  })
+
+  it('gives the same for any order of the same intervals (property check)', () => {
+    fc.assert(fc.property(arbList, (list) => {
+      const inOrder = [...list].sort((a, b) => a.startMs - b.startMs)
+      expect(mergeIntervals(inOrder)).toEqual(mergeIntervals([...list].reverse()))
+    }))
+  })
+
   it('merging twice gives what merging once gave (property check)', () => {
     fc.assert(fc.property(arbList, (list) => {
       const once = mergeIntervals(list)
