@@ -54,12 +54,15 @@ function splitAnswers<T>(statements: readonly Statement<T>[], answers: readonly 
 
 type Answers<T extends readonly unknown[]> = { [K in keyof T]: Statement<T[K]> }
 
+/** How mysql2 hands back rows: as arrays of cells in the selected order (cheaper for bulk reads), or as objects by column name. */
+export interface TripOptions { rowsAsArray?: boolean }
+
 /** Runs the statements in order in one round trip and reads each one's answer. */
-export async function inOneTrip<T extends readonly unknown[]>(db: Db, statements: Answers<T>): Promise<T> {
+export async function inOneTrip<T extends readonly unknown[]>(db: Db, statements: Answers<T>, options: TripOptions = {}): Promise<T> {
   const list = statements as readonly Statement<unknown>[]
   const sent = list.flatMap((one) => one.queries).map((query) => query.toSQL().toNative())
   if (!sent.length) return Promise.all(splitAnswers(list, [])) as Promise<unknown> as Promise<T>
-  const [answer] = await db.raw(sent.map((part) => part.sql).join(';\n'), sent.flatMap((part) => part.bindings)) as [unknown]
+  const [answer] = await db.raw(sent.map((part) => part.sql).join(';\n'), sent.flatMap((part) => part.bindings)).options(options) as [unknown]
   // mysql2 answers one statement with its answer, several with a list of answers.
   const answers = sent.length === 1 ? [answer] : answer as unknown[]
   return Promise.all(splitAnswers(list, answers)) as Promise<unknown> as Promise<T>

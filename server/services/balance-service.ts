@@ -1,19 +1,20 @@
 // Balance across the caller's sites: each site's calendar expanded over the range (its own local
 // dates), the live segments in its chairs, and the pure figures from shared/domain/balance.ts.
 // Reads cover all the sites at once where MariaDB does better so (issue 19 §3): site rows, providers,
-// outcomes, freed and booked visits; the segments are read per site.
+// outcomes, freed and booked visits; the segments are read per site, a few sites per round trip.
 import { eachLocalDate, localDayRange } from '#shared/utils/local-date'
 import type { SessionUser } from '#shared/types/auth'
 import type { BalanceResponse, SiteBalanceDto } from '#shared/types/balance'
 import type { BalanceQuery } from '#shared/schemas/balance'
 import { siteBalance, type BalanceThresholds } from '#shared/domain/balance'
+import { heldByChair } from '#shared/domain/balance-suggestions'
 import { expandAvailabilityMs } from '#shared/domain/rota'
 import { useDb, type Db } from '../utils/db'
 import { badRequest } from '../utils/errors'
 import { requireSiteAccess } from '../utils/auth'
 import { listSites } from '../repositories/sites'
 import { loadSiteCalendars } from '../repositories/site-calendar'
-import { busySegments, providersByIds } from '../repositories/openings-inputs'
+import { chairSegmentsOfSites, providersByIds } from '../repositories/openings-inputs'
 import { visitOutcomes } from '../repositories/visit-outcomes'
 import { LATE_CANCEL_HOURS, outcomeRates, type VisitOutcome } from '#shared/domain/visit-outcomes'
 import { refillFigures, type FreedVisit, type LaterVisit } from '#shared/domain/balance-refill'
@@ -29,9 +30,12 @@ function localDays(from: string, to: string, zone: string) {
 }
 
 /**
- * Each site's calendar over the range (its own local dates), its chairs' live segments and the chair
+ * Each site's calendar over the range (its own local dates), its chairs' held time and the chair
  * figures: shared with the suggestions. The site rows and the providers' names are one read each
- * for all the sites; the segments one read per site.
+ * for all the sites; the segments one read per site, sent in a few round trips
+ * (`chairSegmentsOfSites`). Each site's figures are worked out as its segments arrive, and only its
+ * merged held time is kept: at group scale a week is 77,000 segments, and keeping them all to the end
+ * of the request sent them through the garbage collector's old space on every request (issue 19 §3).
  */
 export async function sitesFigures(db: Db, siteIds: readonly number[], query: Pick<BalanceQuery, 'from' | 'to'>, thresholds: BalanceThresholds) {
   const sites = (await loadSiteCalendars(db, siteIds)).map((calendar) => {
@@ -42,23 +46,18 @@ export async function sitesFigures(db: Db, siteIds: readonly number[], query: Pi
     return { calendar, zone, fromMs, toMs, availability, rooms: calendar.operatoryDetails.filter((room) => room.active) }
   })
   if (!sites.length) return []
-  // Segments stay one read per site: a single read of every chair (an IN list of 400 at group scale)
-  // made MariaDB scan the whole table, 10 s against 2.4 s for the reads per site. Sent together in one
-  // round trip they ran one after another on one connection (463 against 346 ms): they stay apart.
-  const [segmentsOf, providers] = await Promise.all([
-    Promise.all(sites.map((site) => busySegments(db, site.rooms.map((room) => room.id), [], site.fromMs, site.toMs))),
-    providersByIds(db, [...new Set(sites.flatMap((site) => site.availability.providers.map((entry) => entry.providerId)))]),
-  ])
+  const segmentsOf = chairSegmentsOfSites(db, sites.map((site) => ({ operatoryIds: site.rooms.map((room) => room.id), fromMs: site.fromMs, toMs: site.toMs })))
+  const providers = await providersByIds(db, [...new Set(sites.flatMap((site) => site.availability.providers.map((entry) => entry.providerId)))])
   const nameOf = new Map(providers.map((provider) => [provider.id, provider.name]))
-  return sites.map(({ calendar, zone, fromMs, toMs, availability, rooms }, index) => {
-    const siteSegments = segmentsOf[index]!
+  return Promise.all(sites.map(async ({ calendar, zone, fromMs, toMs, availability, rooms }, index) => {
+    const segments = await segmentsOf[index]!
     const names = new Map(availability.providers.filter((entry) => nameOf.has(entry.providerId)).map((entry) => [entry.providerId, nameOf.get(entry.providerId)!]))
     const chairTime = rooms.map((room) => ({ operatoryId: room.id, intervals: availability.operatories.find((entry) => entry.operatoryId === room.id)?.intervals ?? [] }))
     const providerTime = availability.providers.filter((entry) => names.has(entry.providerId))
     const days = localDays(query.from, query.to, zone)
-    const figures = siteBalance({ fromMs, toMs, segments: siteSegments, days, operatories: chairTime, providers: providerTime }, thresholds)
-    return { calendar, zone, fromMs, toMs, rooms, segments: siteSegments, names, chairTime, providerTime, days, figures }
-  })
+    const figures = siteBalance({ fromMs, toMs, segments, days, operatories: chairTime, providers: providerTime }, thresholds)
+    return { calendar, zone, fromMs, toMs, rooms, held: heldByChair(segments), names, chairTime, providerTime, days, figures }
+  }))
 }
 
 export type SiteFigures = Awaited<ReturnType<typeof sitesFigures>>[number]

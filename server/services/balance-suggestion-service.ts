@@ -47,7 +47,7 @@ export async function balanceSuggestions(user: SessionUser, query: BalanceQuery)
   const suggestions: BalanceSuggestion[] = []
   for (const { site, figures } of all) {
     const gaps = quietGaps({
-      operatories: figures.chairTime, held: figures.segments, nowMs, minMinutes: MIN_GAP_MINUTES, limit: SUGGESTIONS_PER_KIND,
+      operatories: figures.chairTime, held: figures.held, nowMs, minMinutes: MIN_GAP_MINUTES, limit: SUGGESTIONS_PER_KIND,
       within: figures.figures.days.filter((day) => day.band === 'quiet').map((day) => figures.days.find((edge) => edge.date === day.date)!),
     }).map((gap) => ({ ...gap, endMs: Math.min(gap.endMs, gap.startMs + MAX_GAP_MS) }))
     suggestions.push(...await waitlistFits(user, site.id, figures, gaps))

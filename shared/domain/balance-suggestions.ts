@@ -32,6 +32,17 @@ export interface HeldTime extends EpochInterval {
   operatoryId: number
 }
 
+/** Each chair's held time merged: what `quietGaps` needs of a site's segments, in far fewer intervals. */
+export function heldByChair(segments: readonly HeldTime[]): HeldTime[] {
+  const byChair = new Map<number, EpochInterval[]>()
+  for (const segment of segments) {
+    const chair = byChair.get(segment.operatoryId)
+    if (chair) chair.push(segment)
+    else byChair.set(segment.operatoryId, [segment])
+  }
+  return [...byChair].flatMap(([operatoryId, times]) => mergeIntervals(times).map((time) => ({ operatoryId, startMs: time.startMs, endMs: time.endMs })))
+}
+
 export interface QuietGap extends EpochInterval {
   operatoryId: number
 }

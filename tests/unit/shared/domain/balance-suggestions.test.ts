@@ -1,13 +1,29 @@
 // What Balance suggests (issue 17 §3): quiet gaps, rota moves, consolidation moves. Our own rules
 // (common practice, no source). Fixed instants: pure functions.
 import { describe, expect, it } from 'vitest'
-import { consolidationMoves, quietGaps, receivingHours, rotaMoves, type PlacedVisit, type SiteDay } from '../../../../shared/domain/balance-suggestions'
+import { consolidationMoves, heldByChair, quietGaps, receivingHours, rotaMoves, type PlacedVisit, type SiteDay } from '../../../../shared/domain/balance-suggestions'
 import { localRangeToEpoch } from '../../../../shared/domain/rota'
 
 const M = 60_000
 const DAY = Date.UTC(2027, 2, 10, 8) // 08:00 on the day
 const at = (minutes: number) => DAY + minutes * M
 const span = (from: number, to: number) => ({ startMs: at(from), endMs: at(to) })
+
+describe('heldByChair', () => {
+  it("merges each chair's segments on its own and leaves other chairs' time apart", () => {
+    const held = heldByChair([
+      { operatoryId: 1, ...span(0, 30) }, { operatoryId: 2, ...span(10, 20) }, { operatoryId: 1, ...span(30, 60) },
+      { operatoryId: 1, ...span(90, 100) }, { operatoryId: 2, ...span(15, 40) },
+    ])
+    expect(held).toEqual([{ operatoryId: 1, ...span(0, 60) }, { operatoryId: 1, ...span(90, 100) }, { operatoryId: 2, ...span(10, 40) }])
+  })
+
+  it('gives quietGaps the same gaps as the segments themselves', () => {
+    const segments = [{ operatoryId: 1, ...span(60, 90) }, { operatoryId: 1, ...span(80, 120) }, { operatoryId: 1, ...span(200, 230) }]
+    const input = { operatories: [{ operatoryId: 1, intervals: [span(0, 480)] }], within: [span(0, 480)], nowMs: at(0), minMinutes: 30, limit: 5 }
+    expect(quietGaps({ ...input, held: heldByChair(segments) })).toEqual(quietGaps({ ...input, held: segments }))
+  })
+})
 
 describe('quietGaps', () => {
   it('lists free chair time ahead of now on the quiet days, longest first, at least the minimum long', () => {
