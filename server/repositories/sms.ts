@@ -111,8 +111,9 @@ export interface LastText { outboxId: number; kind: string; siteId: number | nul
  * recipient column would index it).
  */
 export async function lastTextTo(db: Db, number: string): Promise<LastText | undefined> {
-  const row = await db('outbox').where({ channel: 'sms' }).whereNot('kind', 'reply_confirmation').whereNotNull('sent_at')
-    .whereRaw("JSON_VALUE(rendered, '$.to') = ?", [number]).orderBy('id', 'desc').first('id', 'kind', 'site_id', 'visit_id')
+  // sms_to: the number of a text, a virtual column indexed with the id (migration 20261220100200).
+  const row = await db('outbox').where({ sms_to: number, channel: 'sms' }).whereNot('kind', 'reply_confirmation').whereNotNull('sent_at')
+    .orderBy('id', 'desc').first('id', 'kind', 'site_id', 'visit_id')
   return row ? { outboxId: row.id, kind: row.kind, siteId: row.site_id, visitId: row.visit_id } : undefined
 }
 
